@@ -1,0 +1,1 @@
+"""Results into files: CSV tables, plots, drawings, reports. Computes no engineering."""

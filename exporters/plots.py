@@ -1,0 +1,73 @@
+"""Plots per wall (matplotlib, Agg backend): PNG files a person looks at."""
+
+from __future__ import annotations
+
+import contextlib
+from pathlib import Path
+
+import numpy as np
+
+from ..cautions import CAUTIONS
+from ..profile.stationing import format_station
+
+
+@contextlib.contextmanager
+def figure(path: Path, *, nrows: int = 1, figsize=(11, 6.5), sharex=True, **kw):
+    """Create a figure, yield its axes, save it to ``path`` and close it."""
+    import matplotlib
+
+    matplotlib.use("Agg")
+    import matplotlib.pyplot as plt
+
+    fig, axes = plt.subplots(nrows, 1, figsize=figsize, sharex=sharex, squeeze=False, **kw)
+    try:
+        yield fig, axes[:, 0]
+        fig.text(0.01, 0.005, CAUTIONS[0] + " " + CAUTIONS[2], fontsize=6, color="0.35")
+        fig.savefig(path, dpi=110, metadata={"Software": None})
+    finally:
+        plt.close(fig)
+
+
+def station_ticks(ax, start: float, end: float) -> None:
+    """Ticks in station notation at a round interval for the length."""
+    from matplotlib.ticker import FuncFormatter, MultipleLocator
+
+    length = max(end - start, 1.0)
+    step = next(s for s in (10, 25, 50, 100, 200, 500, 1000, 5000) if length / s <= 12)
+    ax.xaxis.set_major_locator(MultipleLocator(step))
+    ax.xaxis.set_major_formatter(FuncFormatter(lambda v, _: format_station(v, 0)))
+
+
+def plot_stations(ws, path: Path) -> None:
+    """Both grades and the retained height against station for one wall."""
+    st = ws.station_ft
+    with figure(path, nrows=2, gridspec_kw={"height_ratios": [2, 1]}) as (fig, (ax1, ax2)):
+        ax1.plot(st, ws.retained_grade_ft, color="tab:brown", lw=1.6, label="retained grade")
+        ax1.plot(st, ws.front_grade_ft, color="tab:green", lw=1.6, label="front grade")
+        if not np.isnan(ws.existing_ground_ft).all():
+            ax1.plot(st, ws.existing_ground_ft, color="0.5", lw=1, ls="--",
+                     label="existing ground")
+        brk = ws.is_break
+        ax1.plot(st[brk], ws.retained_grade_ft[brk], "v", color="tab:brown", ms=4,
+                 label="grade break")
+        ax1.plot(st[brk], ws.front_grade_ft[brk], "^", color="tab:green", ms=4)
+        ax1.set_ylabel("elevation (ft)")
+        ax1.set_title(f"Wall {ws.wall}: grades along the wall")
+        ax1.grid(True, lw=0.3)
+        ax1.legend(loc="best", fontsize=8)
+        h = ws.retained_height_ft
+        ax2.fill_between(st, 0, h, where=h >= 0, color="tab:blue", alpha=0.3, lw=0)
+        ax2.fill_between(st, 0, h, where=h < 0, color="tab:red", alpha=0.5, lw=0,
+                         label="retained side flips")
+        ax2.plot(st, h, color="tab:blue", lw=1.2)
+        k = int(np.argmax(h))
+        ax2.annotate(f"max {h[k]:.2f} ft at {format_station(st[k])}", (st[k], h[k]),
+                     textcoords="offset points", xytext=(5, -12), fontsize=8)
+        ax2.axhline(0, color="k", lw=0.6)
+        ax2.set_ylabel("retained height (ft)")
+        ax2.set_xlabel("station")
+        ax2.grid(True, lw=0.3)
+        if (h < 0).any():
+            ax2.legend(loc="best", fontsize=8)
+        station_ticks(ax2, float(st[0]), float(st[-1]))
+        fig.tight_layout(rect=(0, 0.02, 1, 1))

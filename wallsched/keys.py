@@ -1,0 +1,72 @@
+"""The declared keys of the site file and the section file (DESIGN.md section 4).
+
+One place for every key, its type, range, default and source, shared by the site file,
+the section file and the starter site. Soil keys have no defaults: a soil parameter is
+never defaulted silently.
+"""
+
+from __future__ import annotations
+
+from .schema import REQUIRED, Key
+
+SITE_KEYS = {
+    "name": Key(str, REQUIRED, doc="site or project name"),
+    "engineer": Key(str, None, doc="engineer of record, for the report cover"),
+    "notes": Key(str, None, doc="free text for the report cover"),
+}
+
+# [soil]: from the geotechnical report; never silently defaulted.
+SOIL_KEYS = {
+    "unit_weight_pcf": Key(float, REQUIRED, lo=50, hi=160, doc="backfill unit weight, pcf"),
+    "active_efp_pcf": Key(float, None, lo=0, hi=150, lo_open=True,
+                          doc="active equivalent fluid pressure, pcf (or friction_angle_deg)"),
+    "friction_angle_deg": Key(float, None, lo=0, hi=50, lo_open=True,
+                              doc="backfill friction angle, degrees (or active_efp_pcf)"),
+    "passive_efp_pcf": Key(float, None, lo=0, hi=1000,
+                           doc="passive equivalent fluid pressure, pcf"),
+    "passive_from_friction_angle": Key(bool, False,
+                                       doc="take passive as Rankine Kp from friction_angle_deg"),
+    "friction_coefficient": Key(float, REQUIRED, lo=0, hi=1.0, lo_open=True,
+                                doc="base sliding friction coefficient"),
+    "allowable_bearing_psf": Key(float, REQUIRED, lo=0, hi=50000, lo_open=True,
+                                 doc="allowable bearing pressure, psf"),
+    "source": Key(str, None, doc="where these values come from (report, date)"),
+}
+
+LOADS_KEYS = {
+    "surcharge_psf": Key(float, 0.0, lo=0, hi=5000,
+                         doc="uniform live surcharge on the retained grade, psf"),
+}
+
+MATERIALS_KEYS = {
+    "fc_psi": Key(float, 4000.0, lo=2500, hi=10000,
+                  doc="concrete strength f'c, psi (ACI 318-19 Table 19.2.1.1 minimum 2500)"),
+    "fy_psi": Key(float, 60000.0, lo=40000, hi=80000, doc="reinforcement yield fy, psi (A615)"),
+    "concrete_unit_weight_pcf": Key(float, 150.0, lo=90, hi=160,
+                                    doc="concrete unit weight, pcf (common practice 150)"),
+}
+
+CRITERIA_KEYS = {
+    # stability, IBC 2021 section 1807.2.3
+    "fs_overturning": Key(float, 1.5, lo=1.0, hi=5.0, doc="FS overturning (IBC 1807.2.3)"),
+    "fs_sliding": Key(float, 1.5, lo=1.0, hi=5.0, doc="required FS, sliding (IBC 1807.2.3)"),
+    "count_toe_soil": Key(bool, True, doc="soil over the toe resists"),
+    "use_passive": Key(bool, True, doc="passive pressure on the front resists sliding"),
+    "passive_neglect_ft": Key(float, 1.0, lo=0, hi=10,
+                              doc="depth below front grade with no passive (common practice)"),
+    "surcharge_resists": Key(bool, False, doc="live surcharge weight on the heel resists"),
+    "batter_face": Key(str, "back", choices=("back", "front"), doc="which stem face is battered"),
+    # geometry along the wall (the site pipeline)
+    "min_embedment_ft": Key(float, 1.0, lo=0, hi=20,
+                            doc="front grade to bottom of footing, ft (IBC 2021 1809.4: 12 in)"),
+    "frost_depth_ft": Key(float, None, lo=0, hi=15, doc="frost depth below front grade, ft"),
+    "station_interval_ft": Key(float, 5.0, lo=0.1, hi=500, doc="station spacing, ft"),
+    "coverage_tolerance_ft": Key(float, 0.01, lo=0, hi=5,
+                                 doc="how far a profile may stop short of a wall end, ft"),
+    "freeboard_ft": Key(float, 0.5, lo=0, hi=5,
+                        doc="top of wall above retained grade, ft (common practice)"),
+    "min_retained_height_ft": Key(float, 0.5, lo=0, hi=5,
+                                  doc="below this no wall is needed, ft (common practice)"),
+    "max_retained_height_ft": Key(float, 20.0, lo=1, hi=40,
+                                  doc="cantilever range limit, ft (common practice)"),
+}

@@ -1,0 +1,199 @@
+"""Validation of TOML tables against declared keys.
+
+A table is checked against a mapping of :class:`Key`; unknown keys are refused with a
+did-you-mean hint, required keys must be present, numbers must lie in range, and every
+message names the file, the key and (where it can be found) the line.
+"""
+
+from __future__ import annotations
+
+import difflib
+import math
+import re
+import tomllib
+from collections.abc import Mapping
+from dataclasses import dataclass
+from pathlib import Path
+from typing import Any
+
+from .errors import InputError
+
+REQUIRED = object()  # sentinel: the key must be given
+
+
+@dataclass(frozen=True)
+class Key:
+    """One allowed key of a table.
+
+    Args:
+        kind: ``float``, ``int``, ``bool`` or ``str`` (``float`` also takes integers).
+        default: the value when absent; ``REQUIRED`` to demand it; ``None`` for optional.
+        lo, hi: inclusive range for numbers (``lo_open``/``hi_open`` to exclude the end).
+        choices: allowed strings.
+        doc: one line for messages and the starter site.
+    """
+
+    kind: type
+    default: Any = None
+    lo: float | None = None
+    hi: float | None = None
+    lo_open: bool = False
+    hi_open: bool = False
+    choices: tuple[str, ...] | None = None
+    doc: str = ""
+
+    def range_text(self) -> str:
+        if self.choices:
+            return "one of " + ", ".join(repr(c) for c in self.choices)
+        if self.lo is None and self.hi is None:
+            return f"a {self.kind.__name__}"
+        lo = "" if self.lo is None else f"{'>' if self.lo_open else '>='} {self.lo:g}"
+        hi = "" if self.hi is None else f"{'<' if self.hi_open else '<='} {self.hi:g}"
+        return "a number " + " and ".join(p for p in (lo, hi) if p)
+
+
+class SourceText:
+    """The raw text of a TOML file, to find the line of a key for messages."""
+
+    def __init__(self, path: Path, text: str):
+        self.path = path
+        self.lines = text.splitlines()
+
+    def line_of(self, table: str | None, key: str) -> int | None:
+        """Best-effort line number (1-based) of ``key`` inside ``[table]`` (or anywhere)."""
+        pat = re.compile(rf"^\s*{re.escape(key)}\s*=")
+        header = None if not table else re.compile(
+            rf"^\s*\[+\s*{re.escape(table.split('[')[0].strip())}\s*\]+"
+        )
+        inside = header is None
+        for i, line in enumerate(self.lines, 1):
+            if header is not None and header.match(line):
+                inside = True
+                continue
+            if inside and pat.match(line):
+                return i
+            # an inline table on one line: key = { ... name = ... }
+            if inside and re.search(rf"[{{,]\s*{re.escape(key)}\s*=", line):
+                return i
+        return None
+
+
+def load_toml(path: Path) -> tuple[dict, SourceText]:
+    """Read a TOML file with ``tomllib`` only; a syntax error is an InputError with its line."""
+    try:
+        raw = path.read_bytes()
+    except FileNotFoundError:
+        raise InputError("file not found; check the path", file=path) from None
+    except IsADirectoryError:
+        raise InputError("is a folder, not a TOML file", file=path) from None
+    except OSError as exc:
+        raise InputError(f"cannot be read ({exc.strerror})", file=path) from None
+    try:
+        text = raw.decode("utf-8-sig")
+    except UnicodeDecodeError:
+        raise InputError("is not UTF-8 text; save it as UTF-8 TOML", file=path) from None
+    try:
+        data = tomllib.loads(text)
+    except tomllib.TOMLDecodeError as exc:
+        msg = str(exc)
+        m = re.search(r"\(at line (\d+), column (\d+)\)", msg)
+        where = f"line {m.group(1)}" if m else None
+        msg = re.sub(r"\s*\(at line \d+, column \d+\)", "", msg)
+        raise InputError(f"not valid TOML: {msg}", file=path, where=where) from None
+    return data, SourceText(path, text)
+
+
+def did_you_mean(name: str, allowed: Mapping[str, Any] | list[str]) -> str:
+    close = difflib.get_close_matches(name, list(allowed), n=1, cutoff=0.6)
+    if close:
+        return f"did you mean '{close[0]}'?"
+    return "allowed keys: " + ", ".join(sorted(allowed))
+
+
+def where_text(src: SourceText | None, table: str | None, key: str) -> str:
+    label = f"[{table}] {key}" if table else key
+    if src is not None:
+        line = src.line_of(table, key)
+        if line:
+            return f"line {line}: {label}"
+    return label
+
+
+def check_value(value: Any, spec: Key, *, file, where: str) -> Any:
+    """Check one value against its key; returns it converted (int -> float for floats)."""
+    kind = spec.kind
+    if kind is float:
+        if isinstance(value, bool) or not isinstance(value, int | float):
+            raise InputError(
+                f"must be a number, got {value!r}; allowed: {spec.range_text()}",
+                file=file, where=where,
+            )
+        value = float(value)
+        if not math.isfinite(value):
+            raise InputError(f"must be finite, got {value!r}", file=file, where=where)
+    elif kind is int:
+        if isinstance(value, bool) or not isinstance(value, int):
+            raise InputError(f"must be a whole number, got {value!r}", file=file, where=where)
+    elif kind is bool:
+        if not isinstance(value, bool):
+            raise InputError(f"must be true or false, got {value!r}", file=file, where=where)
+        return value
+    elif kind is str:
+        if not isinstance(value, str):
+            raise InputError(f"must be a text string, got {value!r}", file=file, where=where)
+        if spec.choices and value not in spec.choices:
+            hint = difflib.get_close_matches(value, spec.choices, n=1)
+            extra = f" (did you mean {hint[0]!r}?)" if hint else ""
+            raise InputError(
+                f"{value!r} is not allowed; use {spec.range_text()}{extra}",
+                file=file, where=where,
+            )
+        return value
+    if kind in (float, int):
+        bad = (
+            (spec.lo is not None and (value < spec.lo or (spec.lo_open and value == spec.lo)))
+            or (spec.hi is not None and (value > spec.hi or (spec.hi_open and value == spec.hi)))
+        )
+        if bad:
+            raise InputError(
+                f"{value:g} is out of range; allowed: {spec.range_text()}", file=file, where=where
+            )
+    return value
+
+
+def check_table(
+    data: Any,
+    keys: Mapping[str, Key],
+    *,
+    table: str,
+    file,
+    src: SourceText | None = None,
+    extra_ok: tuple[str, ...] = (),
+    fill_defaults: bool = True,
+) -> dict[str, Any]:
+    """Validate one table; returns a dict of every declared key (defaults filled in)."""
+    if not isinstance(data, dict):
+        raise InputError(f"[{table}] must be a table, got {type(data).__name__}", file=file,
+                         where=f"[{table}]")
+    for name in data:
+        if name not in keys and name not in extra_ok:
+            raise InputError(
+                f"unknown key '{name}'; {did_you_mean(name, list(keys) + list(extra_ok))}",
+                file=file, where=where_text(src, table, name),
+            )
+    out: dict[str, Any] = {}
+    for name, spec in keys.items():
+        if name in data:
+            out[name] = check_value(data[name], spec, file=file,
+                                    where=where_text(src, table, name))
+        elif spec.default is REQUIRED:
+            if not fill_defaults:
+                continue
+            raise InputError(
+                f"missing required key '{name}' ({spec.doc or spec.range_text()}); "
+                "it has no default and must be given",
+                file=file, where=f"[{table}]",
+            )
+        elif fill_defaults:
+            out[name] = spec.default
+    return out

@@ -1,0 +1,301 @@
+"""The site file (``site.toml``): read with tomllib, validated into frozen dataclasses.
+
+Every message names the file and the key (and the line where it can be found); unknown keys
+are refused with a did-you-mean hint; soil keys are never defaulted; paths are relative to
+the site file and may not leave its folder.
+"""
+
+from __future__ import annotations
+
+import hashlib
+from collections.abc import Mapping
+from dataclasses import dataclass, field
+from pathlib import Path
+from types import MappingProxyType
+from typing import Any
+
+from .errors import InputError
+from .keys import CRITERIA_KEYS, LOADS_KEYS, MATERIALS_KEYS, SITE_KEYS, SOIL_KEYS
+from .schema import REQUIRED, Key, SourceText, check_table, check_value, did_you_mean, load_toml
+from .schema import where_text as _where
+
+# Tables a wall may override, with their declared keys.
+OVERRIDABLE = {"soil": SOIL_KEYS, "loads": LOADS_KEYS, "materials": MATERIALS_KEYS,
+               "criteria": CRITERIA_KEYS}
+TOP_LEVEL = ("site", "soil", "loads", "materials", "criteria", "walls")
+SOURCE_KINDS = ("csv", "dxf", "gis")
+
+WALL_KEYS = {
+    "id": Key(str, REQUIRED, doc="wall id, unique on the site"),
+    "retained_side": Key(str, REQUIRED, choices=("left", "right"),
+                         doc="side of the retained soil, looking up-station"),
+    "start_station_ft": Key(float, 0.0, lo=-1e7, hi=1e7, doc="station at the alignment's start"),
+    "name": Key(str, None, doc="a longer name for the wall"),
+}
+WALL_SOURCES = ("alignment", "retained_grade", "front_grade", "existing_ground")
+
+
+@dataclass(frozen=True)
+class Source:
+    """Where one line of a wall comes from: a CSV, a DXF layer or a GIS feature.
+
+    ``options`` holds the remaining keys of an inline table; the reader of that kind
+    validates them. ``key`` names the site-file key for messages.
+    """
+
+    kind: str
+    path: Path
+    key: str
+    options: Mapping[str, Any] = field(default_factory=lambda: MappingProxyType({}))
+
+
+@dataclass(frozen=True)
+class WallSpec:
+    """One ``[[walls]]`` entry with its resolved soil, loads, materials and criteria."""
+
+    index: int
+    id: str
+    retained_side: str
+    alignment: Source
+    retained_grade: Source
+    front_grade: Source
+    existing_ground: Source | None
+    start_station_ft: float
+    soil: Mapping[str, Any]
+    loads: Mapping[str, Any]
+    materials: Mapping[str, Any]
+    criteria: Mapping[str, Any]
+    name: str | None = None
+
+
+@dataclass(frozen=True)
+class Site:
+    """A whole validated site file."""
+
+    path: Path
+    folder: Path
+    name: str
+    meta: Mapping[str, Any]
+    soil: Mapping[str, Any]
+    loads: Mapping[str, Any]
+    materials: Mapping[str, Any]
+    criteria: Mapping[str, Any]
+    walls: tuple[WallSpec, ...]
+    raw: Mapping[str, Any]
+
+    def input_files(self) -> list[Path]:
+        """The site file and every file it points to, once each, in a stable order."""
+        files = [self.path]
+        for w in self.walls:
+            for name in WALL_SOURCES:
+                src = getattr(w, name)
+                if src is not None and src.path not in files:
+                    files.append(src.path)
+        return files
+
+    def input_hashes(self) -> dict[str, str]:
+        """SHA-256 of every input file, keyed by its path relative to the site folder."""
+        return {str(p.relative_to(self.folder)): sha256_of(p) for p in self.input_files()}
+
+
+def sha256_of(path: Path) -> str:
+    h = hashlib.sha256()
+    with path.open("rb") as f:
+        for chunk in iter(lambda: f.read(1 << 20), b""):
+            h.update(chunk)
+    return h.hexdigest()
+
+
+def resolve_inside(folder: Path, value: str, *, file, where: str) -> Path:
+    """A path relative to the site folder that must stay inside it (symlinks resolved)."""
+    if not value.strip():
+        raise InputError("path is empty", file=file, where=where)
+    p = Path(value)
+    if p.is_absolute():
+        raise InputError(f"'{value}' is an absolute path; give a path relative to the site file",
+                         file=file, where=where)
+    root = folder.resolve()
+    full = (folder / p).resolve()
+    try:
+        full.relative_to(root)
+    except ValueError:
+        raise InputError(f"'{value}' leaves the site folder; keep every input file beside or "
+                         "below the site file", file=file, where=where) from None
+    if not full.exists():
+        raise InputError(f"file '{value}' not found (looked in {folder})", file=file, where=where)
+    if not full.is_file():
+        raise InputError(f"'{value}' is not a file", file=file, where=where)
+    return full
+
+
+def resolve_soil(soil: dict[str, Any], criteria: Mapping[str, Any], *, file, table: str) -> dict:
+    """Cross-key rules of [soil]: exactly one active-pressure basis; passive when used."""
+    has_efp = soil.get("active_efp_pcf") is not None
+    has_phi = soil.get("friction_angle_deg") is not None
+    if has_efp and has_phi:
+        raise InputError("give either active_efp_pcf or friction_angle_deg, not both",
+                         file=file, where=f"[{table}]")
+    if not (has_efp or has_phi):
+        raise InputError("missing the active pressure: give active_efp_pcf (equivalent fluid "
+                         "pressure, pcf) or friction_angle_deg from the geotechnical report",
+                         file=file, where=f"[{table}]")
+    if soil.get("passive_from_friction_angle"):
+        if not has_phi:
+            raise InputError("passive_from_friction_angle needs friction_angle_deg",
+                             file=file, where=f"[{table}] passive_from_friction_angle")
+        if soil.get("passive_efp_pcf") is not None:
+            raise InputError("give either passive_efp_pcf or passive_from_friction_angle, "
+                             "not both", file=file, where=f"[{table}]")
+    elif criteria.get("use_passive", True) and soil.get("passive_efp_pcf") is None:
+        raise InputError("missing passive_efp_pcf (or set passive_from_friction_angle = true, "
+                         "or [criteria] use_passive = false)", file=file, where=f"[{table}]")
+    return soil
+
+
+def _source(value: Any, *, folder: Path, file, key: str) -> Source:
+    if isinstance(value, str):
+        return Source("csv", resolve_inside(folder, value, file=file, where=key), key)
+    if isinstance(value, dict):
+        kinds = [k for k in SOURCE_KINDS if k in value]
+        if len(kinds) != 1:
+            raise InputError("an inline source needs exactly one of "
+                             + ", ".join(f"'{k}'" for k in SOURCE_KINDS)
+                             + " naming its file", file=file, where=key)
+        kind = kinds[0]
+        path_value = value[kind]
+        if not isinstance(path_value, str):
+            raise InputError(f"'{kind}' must be a path string", file=file, where=f"{key}.{kind}")
+        path = resolve_inside(folder, path_value, file=file, where=f"{key}.{kind}")
+        options = {k: v for k, v in value.items() if k != kind}
+        from .profile.sources import check_source_options
+
+        check_source_options(kind, options, file=file, key=key)
+        return Source(kind, path, key, MappingProxyType(options))
+    raise InputError(f"must be a CSV path or an inline table such as {{ dxf = \"plan.dxf\", "
+                     f"layer = \"...\" }}, got {value!r}", file=file, where=key)
+
+
+def _wall(i: int, raw: Any, site: dict[str, dict], *, folder: Path, file, src: SourceText):
+    label = f"walls[{i + 1}]"
+    if not isinstance(raw, dict):
+        raise InputError("each [[walls]] entry must be a table", file=file, where=label)
+    flat_override = {}
+    nested = {}
+    own = {}
+    allowed = set(WALL_KEYS) | set(WALL_SOURCES) | set(OVERRIDABLE)
+    owner_of = {k: t for t, keys in OVERRIDABLE.items() for k in keys}
+    for k, v in raw.items():
+        if k in OVERRIDABLE:
+            nested[k] = v
+        elif k in owner_of:
+            flat_override.setdefault(owner_of[k], {})[k] = v
+        elif k in allowed:
+            own[k] = v
+        else:
+            hint = did_you_mean(k, sorted(allowed | set(owner_of)))
+            raise InputError(f"unknown key '{k}'; {hint}", file=file,
+                             where=_where(src, "walls", k))
+    base = check_table({k: v for k, v in own.items() if k in WALL_KEYS}, WALL_KEYS,
+                       table="walls", file=file, src=src)
+    wid = base["id"].strip()
+    if not wid:
+        raise InputError("wall id is empty", file=file, where=f"{label}.id")
+    label = f"walls[{i + 1}] (id {wid!r})"
+    resolved = {}
+    for table, keys in OVERRIDABLE.items():
+        over = dict(nested.get(table, {}) or {})
+        if not isinstance(nested.get(table, {}), dict):
+            raise InputError(f"'{table}' must be a table", file=file, where=f"{label}.{table}")
+        over.update(flat_override.get(table, {}))
+        for k in over:
+            if k not in keys:
+                raise InputError(f"unknown key '{k}'; {did_you_mean(k, keys)}", file=file,
+                                 where=f"{label}.{table}")
+        merged = dict(site[table])
+        if table == "soil" and ({"active_efp_pcf", "friction_angle_deg"} & set(over)):
+            merged.pop("active_efp_pcf", None)
+            merged.pop("friction_angle_deg", None)
+        if table == "soil" and ({"passive_efp_pcf", "passive_from_friction_angle"} & set(over)):
+            merged.pop("passive_efp_pcf", None)
+            merged.pop("passive_from_friction_angle", None)
+        for k, v in over.items():
+            merged[k] = check_value(v, keys[k], file=file, where=f"{label}.{k}")
+        for k, spec in keys.items():
+            if k not in merged:
+                merged[k] = None if spec.default is REQUIRED else spec.default
+        resolved[table] = merged
+    resolve_soil(resolved["soil"], resolved["criteria"], file=file, table=f"{label} soil")
+    sources = {}
+    for name in WALL_SOURCES:
+        if name not in own:
+            if name == "existing_ground":
+                sources[name] = None
+                continue
+            raise InputError(f"missing required key '{name}'", file=file, where=label)
+        sources[name] = _source(own[name], folder=folder, file=file, key=f"{label}.{name}")
+    return WallSpec(
+        index=i, id=wid, retained_side=base["retained_side"],
+        start_station_ft=base["start_station_ft"], name=base["name"],
+        soil=MappingProxyType(resolved["soil"]), loads=MappingProxyType(resolved["loads"]),
+        materials=MappingProxyType(resolved["materials"]),
+        criteria=MappingProxyType(resolved["criteria"]), **sources,
+    )
+
+
+def load_site(path: str | Path) -> Site:
+    """Read and validate a site file. Raises InputError with one clear line."""
+    path = Path(path)
+    data, src = load_toml(path)
+    file = path.name if path.parent == Path(".") else str(path)
+    for k in data:
+        if k not in TOP_LEVEL:
+            raise InputError(f"unknown table or key '{k}'; {did_you_mean(k, list(TOP_LEVEL))}",
+                             file=file, where=_where(src, None, k))
+    if "site" not in data:
+        raise InputError("missing the [site] table (name = \"...\")", file=file)
+    meta = check_table(data["site"], SITE_KEYS, table="site", file=file, src=src)
+    if "soil" not in data:
+        raise InputError("missing the [soil] table; soil parameters must come from the "
+                         "geotechnical report and are never assumed", file=file)
+    # Soil keys may be completed per wall, so a site-level [soil] may leave some out only
+    # when every wall gives them; the per-wall check below enforces presence.
+    tables = {}
+    for t, keys in OVERRIDABLE.items():
+        tables[t] = check_table(data.get(t, {}), keys, table=t, file=file, src=src,
+                                fill_defaults=True) if t != "soil" else None
+    soil_raw = data["soil"]
+    soil = check_table(soil_raw, SOIL_KEYS, table="soil", file=file, src=src,
+                       fill_defaults=False)
+    tables["soil"] = {k: soil.get(k, None if SOIL_KEYS[k].default is REQUIRED
+                                  else SOIL_KEYS[k].default) for k in SOIL_KEYS}
+    walls_raw = data.get("walls")
+    if not walls_raw:
+        raise InputError("no [[walls]] entries; add at least one wall", file=file)
+    if not isinstance(walls_raw, list):
+        raise InputError("'walls' must be an array of tables ([[walls]])", file=file,
+                         where="walls")
+    folder = path.parent
+    walls = []
+    seen: dict[str, int] = {}
+    for i, w in enumerate(walls_raw):
+        spec = _wall(i, w, tables, folder=folder, file=file, src=src)
+        if spec.id in seen:
+            raise InputError(f"wall id {spec.id!r} is used twice (walls[{seen[spec.id] + 1}] "
+                             f"and walls[{i + 1}]); wall ids must be unique",
+                             file=file, where=f"walls[{i + 1}].id")
+        seen[spec.id] = i
+        for k, spec_k in SOIL_KEYS.items():
+            if spec_k.default is REQUIRED and spec.soil.get(k) is None:
+                raise InputError(
+                    f"missing required soil key '{k}' ({spec_k.doc}) for wall {spec.id!r}; "
+                    "soil parameters are never defaulted - give it in [soil] or in the wall",
+                    file=file, where="[soil]")
+        walls.append(spec)
+    # the site-level soil, for the record (validated per wall above)
+    return Site(
+        path=path.resolve(), folder=folder.resolve(), name=meta["name"],
+        meta=MappingProxyType(meta), soil=MappingProxyType(tables["soil"]),
+        loads=MappingProxyType(tables["loads"]), materials=MappingProxyType(tables["materials"]),
+        criteria=MappingProxyType(tables["criteria"]), walls=tuple(walls),
+        raw=MappingProxyType(data),
+    )
