@@ -48,9 +48,9 @@ def plot_stations(ws, path: Path) -> None:
             ax1.plot(st, ws.existing_ground_ft, color="0.5", lw=1, ls="--",
                      label="existing ground")
         brk = ws.is_break
-        ax1.plot(st[brk], ws.retained_grade_ft[brk], "v", color="tab:brown", ms=4,
-                 label="grade break")
-        ax1.plot(st[brk], ws.front_grade_ft[brk], "^", color="tab:green", ms=4)
+        for x in st[brk]:
+            ax1.axvline(x, color="0.8", lw=0.5, zorder=0)
+        ax1.plot([], [], color="0.8", lw=0.5, label="station at a grade break")
         ax1.set_ylabel("elevation (ft)")
         ax1.set_title(f"Wall {ws.wall}: grades along the wall")
         ax1.grid(True, lw=0.3)
