@@ -84,3 +84,7 @@ def init(folder: Path):
 
 if __name__ == "__main__":  # pragma: no cover
     sys.exit(main())
+
+from .cmd_diff import diff  # noqa: E402
+
+main.add_command(diff)
