@@ -5,7 +5,7 @@ from pathlib import Path
 import numpy as np
 import pytest
 import shapely
-from hypothesis import given, settings
+from hypothesis import assume, given, settings
 from hypothesis import strategies as st
 from sitekit import write
 from wallsched.profile.csvread import (
@@ -38,6 +38,7 @@ def profiles(draw):
         inner = sorted(draw(st.lists(st.floats(0.01, 0.99), min_size=n - 2, max_size=n - 2,
                                      unique=True)))
         s = start + length * np.array([0.0, *inner, 1.0])
+        assume((np.diff(s) > 1e-6).all())  # a valid profile: stations strictly increasing
         e = np.array(draw(st.lists(st.floats(90, 130), min_size=n, max_size=n)))
         return prof(s, e)
     return start, length, one(), one(), draw(st.sampled_from([1.0, 2.5, 5.0, 10.0, 25.0]))
