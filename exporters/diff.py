@@ -1,8 +1,9 @@
 """Compare two run folders after a grading change: which segments changed, and by how much.
 
 The comparison reads only ``schedule.csv`` (required) and ``stations.csv`` (optional) of each
-run folder (DESIGN.md section 5) and never looks at anything else. The rules, so that a person
-can predict the output:
+run folder (DESIGN.md section 5) and never looks at anything else; unknown columns are ignored,
+and so are blank lines, lines starting with ``#`` and text lines (a footer) with no segment and
+no stations. The rules, so that a person can predict the output:
 
 Walls
     Matched by id (text, surrounding blanks ignored). A wall only in the new run has every
@@ -190,20 +191,49 @@ class RunTables:
     stations: pd.DataFrame | None
     folder: Path | None = None
 
+    @classmethod
+    def from_frames(cls, schedule, stations=None, folder: Path | None = None) -> RunTables:
+        """Tables held in memory (e.g. a run just designed), checked as if read from files."""
+        return cls(check_schedule(schedule),
+                   None if stations is None else check_stations(stations), folder)
 
-def _read_csv(path: Path, text_columns: Sequence[str]):
+
+def _read_csv(path: Path, text_columns: Sequence[str], key_columns: Sequence[str]):
+    """Read a run table; note lines are skipped (see :func:`read_schedule`).
+
+    The frame gets a column ``source_line``: the line number of each row in the file.
+    """
+    import io
+
     import pandas as pd
 
     try:
-        frame = pd.read_csv(path, dtype={c: str for c in text_columns}, keep_default_na=False,
-                            na_values=[""], skipinitialspace=True)
-    except pd.errors.EmptyDataError:
-        raise InputError("is empty; expected a header line and one row per item",
-                         file=path) from None
-    except (pd.errors.ParserError, UnicodeDecodeError, ValueError) as exc:
+        text = path.read_text(encoding="utf-8-sig")
+    except UnicodeDecodeError:
+        raise InputError("is not UTF-8 text", file=path) from None
+    except OSError as exc:
+        raise InputError(f"cannot be read ({exc.strerror})", file=path) from None
+    kept = [(n, line) for n, line in enumerate(text.splitlines(), 1)
+            if line.strip() and not line.lstrip().lstrip('"').startswith("#")]
+    if not kept:
+        raise InputError("is empty; expected a header line and one row per item", file=path)
+    try:
+        frame = pd.read_csv(io.StringIO("\n".join(line for _, line in kept)),
+                            dtype={c: str for c in text_columns}, keep_default_na=False,
+                            na_values=[""], skipinitialspace=True, skip_blank_lines=False)
+    except (pd.errors.ParserError, pd.errors.EmptyDataError, ValueError) as exc:
         msg = " ".join(str(exc).split())
         raise InputError(f"is not a readable CSV table ({msg})", file=path) from None
     frame.columns = [str(c).strip() for c in frame.columns]
+    if len(frame) == len(kept) - 1:
+        frame["source_line"] = [n for n, _ in kept[1:]]
+    else:  # a quoted field over several lines: count rows instead
+        frame["source_line"] = np.arange(len(frame)) + 2
+    keys = [c for c in key_columns if c in frame.columns]
+    if keys:  # a text line (e.g. a footer) with none of the key columns is not a row
+        blank = frame[keys].isna() | (frame[keys].astype(str).apply(lambda c: c.str.strip())
+                                      == "")
+        frame = frame[~blank.all(axis=1)].reset_index(drop=True)
     return frame
 
 
@@ -216,14 +246,28 @@ def _numeric(frame, column: str, path: Path):
     if bad.any():
         i = int(np.flatnonzero(bad.to_numpy())[0])
         raise InputError(f"{column} must be a number, got {raw.iloc[i]!r}", file=path,
-                         where=f"line {i + 2}")
+                         where=f"line {frame['source_line'].iloc[i]}")
     return values.astype(float)
+
+
+SCHEDULE_TEXT = ("wall", "segment", "status", *(f.name for f in FIELDS if f.kind == "bar"))
 
 
 def read_schedule(path: Path):
     """Read and check a ``schedule.csv``; raises InputError naming the file and line."""
-    text = ["wall", "segment", "status", *(f.name for f in FIELDS if f.kind == "bar")]
-    frame = _read_csv(path, text)
+    frame = _read_csv(path, SCHEDULE_TEXT, ["segment", "station_start_ft", "station_end_ft"])
+    return check_schedule(frame, path)
+
+
+def check_schedule(frame, path: Path | str = "schedule.csv"):
+    """Check and normalize a schedule frame (as read, or as the pipeline holds it in memory).
+
+    Numbers become floats (blank = NaN), text is stripped (blank = ""); returns a new frame.
+    """
+    frame = frame.copy()
+    text = SCHEDULE_TEXT
+    if "source_line" not in frame.columns:
+        frame["source_line"] = np.arange(len(frame)) + 2
     missing = [c for c in REQUIRED_COLUMNS if c not in frame.columns]
     if missing:
         raise InputError(f"missing column(s) {', '.join(missing)}; not a wall schedule written "
@@ -235,8 +279,8 @@ def read_schedule(path: Path):
     for c in text:
         if c in frame.columns:
             frame[c] = frame[c].fillna("").astype(str).str.strip()
-    for i, row in enumerate(frame.itertuples(index=False)):
-        where = f"line {i + 2}"
+    for row in frame.itertuples(index=False):
+        where = f"line {row.source_line}"
         if not row.wall or not row.segment:
             raise InputError("wall and segment must not be blank", file=path, where=where)
         s, e = row.station_start_ft, row.station_end_ft
@@ -251,13 +295,20 @@ def read_schedule(path: Path):
         i = int(np.flatnonzero(dup.to_numpy())[0])
         raise InputError(f"segment {frame['segment'].iloc[i]!r} of wall "
                          f"{frame['wall'].iloc[i]!r} appears twice", file=path,
-                         where=f"line {i + 2}")
+                         where=f"line {frame['source_line'].iloc[i]}")
     return frame
 
 
 def read_stations(path: Path):
     """Read and check a ``stations.csv`` (wall, station_ft, retained_height_ft; rest ignored)."""
-    frame = _read_csv(path, ["wall", "station", "note"])
+    return check_stations(_read_csv(path, ["wall", "station", "note"], ["station_ft"]), path)
+
+
+def check_stations(frame, path: Path | str = "stations.csv"):
+    """Check a stations frame; returns ``wall, station_ft, retained_height_ft``."""
+    frame = frame.copy()
+    if "source_line" not in frame.columns:
+        frame["source_line"] = np.arange(len(frame)) + 2
     if "retained_height_ft" not in frame.columns and {
             "retained_grade_ft", "front_grade_ft"} <= set(frame.columns):
         frame["retained_height_ft"] = (_numeric(frame, "retained_grade_ft", path)
@@ -272,7 +323,8 @@ def read_stations(path: Path):
         bad = ~np.isfinite(frame[c].to_numpy())
         if bad.any():
             i = int(np.flatnonzero(bad)[0])
-            raise InputError(f"{c} must be given", file=path, where=f"line {i + 2}")
+            raise InputError(f"{c} must be given", file=path,
+                             where=f"line {frame['source_line'].iloc[i]}")
     return frame[["wall", "station_ft", "retained_height_ft"]]
 
 
@@ -539,7 +591,8 @@ def _overlap(a0: float, a1: float, b0: float, b1: float) -> float:
     return min(a1, b1) - max(a0, b0)
 
 
-def _fields_present(old, new) -> tuple[Field, ...]:
+def _fields_present(old, new, old_label="old schedule.csv",
+                    new_label="new schedule.csv") -> tuple[Field, ...]:
     """Compared fields: those in both schedules; the cost column only if in both."""
     cols_o, cols_n = set(old.columns), set(new.columns)
     fields = []
@@ -547,8 +600,9 @@ def _fields_present(old, new) -> tuple[Field, ...]:
         if f.name in cols_o and f.name in cols_n:
             fields.append(f)
         elif f.name in cols_o or f.name in cols_n:
-            raise InputError(f"column {f.name} is in one schedule only; re-run both with the "
-                             "same version of wallsched", file="schedule.csv", where="line 1")
+            side = new_label if f.name in cols_n else old_label
+            raise InputError(f"column {f.name} is in this schedule only; re-run both runs with "
+                             "the same version of wallsched", file=side, where="line 1")
     cost = next((c for c in COST_COLUMNS if c in cols_o and c in cols_n), None)
     if cost:
         i = next(i for i, f in enumerate(fields) if f.name == "steel_lb") + 1 \
@@ -605,7 +659,9 @@ def diff_tables(old: RunTables, new: RunTables, *,
     if not (math.isfinite(height_tol_ft) and height_tol_ft >= 0):
         raise InputError(f"must be a number >= 0, got {height_tol_ft!r}", where="--height-tol")
     so, sn = old.schedule, new.schedule
-    fields = _fields_present(so, sn)
+    fields = _fields_present(so, sn, *(str(t.folder / "schedule.csv") if t.folder else
+                                       f"{lab} schedule.csv"
+                                       for t, lab in ((old, "old"), (new, "new"))))
     walls_new = list(dict.fromkeys(sn["wall"]))
     walls_old = list(dict.fromkeys(so["wall"]))
     order = walls_new + [w for w in walls_old if w not in walls_new]

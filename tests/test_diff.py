@@ -15,7 +15,9 @@ import pytest
 from click.testing import CliRunner
 from wallsched.exporters.diff import (
     DIFF_COLUMNS,
+    RunTables,
     diff_runs,
+    diff_tables,
     height_change_ranges,
     write_diff,
 )
@@ -327,3 +329,51 @@ def test_negative_height_tolerance_is_refused(tmp_path):
     res = CliRunner().invoke(main, ["diff", str(run), str(run), "--height-tol", "-1"])
     assert res.exit_code == 2
     assert "--height-tol" in res.output
+
+
+def test_footer_and_comment_lines_are_not_segments(tmp_path):
+    old = write_run(tmp_path / "a", base_segments())
+    new = write_run(tmp_path / "b", base_segments())
+    path = new / "schedule.csv"
+    lines = path.read_text().splitlines()
+    lines.insert(1, "# revision B grading")
+    lines.append("")
+    lines.append("PRELIMINARY DESIGN AID ONLY - review required")
+    path.write_text("\n".join(lines) + "\n")
+    assert not diff_runs(old, new).changed
+    # a bad number is still reported at its own line of the file
+    lines[3] = lines[3].replace(",3.5000,", ",four,", 1)
+    path.write_text("\n".join(lines) + "\n")
+    with pytest.raises(InputError) as info:
+        diff_runs(old, new)
+    assert info.value.where == "line 4"
+    assert "heel_ft" in info.value.message
+
+
+def test_tables_in_memory_compare_like_folders(tmp_path):
+    """The entry point a re-run with a comparison can call without writing files."""
+    segs = base_segments()
+    changed = base_segments()
+    changed[3]["toe_bars"] = "#5@12"
+    d = diff_tables(RunTables.from_frames(pd.DataFrame(segs)),
+                    RunTables.from_frames(pd.DataFrame(changed)))
+    assert named(d) == {("changed", "W2-01", "W2-01")}
+    assert list(d.rows["field"]) == ["toe_bars"]
+    assert d.changed_segments("W2") == [("changed", "W2-01", "W2-01")]
+    assert d.changed_segments("W1") == []
+
+
+def test_schedule_columns_must_agree_but_cost_is_optional(tmp_path):
+    segs = base_segments()
+    old = write_run(tmp_path / "a", [{k: v for k, v in s.items() if k != "cost"} for s in segs])
+    new = write_run(tmp_path / "b", segs)
+    d = diff_runs(old, new)
+    assert not d.changed
+    cost = d.site_quantities.set_index("quantity").loc["cost"]
+    assert math.isnan(cost["delta"])
+    assert any("cost" in n and "new" in n for n in d.notes)
+    lacking = write_run(tmp_path / "c", [{k: v for k, v in s.items() if k != "heel_ft"}
+                                        for s in segs])
+    res = CliRunner().invoke(main, ["diff", str(lacking), str(new)])
+    assert res.exit_code == 2
+    assert "heel_ft" in res.output
