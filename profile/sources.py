@@ -15,9 +15,15 @@ from .csvread import Alignment, GradeProfile, read_alignment_csv, read_grade_csv
 # Option keys an inline source table may carry besides its file key, per kind.
 OPTION_KEYS: dict[str, tuple[str, ...]] = {
     "csv": (),
-    "dxf": (),
-    "gis": (),
+    "dxf": ("layer", "start", "gap_tolerance_ft", "units", "max_offset_ft", "labels",
+            "pattern", "allowance_ft", "view", "origin_station_ft", "origin_elevation_ft",
+            "vertical_exaggeration", "origin_xy"),
+    "gis": ("field", "value", "layer", "start", "units", "to_crs", "max_offset_ft"),
 }
+UNIT_NAMES = ("ft", "us-ft", "m", "cm", "mm", "in")
+ALIGNMENT_ONLY = ("start", "gap_tolerance_ft")
+GRADE_ONLY = ("max_offset_ft", "labels", "pattern", "allowance_ft", "view",
+              "origin_station_ft", "origin_elevation_ft", "vertical_exaggeration", "origin_xy")
 
 
 def check_source_options(kind: str, options: Mapping[str, Any], *, file, key: str) -> None:
@@ -35,6 +41,117 @@ def check_source_options(kind: str, options: Mapping[str, Any], *, file, key: st
                 "allowed: " + ", ".join(allowed) if allowed else "no options are allowed")
             raise InputError(f"unknown option '{k}' for a {kind} source; {tail}",
                              file=file, where=key)
+    check_option_values(kind, options, file=file, key=key)
+
+
+def _number(options, name, *, file, key, lo=None, positive=False):
+    v = options.get(name)
+    if v is None:
+        return
+    if isinstance(v, bool) or not isinstance(v, (int, float)):
+        raise InputError(f"'{name}' must be a number, got {v!r}", file=file,
+                         where=f"{key}.{name}")
+    if positive and not v > 0:
+        raise InputError(f"'{name}' must be greater than 0, got {v!r}", file=file,
+                         where=f"{key}.{name}")
+    if lo is not None and v < lo:
+        raise InputError(f"'{name}' must be at least {lo:g}, got {v!r}", file=file,
+                         where=f"{key}.{name}")
+
+
+def _point(options, name, *, file, key):
+    v = options.get(name)
+    if v is None:
+        return
+    ok = (isinstance(v, list) and len(v) == 2
+          and all(isinstance(c, (int, float)) and not isinstance(c, bool) for c in v))
+    if not ok:
+        raise InputError(f"'{name}' must be a point [x, y] (two numbers), got {v!r}",
+                         file=file, where=f"{key}.{name}")
+
+
+def check_option_values(kind: str, options: Mapping[str, Any], *, file, key: str) -> None:
+    """Types, ranges and combinations of an inline source's options."""
+    is_alignment = key.endswith("alignment")
+    for name in options:
+        if is_alignment and name in GRADE_ONLY:
+            raise InputError(f"'{name}' applies to grade sources, not to an alignment",
+                             file=file, where=f"{key}.{name}")
+        if not is_alignment and name in ALIGNMENT_ONLY:
+            raise InputError(f"'{name}' applies to an alignment, not to a grade",
+                             file=file, where=f"{key}.{name}")
+    for name in ("layer", "field", "to_crs", "pattern"):
+        v = options.get(name)
+        if v is not None and (not isinstance(v, str) or not v.strip()):
+            raise InputError(f"'{name}' must be a non-empty string, got {v!r}", file=file,
+                             where=f"{key}.{name}")
+    if kind == "dxf" and "layer" not in options:
+        raise InputError("a DXF source needs layer = \"...\" (the drawing's layer name)",
+                         file=file, where=key)
+    if kind == "gis" and ("field" in options) != ("value" in options):
+        raise InputError("give field and value together (the attribute that picks the "
+                         "feature and its value)", file=file, where=key)
+    v = options.get("value")
+    if v is not None and (isinstance(v, bool) or not isinstance(v, (str, int, float))):
+        raise InputError(f"'value' must be a string or a number, got {v!r}", file=file,
+                         where=f"{key}.value")
+    u = options.get("units")
+    if u is not None and u not in UNIT_NAMES:
+        raise InputError(f"units = {u!r} is not known; use one of "
+                         + ", ".join(f'"{n}"' for n in UNIT_NAMES), file=file,
+                         where=f"{key}.units")
+    start = options.get("start")
+    if start is not None and not (isinstance(start, str) and start.lower() in (
+            "first vertex", "last vertex")):
+        _point(options, "start", file=file, key=key)
+    _point(options, "origin_xy", file=file, key=key)
+    _number(options, "gap_tolerance_ft", file=file, key=key, lo=0.0)
+    _number(options, "max_offset_ft", file=file, key=key, positive=True)
+    _number(options, "allowance_ft", file=file, key=key, lo=0.0)
+    _number(options, "origin_station_ft", file=file, key=key)
+    _number(options, "origin_elevation_ft", file=file, key=key)
+    _number(options, "vertical_exaggeration", file=file, key=key, positive=True)
+    labels = options.get("labels")
+    if labels is not None and (not isinstance(labels, str) or labels.upper() not in ("TW", "BW")):
+        raise InputError(f"labels = {labels!r}; use \"TW\" (top of wall / retained grade) or "
+                         "\"BW\" (bottom of wall / front grade)", file=file,
+                         where=f"{key}.labels")
+    for name in ("pattern", "allowance_ft"):
+        if name in options and labels is None:
+            raise InputError(f"'{name}' applies to spot labels; add labels = \"TW\" or "
+                             "\"BW\"", file=file, where=f"{key}.{name}")
+    if "allowance_ft" in options and labels.upper() != "TW":
+        raise InputError("'allowance_ft' applies to TW labels only", file=file,
+                         where=f"{key}.allowance_ft")
+    if "pattern" in options:
+        from .labels import compile_pattern
+
+        try:
+            compile_pattern(options["pattern"])
+        except ValueError as exc:
+            raise InputError(f"pattern {exc}", file=file, where=f"{key}.pattern") from None
+    view = options.get("view", "plan")
+    if view not in ("plan", "profile"):
+        raise InputError(f"view = {view!r}; use \"plan\" (lines drawn in plan, the default) or "
+                         "\"profile\" (a profile view)", file=file, where=f"{key}.view")
+    profile_keys = ("origin_station_ft", "origin_elevation_ft", "vertical_exaggeration",
+                    "origin_xy")
+    if view == "profile":
+        if labels is not None:
+            raise InputError("labels are read in plan; remove view = \"profile\" or labels",
+                             file=file, where=key)
+        for name in ("origin_station_ft", "origin_elevation_ft"):
+            if name not in options:
+                raise InputError(f"a profile view needs '{name}' (the station and elevation "
+                                 "at the view's origin)", file=file, where=key)
+        if "max_offset_ft" in options:
+            raise InputError("'max_offset_ft' applies to plan sources, not to a profile view",
+                             file=file, where=f"{key}.max_offset_ft")
+    else:
+        for name in profile_keys:
+            if name in options:
+                raise InputError(f"'{name}' applies to a profile view; add view = \"profile\"",
+                                 file=file, where=f"{key}.{name}")
 
 
 def _label(src, site_folder) -> str:
@@ -49,6 +166,17 @@ def read_alignment(src, site_folder, *, start_hint=None) -> Alignment:
     label = _label(src, site_folder)
     if src.kind == "csv":
         return read_alignment_csv(src.path, label)
+    options = dict(src.options)
+    if start_hint is not None and "start" not in options:
+        options["start"] = start_hint
+    if src.kind == "dxf":
+        from .dxfread import read_alignment_dxf
+
+        return read_alignment_dxf(src.path, options, label)
+    if src.kind == "gis":
+        from .gisread import read_alignment_gis
+
+        return read_alignment_gis(src.path, options, label)
     raise InputError(f"{src.kind} alignments are not supported", file=label, where=src.key)
 
 
@@ -58,4 +186,20 @@ def read_grade(src, site_folder, *, alignment: Alignment, start_station_ft: floa
     label = _label(src, site_folder)
     if src.kind == "csv":
         return read_grade_csv(src.path, label)
+    options = src.options
+    along = dict(alignment=alignment, start_station_ft=start_station_ft)
+    if src.kind == "dxf":
+        if options.get("labels") is not None:
+            from .labels import read_label_grade
+
+            return read_label_grade(src.path, options, label, **along)
+        from . import dxfread
+
+        if options.get("view", "plan") == "profile":
+            return dxfread.read_profile_view(src.path, options, label)
+        return dxfread.read_plan_grade(src.path, options, label, **along)
+    if src.kind == "gis":
+        from .gisread import read_grade_gis
+
+        return read_grade_gis(src.path, options, label, **along)
     raise InputError(f"{src.kind} grades are not supported", file=label, where=src.key)

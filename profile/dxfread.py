@@ -1,0 +1,454 @@
+"""Readers for grading-plan DXF drawings: alignments, plan grade lines and profile views.
+
+A drawing is read with ``ezdxf.recover`` (damaged files are repaired where possible), from
+model space only. Layer names match without regard to case, as in CAD programs.
+
+Units: ``$INSUNITS`` must say feet (2, or 21 for US survey feet) or be unset (0). A drawing in
+other units is refused unless its source declares them with ``units = "m"`` (or ``"mm"``,
+``"cm"``, ``"in"``, ``"ft"``, ``"us-ft"``); coordinates and elevations are then converted to
+feet. A declared unit that contradicts a set ``$INSUNITS`` is refused too.
+
+Warnings (vertices far from the wall, labels that cannot be used, entities ignored) are
+issued with :func:`warnings.warn` as :class:`ProfileWarning` and also kept on the returned
+object's ``warnings`` tuple.
+"""
+
+from __future__ import annotations
+
+import math
+import warnings as _warnings
+from collections.abc import Mapping
+from dataclasses import dataclass
+from functools import lru_cache
+from pathlib import Path
+from typing import Any
+
+import numpy as np
+import shapely
+
+from ..errors import ProfileError
+from .csvread import Alignment, GradeProfile, alignment_from_xy
+
+ARC_CHORD_ERROR_FT = 0.01  # arcs and bulges are flattened to this chord error (sagitta)
+GAP_TOLERANCE_FT = 0.1  # default: ends closer than this are one joint of the alignment
+MAX_OFFSET_FT = 10.0  # default: grade vertices and labels farther from the wall are ignored
+DENSIFY_STEP_FT = 0.25  # a grade chord that leaves the band is cut at this resolution
+SAME_STATION_FT = 1e-3  # projected points closer than this are one station
+SAME_ELEVATION_FT = 0.01  # ... and must agree within this
+EXTENSION_FT = 1000.0  # the alignment is extended straight past both ends for projection
+
+FT_PER_UNIT = {  # exact definitions: 1 ft = 0.3048 m; 1 US survey ft = 1200/3937 m
+    "ft": 1.0,
+    "us-ft": 1200 / 3937 / 0.3048,
+    "in": 1 / 12,
+    "m": 1 / 0.3048,
+    "cm": 0.01 / 0.3048,
+    "mm": 0.001 / 0.3048,
+}
+INSUNITS_NAMES = {1: "in", 2: "ft", 4: "mm", 5: "cm", 6: "m", 21: "us-ft"}  # DXF reference
+INSUNITS_LABELS = {0: "unitless", 1: "inches", 2: "feet", 3: "miles", 4: "millimetres",
+                   5: "centimetres", 6: "metres", 7: "kilometres", 8: "microinches", 9: "mils",
+                   10: "yards", 14: "decimetres", 21: "US survey feet"}
+LINEAR_TYPES = ("LWPOLYLINE", "POLYLINE", "LINE", "ARC")
+
+
+class ProfileWarning(UserWarning):
+    """Something in a drawing or GIS file was ignored; the run goes on."""
+
+
+@dataclass(frozen=True)
+class DrawingProfile(GradeProfile):
+    """A grade profile read from a drawing, with the warnings raised while reading it."""
+
+    warnings: tuple[str, ...] = ()
+
+
+@dataclass(frozen=True)
+class DrawingAlignment(Alignment):
+    """An alignment read from a drawing or GIS file, with its reading warnings."""
+
+    warnings: tuple[str, ...] = ()
+
+
+def warn(messages: list[str], text: str) -> None:
+    """Record one warning and issue it as a ProfileWarning."""
+    messages.append(text)
+    _warnings.warn(text, ProfileWarning, stacklevel=3)
+
+
+# --------------------------------------------------------------------------- reading
+
+
+@lru_cache(maxsize=8)
+def _load(path: str, mtime_ns: int, size: int):
+    import ezdxf
+    from ezdxf import recover
+
+    try:
+        doc, auditor = recover.readfile(path)
+    except ezdxf.DXFStructureError as exc:
+        raise ProfileError(f"is not a readable DXF drawing ({exc}); export it again from the "
+                           "CAD program as DXF", file=Path(path).name) from None
+    except Exception as exc:  # noqa: BLE001 - any failure of the parser is bad input here
+        raise ProfileError(f"is not a readable DXF drawing ({type(exc).__name__}); export it "
+                           "again from the CAD program as DXF", file=Path(path).name) from None
+    return doc, len(auditor.fixes), len(auditor.errors)
+
+
+def open_dxf(path: Path, label: str):
+    """The recovered ezdxf document of ``path`` (cached while the file is unchanged)."""
+    try:
+        st = path.stat()
+    except OSError as exc:
+        raise ProfileError(f"cannot be read ({exc.strerror})", file=label) from None
+    with open(path, "rb") as f:
+        head = f.read(4096)
+    if not _looks_like_dxf(head):
+        raise ProfileError("is not a DXF drawing (no DXF section tags at its start); export "
+                           "it from the CAD program as DXF", file=label)
+    try:
+        doc, _fixes, _errors = _load(str(path), st.st_mtime_ns, st.st_size)
+    except ProfileError as exc:
+        raise ProfileError(exc.message, file=label) from None
+    return doc
+
+
+def _looks_like_dxf(head: bytes) -> bool:
+    if head.startswith(b"AutoCAD Binary DXF"):
+        return True
+    if b"\x00" in head:
+        return False
+    text = head.decode("latin-1").upper()
+    return "SECTION" in text or "EOF" in text
+
+
+def unit_factor(doc, options: Mapping[str, Any], label: str) -> float:
+    """Feet per drawing unit, from ``$INSUNITS`` and the source's ``units`` option."""
+    code = int(doc.header.get("$INSUNITS", 0) or 0)
+    declared = options.get("units")
+    if declared is None:
+        if code in (0, 2, 21):
+            return FT_PER_UNIT["us-ft"] if code == 21 else 1.0
+        name = INSUNITS_LABELS.get(code, f"code {code}")
+        raise ProfileError(
+            f"the drawing's units ($INSUNITS) are {name}, not feet; add units = "
+            f"\"{INSUNITS_NAMES.get(code, 'm')}\" to the source to convert, or save the "
+            "drawing in feet", file=label)
+    if code not in (0, *INSUNITS_NAMES) or (code and INSUNITS_NAMES[code] != declared):
+        name = INSUNITS_LABELS.get(code, f"code {code}")
+        raise ProfileError(f"the source says units = \"{declared}\" but the drawing's "
+                           f"$INSUNITS says {name}; correct one of them", file=label)
+    return FT_PER_UNIT[declared]
+
+
+def layer_entities(doc, layer: str, label: str, types=LINEAR_TYPES):
+    """Model-space entities of ``types`` on ``layer``; a missing layer lists those present."""
+    msp = doc.modelspace()
+    want = layer.lower()
+    on_layer = [e for e in msp if e.dxf.get("layer", "0").lower() == want]
+    if not on_layer:
+        names = {lay.dxf.name for lay in doc.layers} | {e.dxf.get("layer", "0") for e in msp}
+        used = sorted(names, key=str.lower)
+        exists = any(n.lower() == want for n in names)
+        what = "has no entities in model space" if exists else "is not in the drawing"
+        raise ProfileError(f"layer '{layer}' {what}; layers present: {', '.join(used)}",
+                           file=label, where=f"layer {layer}")
+    found = [e for e in on_layer if e.dxftype() in types]
+    if not found:
+        kinds = sorted({e.dxftype() for e in on_layer})
+        raise ProfileError(f"layer '{layer}' holds no {'/'.join(types)} entities (it has "
+                           f"{', '.join(kinds)})", file=label, where=f"layer {layer}")
+    return found, on_layer
+
+
+def entity_points(entity) -> np.ndarray:
+    """WCS vertices (n x 3) of a linear entity, arcs and bulges flattened to the chord error.
+
+    The flattening is done in drawing units; callers scale to feet afterwards.
+    """
+    from ezdxf import path as ezpath
+
+    if entity.dxftype() == "POLYLINE" and not (entity.is_2d_polyline or entity.is_3d_polyline):
+        raise ProfileError("is a polygon mesh or polyface, not a line", where=_handle(entity))
+    p = ezpath.make_path(entity)
+    pts = np.array([tuple(v) for v in p.flattening(ARC_CHORD_ERROR_FT)], dtype=float)
+    closed = (entity.dxftype() == "LWPOLYLINE" and entity.closed) or (
+        entity.dxftype() == "POLYLINE" and entity.is_closed)
+    if closed and len(pts) and not np.allclose(pts[0], pts[-1]):
+        pts = np.vstack([pts, pts[:1]])
+    if pts.size == 0 or not np.isfinite(pts).all():
+        raise ProfileError("has no usable vertices", where=_handle(entity))
+    return pts.reshape(-1, 3)
+
+
+def _handle(entity) -> str:
+    return f"{entity.dxftype()} handle {entity.dxf.handle}"
+
+
+def _entity_points(entity, label: str, layer: str, scale: float) -> np.ndarray:
+    try:
+        pts = entity_points(entity)
+    except ProfileError as exc:
+        raise ProfileError(exc.message, file=label,
+                           where=f"layer {layer}, {_handle(entity)}") from None
+    return pts * scale
+
+
+# --------------------------------------------------------------------------- alignment
+
+
+def chain_pieces(pieces: list[np.ndarray], handles: list[str], *, tol_ft: float, label: str,
+                 where: str) -> tuple[np.ndarray, list[str]]:
+    """Join polylines end to end (either way round) into one path.
+
+    The path runs the way the first piece was drawn. Raises when a piece is left over
+    (a gap wider than ``tol_ft``) or when more than one piece meets at a joint.
+    """
+    pieces = [p[:, :2] for p in pieces]
+    used = [False] * len(pieces)
+    path = [pieces[0]]
+    order = [handles[0]]
+    used[0] = True
+    for _ in range(len(pieces) - 1):
+        head, tail = path[0][0], path[-1][-1]
+        best = []
+        for i, p in enumerate(pieces):
+            if used[i]:
+                continue
+            for end_name, end in (("tail", tail), ("head", head)):
+                for rev, q in ((False, p[0]), (True, p[-1])):
+                    d = float(np.hypot(*(q - end)))
+                    if d <= tol_ft:
+                        best.append((d, i, end_name, rev))
+        if not best:
+            break
+        best.sort()
+        d, i, end_name, rev = best[0]
+        rivals = {b[1] for b in best if b[2] == end_name} - {i}
+        if rivals:
+            others = ", ".join(handles[j] for j in sorted(rivals))
+            raise ProfileError(f"the alignment branches: {handles[i]} and {others} both start "
+                               "at the same joint; keep one line per wall on the layer",
+                               file=label, where=where)
+        p = pieces[i][::-1] if rev else pieces[i]
+        if end_name == "tail":
+            path.append(p)
+            order.append(handles[i])
+        else:
+            p = p[::-1]
+            path.insert(0, p)
+            order.insert(0, handles[i])
+        used[i] = True
+    left = [handles[i] for i, u in enumerate(used) if not u]
+    if left:
+        ends = np.array([[p[0], p[-1]] for p in path]).reshape(-1, 2)[[0, -1]]
+        gaps = []
+        for i, u in enumerate(used):
+            if not u:
+                qs = pieces[i][[0, -1]]
+                gaps.append(float(np.min(np.hypot(*(qs[:, None, :] - ends[None]).T))))
+        raise ProfileError(
+            f"{len(left)} entit{'y does' if len(left) == 1 else 'ies do'} not join the "
+            f"alignment ({', '.join(left)}; nearest end {min(gaps):.3f} ft away, joint "
+            f"tolerance {tol_ft:g} ft); close the gap or raise gap_tolerance_ft",
+            file=label, where=where)
+    xy = np.vstack([seg if k == 0 else seg[1:] if np.hypot(*(seg[0] - path[k - 1][-1]))
+                    < 1e-9 else seg for k, seg in enumerate(path)])
+    return xy, order
+
+
+def orient(xy: np.ndarray, start: Any, *, label: str, where: str) -> np.ndarray:
+    """Run the path from the end nearest ``start`` ([x, y], ft) or keep it ("first vertex")."""
+    if start is None or (isinstance(start, str) and start.lower() == "first vertex"):
+        return xy
+    if isinstance(start, str) and start.lower() == "last vertex":
+        return xy[::-1]
+    p = np.asarray(start, dtype=float)
+    d0, d1 = np.hypot(*(xy[0] - p)), np.hypot(*(xy[-1] - p))
+    if math.isclose(d0, d1, rel_tol=1e-9, abs_tol=1e-9):
+        raise ProfileError(f"start = {list(start)} is as near one end of the alignment as the "
+                           "other; give a point near the up-station start", file=label,
+                           where=where)
+    return xy if d0 < d1 else xy[::-1]
+
+
+def read_alignment_dxf(path: Path, options: Mapping[str, Any], label: str) -> DrawingAlignment:
+    """A wall alignment from the LWPOLYLINE/POLYLINE/LINE/ARC entities of one layer."""
+    doc = open_dxf(path, label)
+    scale = unit_factor(doc, options, label)
+    layer = options["layer"]
+    where = f"layer {layer}"
+    found, on_layer = layer_entities(doc, layer, label)
+    messages: list[str] = []
+    skipped = len(on_layer) - len(found)
+    if skipped:
+        kinds = sorted({e.dxftype() for e in on_layer if e.dxftype() not in LINEAR_TYPES})
+        warn(messages, f"{label} layer {layer}: {skipped} entit{'y' if skipped == 1 else 'ies'}"
+             f" ({', '.join(kinds)}) ignored for the alignment")
+    pieces = [_entity_points(e, label, layer, scale) for e in found]
+    handles = [_handle(e) for e in found]
+    tol = float(options.get("gap_tolerance_ft", GAP_TOLERANCE_FT))
+    xy, _order = chain_pieces(pieces, handles, tol_ft=tol, label=label, where=where)
+    start = options.get("start")
+    if start is not None and not isinstance(start, str):
+        start = [float(v) * scale for v in start]
+    xy = orient(xy, start, label=label, where=where)
+    base = alignment_from_xy(xy, f"{label} [{where}]")
+    return DrawingAlignment(base.line, base.label, tuple(messages))
+
+
+# --------------------------------------------------------------------------- projection
+
+
+@dataclass(frozen=True)
+class Projector:
+    """Station and signed offset (left of up-station positive) of plan points on a wall."""
+
+    alignment: Alignment
+    start_station_ft: float
+
+    def __post_init__(self):
+        xy = np.asarray(self.alignment.line.coords, dtype=float)[:, :2]
+        d0 = xy[1] - xy[0]
+        d1 = xy[-1] - xy[-2]
+        d0 /= np.hypot(*d0)
+        d1 /= np.hypot(*d1)
+        ext = np.vstack([xy[0] - EXTENSION_FT * d0, xy, xy[-1] + EXTENSION_FT * d1])
+        object.__setattr__(self, "_xy", ext)
+        object.__setattr__(self, "_line", shapely.LineString(ext))
+        seg = np.hypot(*np.diff(ext, axis=0).T)
+        object.__setattr__(self, "_cum", np.r_[0.0, np.cumsum(seg)])
+
+    def project(self, xy: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+        """(station_ft, offset_ft) of each point (n x 2)."""
+        xy = np.asarray(xy, dtype=float).reshape(-1, 2)
+        pts = shapely.points(xy)
+        s = shapely.line_locate_point(self._line, pts)
+        k = np.clip(np.searchsorted(self._cum, s, side="right") - 1, 0, len(self._cum) - 2)
+        a, b = self._xy[k], self._xy[k + 1]
+        t = (s - self._cum[k]) / (self._cum[k + 1] - self._cum[k])
+        foot = a + (b - a) * t[:, None]
+        dirn = b - a
+        rel = xy - foot
+        cross = dirn[:, 0] * rel[:, 1] - dirn[:, 1] * rel[:, 0]
+        dist = np.hypot(rel[:, 0], rel[:, 1])
+        offset = np.where(cross < 0, -dist, dist)
+        return self.start_station_ft + s - EXTENSION_FT, offset
+
+
+def project_polyline(proj: Projector, pts: np.ndarray, max_offset_ft: float):
+    """Project one grade polyline's vertices (n x 3); return (station, elevation, dropped).
+
+    Vertices within ``max_offset_ft`` of the wall (extended straight past its ends) count.
+    A chord from a counted vertex to one farther out is densified and cut where it leaves
+    the band, so a line drawn longer than the wall still covers the wall's ends.
+    """
+    st, off = proj.project(pts[:, :2])
+    inside = np.abs(off) <= max_offset_ft
+    out_st = list(st[inside])
+    out_el = list(pts[inside, 2])
+    for k in range(len(pts) - 1):
+        if inside[k] == inside[k + 1]:
+            continue
+        a, b = (pts[k], pts[k + 1]) if inside[k] else (pts[k + 1], pts[k])
+        n = int(math.ceil(np.hypot(*(b[:2] - a[:2])) / DENSIFY_STEP_FT))
+        if n < 2:
+            continue
+        t = np.arange(1, n) / n
+        mid = a + (b - a) * t[:, None]
+        mst, moff = proj.project(mid[:, :2])
+        ok = np.abs(moff) <= max_offset_ft
+        stop = int(np.argmin(ok)) if not ok.all() else ok.size
+        out_st.extend(mst[:stop])
+        out_el.extend(mid[:stop, 2])
+    return np.array(out_st), np.array(out_el), int((~inside).sum())
+
+
+def build_profile(st: np.ndarray, el: np.ndarray, tags: list[str], *, label: str,
+                  what: str, messages: list[str]) -> DrawingProfile:
+    """Sort projected points into a station/elevation profile; tags name each point's source.
+
+    Points at one station (within 0.001 ft) must agree within 0.01 ft.
+    """
+    st = np.round(np.asarray(st, dtype=float), 6)  # drop float noise of the projection
+    el = np.asarray(el, dtype=float)
+    if st.size == 0:
+        raise ProfileError(f"no {what} lies near the wall", file=label)
+    order = np.lexsort((el, st))
+    st, el = st[order], el[order]
+    tags = [tags[i] for i in order]
+    keep = np.r_[True, np.diff(st) > SAME_STATION_FT]
+    group = np.cumsum(keep) - 1
+    for g in np.nonzero(np.bincount(group) > 1)[0]:
+        idx = np.nonzero(group == g)[0]
+        if el[idx].max() - el[idx].min() > SAME_ELEVATION_FT:
+            i, j = int(idx[0]), int(idx[-1])
+            raise ProfileError(
+                f"two elevations at station {st[i]:.2f}: {el[i]:.2f} ({tags[i]}) and "
+                f"{el[j]:.2f} ({tags[j]}); a grade has one elevation per station - remove "
+                "one, or move the other line off the wall", file=label)
+    st_u = st[keep]
+    el_u = np.array([el[group == g].mean() for g in range(int(group[-1]) + 1)])
+    if st_u.size < 2:
+        raise ProfileError(f"only one station of {what} lies near the wall; a profile needs "
+                           "at least two", file=label)
+    return DrawingProfile(st_u, el_u, label, tuple(messages))
+
+
+def read_plan_grade(path: Path, options: Mapping[str, Any], label: str, *,
+                    alignment: Alignment, start_station_ft: float) -> DrawingProfile:
+    """A grade from 3D polylines (or 2D ones with an elevation) drawn in plan on a layer."""
+    doc = open_dxf(path, label)
+    scale = unit_factor(doc, options, label)
+    layer = options["layer"]
+    lab = f"{label} [layer {layer}]"
+    found, on_layer = layer_entities(doc, layer, label)
+    messages: list[str] = []
+    max_off = float(options.get("max_offset_ft", MAX_OFFSET_FT))
+    proj = Projector(alignment, start_station_ft)
+    sts, els, tags = [], [], []
+    dropped = 0
+    flat = []
+    for e in found:
+        pts = _entity_points(e, label, layer, scale)
+        if np.all(pts[:, 2] == 0.0):
+            flat.append(e.dxf.handle)
+        s, z, n = project_polyline(proj, pts, max_off)
+        dropped += n
+        sts.append(s)
+        els.append(z)
+        tags.extend([_handle(e)] * len(s))
+    if flat:
+        warn(messages, f"{lab}: {len(flat)} line(s) lie at elevation 0.00 (handles "
+             f"{', '.join(flat)}); a 2D polyline needs its elevation set")
+    if dropped:
+        warn(messages, f"{lab}: {dropped} vertex(es) farther than {max_off:g} ft from the "
+             "wall ignored")
+    return build_profile(np.concatenate(sts), np.concatenate(els), tags, label=lab,
+                         what=f"line on layer {layer}", messages=messages)
+
+
+def read_profile_view(path: Path, options: Mapping[str, Any], label: str) -> DrawingProfile:
+    """A grade drawn in a profile view: x = station, y = elevation (exaggerated) about an origin.
+
+    A drawing point (x, y) is station ``origin_station_ft + (x - x0)`` and elevation
+    ``origin_elevation_ft + (y - y0) / vertical_exaggeration``, with (x0, y0) the
+    ``origin_xy`` option (default 0, 0), in drawing units converted to feet.
+    """
+    doc = open_dxf(path, label)
+    scale = unit_factor(doc, options, label)
+    layer = options["layer"]
+    lab = f"{label} [layer {layer}]"
+    found, _ = layer_entities(doc, layer, label)
+    x0, y0 = (float(v) * scale for v in options.get("origin_xy", (0.0, 0.0)))
+    ve = float(options.get("vertical_exaggeration", 1.0))
+    s0 = float(options["origin_station_ft"])
+    z0 = float(options["origin_elevation_ft"])
+    sts, els, tags = [], [], []
+    for e in found:
+        pts = _entity_points(e, label, layer, scale)
+        sts.append(s0 + (pts[:, 0] - x0))
+        els.append(z0 + (pts[:, 1] - y0) / ve)
+        tags.extend([_handle(e)] * len(pts))
+    return build_profile(np.concatenate(sts), np.concatenate(els), tags, label=lab,
+                         what=f"line on layer {layer}", messages=[])
