@@ -55,7 +55,11 @@ def diff(ctx: click.Context, old_dir: Path, new_dir: Path, out: Path | None,
         raise InputError(f"must be a number >= 0, got {height_tol_ft:g}", where="--height-tol")
     target = diff_output_path(new_dir, out)
     result = diff_runs(old_dir, new_dir, height_tol_ft=height_tol_ft)
-    write_diff(result, target)
+    try:
+        write_diff(result, target)
+    except OSError as exc:
+        raise InputError(f"cannot be written ({exc.strerror}); choose another --out",
+                         file=target) from None
     if not quiet:
         for line in result.summary_lines(extra=[f"wrote {target} ({len(result.rows)} rows)"]):
             click.echo(line)
