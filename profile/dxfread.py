@@ -29,7 +29,10 @@ import shapely
 from ..errors import ProfileError
 from .csvread import Alignment, GradeProfile, alignment_from_xy
 
-ARC_CHORD_ERROR_FT = 0.01  # arcs and bulges are flattened to this chord error (sagitta)
+# Arcs and bulges are flattened to this chord error (sagitta), finer than 0.01 ft so that
+# stations along long arcs stay within 0.01 ft too: a run of chords is shorter than its arc
+# by about (angle turned) x sagitta / 3.
+ARC_CHORD_ERROR_FT = 0.002
 GAP_TOLERANCE_FT = 0.1  # default: ends closer than this are one joint of the alignment
 MAX_OFFSET_FT = 10.0  # default: grade vertices and labels farther from the wall are ignored
 DENSIFY_STEP_FT = 0.25  # a grade chord that leaves the band is cut at this resolution
@@ -161,17 +164,19 @@ def layer_entities(doc, layer: str, label: str, types=LINEAR_TYPES):
     return found, on_layer
 
 
-def entity_points(entity) -> np.ndarray:
-    """WCS vertices (n x 3) of a linear entity, arcs and bulges flattened to the chord error.
-
-    The flattening is done in drawing units; callers scale to feet afterwards.
-    """
+def entity_points(entity, ft_per_unit: float = 1.0) -> np.ndarray:
+    """WCS vertices (n x 3, drawing units) of a linear entity, arcs and bulges flattened
+    with ezdxf to the chord error ``ARC_CHORD_ERROR_FT``."""
     from ezdxf import path as ezpath
 
+    sagitta = ARC_CHORD_ERROR_FT / ft_per_unit
     if entity.dxftype() == "POLYLINE" and not (entity.is_2d_polyline or entity.is_3d_polyline):
         raise ProfileError("is a polygon mesh or polyface, not a line", where=_handle(entity))
-    p = ezpath.make_path(entity)
-    pts = np.array([tuple(v) for v in p.flattening(ARC_CHORD_ERROR_FT)], dtype=float)
+    if entity.dxftype() == "ARC":  # points on the true circle
+        verts = entity.flattening(sagitta)
+    else:  # bulges become Bezier curves; 16 per quarter turn keep them on the circle
+        verts = ezpath.make_path(entity, segments=16).flattening(sagitta)
+    pts = np.array([tuple(v) for v in verts], dtype=float)
     closed = (entity.dxftype() == "LWPOLYLINE" and entity.closed) or (
         entity.dxftype() == "POLYLINE" and entity.is_closed)
     if closed and len(pts) and not np.allclose(pts[0], pts[-1]):
@@ -187,7 +192,7 @@ def _handle(entity) -> str:
 
 def _entity_points(entity, label: str, layer: str, scale: float) -> np.ndarray:
     try:
-        pts = entity_points(entity)
+        pts = entity_points(entity, scale)
     except ProfileError as exc:
         raise ProfileError(exc.message, file=label,
                            where=f"layer {layer}, {_handle(entity)}") from None
