@@ -1,0 +1,234 @@
+"""Constructible segments: group a wall's stations into stretches that share one section, one
+level bottom of footing and one top of wall, for least total cost.
+
+Method (dynamic programming over stations)
+-----------------------------------------
+A segment runs from station ``i`` to station ``j`` (both ends are checked; station ``j`` is
+assigned to the next segment). For each segment and each allowed bottom of footing ``BF`` the
+*envelope case* is
+
+    BF_top = min(front grade over i..j) - required embedment, rounded down to ``bf_round_ft``
+    BF     = BF_top - m * bf_lowering_ft          (m = 0..M-1: lowering only to meet step limits)
+    h_case = max(retained grade over i..j) - BF - required embedment
+
+The envelope case has the largest design height of the segment with the least embedment the
+criteria allow, so the section sized for it (the *design table*, a look-up by design height)
+holds every station of the segment; the pipeline then re-checks every station at its own grades.
+The segment costs ``length * cost_per_ft(h_case)`` plus a step cost where its footing or top
+differs from the previous segment's. Consecutive footings may differ by at most
+``footing_step_max_ft`` (IBC 2021 1809.3: footings level, stepped where the top changes).
+Segment length lies between ``segment_min_ft`` and ``segment_max_ft`` (a run shorter than the
+minimum is one segment).
+
+The state of the recursion is (end station j, length in stations k, lowering m) and its value
+the least cost of covering the stations up to j with the last segment (j-k .. j, m); every
+transition checks the footing step against the previous segment. The optimum over the states at
+the last station, traced back, gives the segments. The search is exact over the candidate
+boundaries (the stations) and lowerings; it is linear in the number of stations and quadratic in
+the number of stations a segment may span.
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Callable
+from dataclasses import dataclass
+
+import numpy as np
+
+INFEASIBLE_COST_PER_FT = 1.0e7  # $/ft for a segment no section can hold (flagged, never hidden)
+
+
+@dataclass(frozen=True)
+class SegmentRules:
+    """The segment criteria (each an option in ``[criteria]``)."""
+
+    embedment_ft: float  # required: max(min_embedment_ft, frost_depth_ft)
+    freeboard_ft: float
+    footing_step_max_ft: float = 2.0  # common practice
+    bf_round_ft: float = 0.1  # bottom of footing elevations rounded down (common practice)
+    bf_lowering_ft: float = 0.5  # lowering steps offered to meet the step limit
+    bf_lowerings: int = 5
+    top_of_wall: str = "stepped"  # or "follow_grade"
+    top_step_in: float = 6.0  # common practice
+    segment_min_ft: float = 10.0  # common practice
+    segment_max_ft: float = 90.0  # common practice: at most one expansion-joint spacing
+    step_cost_usd: float = 0.0  # cost of one step in footing or top (illustrative)
+
+
+@dataclass(frozen=True)
+class SegmentPlan:
+    """The chosen segments of one run of stations (arrays, one element per segment)."""
+
+    start_index: np.ndarray  # first station index
+    end_index: np.ndarray  # last station index (shared with the next segment's start)
+    bottom_of_footing_ft: np.ndarray
+    top_of_wall_ft: np.ndarray  # NaN when the top follows the grade
+    design_height_ft: np.ndarray  # h_case: the envelope retained height designed for
+    cost_usd: np.ndarray
+    total_cost_usd: float
+
+    def __len__(self) -> int:
+        return int(self.start_index.size)
+
+
+def _floor_to(x, step):
+    return np.floor(np.asarray(x) / step + 1e-9) * step
+
+
+def _ceil_to(x, step):
+    return np.ceil(np.asarray(x) / step - 1e-9) * step
+
+
+def window_extremes(values: np.ndarray, kmax: int, fn) -> np.ndarray:
+    """``out[j, k] = fn(values[j-k .. j])`` for k = 0..kmax (NaN where j-k < 0)."""
+    n = values.size
+    out = np.full((n, kmax + 1), np.nan)
+    acc = values.astype(float).copy()
+    out[:, 0] = acc
+    for k in range(1, kmax + 1):
+        acc = acc.copy()
+        acc[k:] = fn(acc[k:], values[: n - k])
+        acc[:k] = np.nan
+        out[:, k] = acc
+    return out
+
+
+def plan_segments(
+    station_ft: np.ndarray,
+    retained_grade_ft: np.ndarray,
+    front_grade_ft: np.ndarray,
+    rules: SegmentRules,
+    cost_per_ft: Callable[[np.ndarray], np.ndarray],
+) -> SegmentPlan:
+    """Least-cost segments for one run of stations (see the module docstring).
+
+    Args:
+        station_ft, retained_grade_ft, front_grade_ft: the run's stations (increasing) and grades.
+        rules: segment criteria.
+        cost_per_ft: design table look-up, design height (ft) array -> $/ft of wall (NaN or
+            inf where no section holds that height).
+    """
+    s = np.asarray(station_ft, float)
+    rg = np.asarray(retained_grade_ft, float)
+    fg = np.asarray(front_grade_ft, float)
+    n = s.size
+    if n < 2:
+        raise ValueError("a run of stations needs at least two stations")
+    total = s[-1] - s[0]
+    seg_max = max(rules.segment_max_ft, min(total, rules.segment_min_ft))
+    # how many stations a segment may span: the most stations within seg_max before any j
+    first = np.searchsorted(s, s - seg_max - 1e-9, side="left")
+    kmax = max(1, int(np.max(np.arange(n) - first)))
+    M = max(1, rules.bf_lowerings)
+    fg_min = window_extremes(fg, kmax, np.minimum)  # [j, k] over j-k..j
+    rg_max = window_extremes(rg, kmax, np.maximum)
+    k_idx = np.arange(kmax + 1)
+    start = np.arange(n)[:, None] - k_idx[None, :]
+    length = np.where(start >= 0, s[:, None] - s[np.clip(start, 0, None)], np.nan)
+    ok_len = (length >= rules.segment_min_ft - 1e-9) & (length <= seg_max + 1e-9)
+    if total < rules.segment_min_ft + 1e-9:
+        ok_len[n - 1, n - 1] = True  # a run shorter than the minimum is one segment
+    ok_len[:, 0] = False
+    bf_top = _floor_to(fg_min - rules.embedment_ft, rules.bf_round_ft)  # [j, k]
+    lower = rules.bf_lowering_ft * np.arange(M)
+    bf = bf_top[:, :, None] - lower[None, None, :]  # [j, k, m]
+    h_case = rg_max[:, :, None] - bf - rules.embedment_ft
+    cpf = np.asarray(cost_per_ft(np.where(np.isfinite(h_case), h_case, 0.0)), float)
+    cpf = np.where(np.isfinite(cpf), cpf, INFEASIBLE_COST_PER_FT)
+    seg_cost = cpf * length[:, :, None]
+    seg_cost = np.where(ok_len[:, :, None], seg_cost, np.inf)
+    if rules.top_of_wall == "stepped":
+        tw = _ceil_to(rg_max + rules.freeboard_ft, rules.top_step_in / 12.0)  # [j, k]
+    else:
+        tw = np.full_like(rg_max, np.nan)
+    value = np.full((n, kmax + 1, M), np.inf)
+    back = np.full((n, kmax + 1, M, 2), -1, dtype=np.int64)  # previous (k', m')
+    step_max = rules.footing_step_max_ft + 1e-9
+    for j in range(1, n):
+        for k in range(1, min(kmax, j) + 1):
+            if not ok_len[j, k]:
+                continue
+            i = j - k
+            c = seg_cost[j, k]  # [M]
+            if i == 0:
+                value[j, k] = c
+                continue
+            prev_v = value[i]  # [k', m']
+            if not np.isfinite(prev_v).any():
+                continue
+            prev_bf = bf[i]  # [k', m']
+            diff = np.abs(bf[j, k][:, None, None] - prev_bf[None, :, :])  # [m, k', m']
+            stepped = diff > 1e-9
+            if rules.top_of_wall == "stepped":
+                stepped = stepped | (np.abs(tw[j, k] - tw[i])[None, :, None] > 1e-9)
+            total_v = np.where(diff <= step_max, prev_v[None] + rules.step_cost_usd * stepped,
+                               np.inf)
+            flat = total_v.reshape(M, -1)
+            best = np.argmin(flat, axis=1)
+            bv = flat[np.arange(M), best]
+            value[j, k] = c + bv
+            back[j, k, :, 0] = best // M
+            back[j, k, :, 1] = best % M
+    final = value[n - 1]
+    if not np.isfinite(final).any():
+        if rules.segment_min_ft > 0:  # odd station spacing: relax the minimum length
+            from dataclasses import replace
+
+            return plan_segments(s, rg, fg, replace(rules, segment_min_ft=0.0), cost_per_ft)
+        raise ValueError("no segmentation meets the footing step limit")
+    k, m = np.unravel_index(int(np.argmin(final)), final.shape)
+    total_cost = float(final[k, m])
+    segs = []
+    j = n - 1
+    while True:
+        i = j - int(k)
+        segs.append((i, j, int(k), int(m)))
+        if i == 0:
+            break
+        k, m = back[j, k, m]
+        j = i
+    segs.reverse()
+    st_i = np.array([a for a, _, _, _ in segs])
+    en_i = np.array([b for _, b, _, _ in segs])
+    ks = np.array([c for _, _, c, _ in segs])
+    ms = np.array([d for _, _, _, d in segs])
+    return SegmentPlan(
+        start_index=st_i, end_index=en_i,
+        bottom_of_footing_ft=bf[en_i, ks, ms], top_of_wall_ft=tw[en_i, ks],
+        design_height_ft=h_case[en_i, ks, ms], cost_usd=seg_cost[en_i, ks, ms],
+        total_cost_usd=total_cost,
+    )
+
+
+def place_joints(start_ft: float, end_ft: float, boundaries: list[tuple[float, bool]],
+                 contraction_max_ft: float = 30.0, expansion_max_ft: float = 90.0):
+    """Joint stations along a wall: every segment boundary is a joint (an expansion joint where
+    the footing or top steps), contraction joints evenly at most ``contraction_max_ft`` apart
+    between them, and a contraction joint upgraded to an expansion joint wherever the distance
+    from the last expansion joint would exceed ``expansion_max_ft`` (common practice).
+
+    Args:
+        boundaries: (station_ft, is_step) of every interior segment boundary, increasing.
+
+    Returns:
+        list of (station_ft, kind) with kind "contraction" or "expansion", increasing.
+    """
+    points = [start_ft] + [b for b, _ in boundaries] + [end_ft]
+    steps = [False] + [st for _, st in boundaries] + [False]
+    joints: list[list] = []
+    for a, b, st_b in zip(points[:-1], points[1:], steps[1:], strict=True):
+        panels = max(1, math.ceil((b - a) / contraction_max_ft - 1e-9))
+        for p in range(1, panels):
+            joints.append([a + (b - a) * p / panels, "contraction"])
+        if b < end_ft:
+            joints.append([b, "expansion" if st_b else "contraction"])
+    last = start_ft
+    for idx, jt in enumerate(joints):
+        nxt = joints[idx + 1][0] if idx + 1 < len(joints) else end_ft
+        if jt[1] == "expansion":
+            last = jt[0]
+        elif nxt - last > expansion_max_ft + 1e-9:
+            jt[1] = "expansion"
+            last = jt[0]
+    return [(float(a), k) for a, k in joints]

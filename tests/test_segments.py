@@ -1,0 +1,104 @@
+"""Segments: the dynamic programme against brute-force enumeration, and the joint rules."""
+
+import itertools
+import math
+
+import numpy as np
+import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
+from wallsched.engine.segments import SegmentRules, place_joints, plan_segments
+
+
+def cost_table(h):
+    """An invented cost per ft rising with design height (a stand-in design table)."""
+    h = np.asarray(h, float)
+    return np.where(h <= 18.0, 40.0 + 6.0 * h + 0.9 * h**2, np.nan)
+
+
+def brute_force(s, rg, fg, rules):
+    """Every way to cut the stations into segments, every lowering: the least total cost."""
+    n = len(s)
+    best = math.inf
+    lowers = [rules.bf_lowering_ft * m for m in range(rules.bf_lowerings)]
+    for cuts in itertools.product([0, 1], repeat=n - 2):
+        bounds = [0] + [i + 1 for i, c in enumerate(cuts) if c] + [n - 1]
+        segs = list(zip(bounds[:-1], bounds[1:], strict=True))
+        lengths = [s[j] - s[i] for i, j in segs]
+        if any(L < rules.segment_min_ft - 1e-9 or L > rules.segment_max_ft + 1e-9
+               for L in lengths):
+            continue
+        for ms in itertools.product(range(len(lowers)), repeat=len(segs)):
+            total, prev_bf, prev_tw = 0.0, None, None
+            for (i, j), m in zip(segs, ms, strict=True):
+                bf_top = math.floor((min(fg[i:j + 1]) - rules.embedment_ft)
+                                    / rules.bf_round_ft + 1e-9) * rules.bf_round_ft
+                bf = bf_top - lowers[m]
+                h = max(rg[i:j + 1]) - bf - rules.embedment_ft
+                c = float(cost_table(h))
+                step = rules.top_step_in / 12
+                tw = math.ceil((max(rg[i:j + 1]) + rules.freeboard_ft) / step - 1e-9) * step
+                if prev_bf is not None:
+                    if abs(bf - prev_bf) > rules.footing_step_max_ft + 1e-9:
+                        total = math.inf
+                        break
+                    if abs(bf - prev_bf) > 1e-9 or abs(tw - prev_tw) > 1e-9:
+                        total += rules.step_cost_usd
+                total += c * (s[j] - s[i])
+                prev_bf, prev_tw = bf, tw
+            best = min(best, total)
+    return best
+
+
+@settings(max_examples=40, deadline=None)
+@given(st.lists(st.floats(-3, 3), min_size=8, max_size=9), st.lists(st.floats(-1, 1),
+       min_size=8, max_size=9), st.sampled_from([0.0, 300.0]))
+def test_dynamic_programme_equals_brute_force(drg, dfg, step_cost):
+    n = min(len(drg), len(dfg))
+    s = np.arange(n) * 5.0
+    fg = 100 + np.cumsum(dfg[:n])
+    rg = fg + 4 + np.abs(np.cumsum(drg[:n]))
+    rules = SegmentRules(embedment_ft=1.5, freeboard_ft=0.5, segment_min_ft=10,
+                         segment_max_ft=25, step_cost_usd=step_cost, bf_lowerings=3)
+    plan = plan_segments(s, rg, fg, rules, cost_table)
+    assert plan.total_cost_usd == pytest.approx(brute_force(s, rg, fg, rules), rel=1e-9)
+    # cover every station once: segments chain end to start from the first to the last
+    assert plan.start_index[0] == 0 and plan.end_index[-1] == n - 1
+    assert (plan.start_index[1:] == plan.end_index[:-1]).all()
+    steps = np.abs(np.diff(plan.bottom_of_footing_ft))
+    assert (steps <= rules.footing_step_max_ft + 1e-9).all()  # IBC 2021 1809.3 step limit
+
+
+def test_embedment_and_freeboard_hold_at_every_station():
+    s = np.arange(0, 200.1, 5.0)
+    fg = 100 + 0.08 * s  # a rising front grade: 16 ft over the wall
+    rg = fg + 6 + 2 * np.sin(s / 30)
+    rules = SegmentRules(embedment_ft=2.0, freeboard_ft=0.5, step_cost_usd=200.0)
+    plan = plan_segments(s, rg, fg, rules, cost_table)
+    for i, j, bf, tw in zip(plan.start_index, plan.end_index, plan.bottom_of_footing_ft,
+                            plan.top_of_wall_ft, strict=True):
+        assert (fg[i:j + 1] - bf >= 2.0 - 1e-9).all()
+        assert (tw - rg[i:j + 1] >= 0.5 - 1e-9).all()
+        assert tw * 12 % 6 == pytest.approx(0, abs=1e-6)  # stepped in 6-in steps
+    assert (np.abs(np.diff(plan.bottom_of_footing_ft)) <= 2.0 + 1e-9).all()
+
+
+def test_steep_grade_forces_lowered_footings_within_the_step_limit():
+    s = np.arange(0, 60.1, 5.0)
+    fg = np.where(s < 30, 100.0, 104.5)  # a 4.5 ft jump in the front grade
+    rg = fg + 5
+    rules = SegmentRules(embedment_ft=1.0, freeboard_ft=0.5, segment_min_ft=10)
+    plan = plan_segments(s, rg, fg, rules, cost_table)
+    assert (np.abs(np.diff(plan.bottom_of_footing_ft)) <= 2.0 + 1e-9).all()
+    assert len(plan) >= 2
+
+
+def test_joints_spacing_and_steps():
+    joints = place_joints(0.0, 200.0, [(70.0, True), (130.0, False)], 30.0, 90.0)
+    where = [j for j, _ in joints]
+    kinds = dict(joints)
+    assert kinds[70.0] == "expansion" and 130.0 in kinds
+    pts = [0.0, *where, 200.0]
+    assert max(np.diff(pts)) <= 30.0 + 1e-9  # contraction joints at most 30 ft (common practice)
+    exp = [0.0] + [j for j, k in joints if k == "expansion"] + [200.0]
+    assert max(np.diff(exp)) <= 90.0 + 1e-9  # expansion joints at most 90 ft (common practice)
