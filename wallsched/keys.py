@@ -69,4 +69,49 @@ CRITERIA_KEYS = {
                                   doc="below this no wall is needed, ft (common practice)"),
     "max_retained_height_ft": Key(float, 20.0, lo=1, hi=40,
                                   doc="cantilever range limit, ft (common practice)"),
+    # constructible segments (engine/segments.py)
+    "footing_step_max_ft": Key(float, 2.0, lo=0.1, hi=10,
+                               doc="largest step between footings, ft (common practice)"),
+    "bottom_of_footing_round_ft": Key(float, 0.1, lo=0.01, hi=2,
+                                      doc="bottom of footing elevations rounded down, ft"),
+    "top_of_wall": Key(str, "stepped", choices=("stepped", "follow_grade"),
+                       doc="top of wall level per segment, or following the grade"),
+    "top_step_in": Key(float, 6.0, lo=1, hi=48, doc="top of wall steps, in (common practice)"),
+    "segment_min_ft": Key(float, 10.0, lo=0, hi=500, doc="shortest segment, ft (common practice)"),
+    "segment_max_ft": Key(float, 90.0, lo=5, hi=1000, doc="longest segment, ft (common practice)"),
+    "contraction_joint_max_ft": Key(float, 30.0, lo=5, hi=200,
+                                    doc="contraction joint spacing limit, ft (common practice)"),
+    "expansion_joint_max_ft": Key(float, 90.0, lo=10, hi=1000,
+                                  doc="expansion joint spacing limit, ft (common practice)"),
+    "design_height_increment_ft": Key(float, 0.25, lo=0.01, hi=2,
+                                      doc="design heights rounded up to this, ft (common "
+                                          "practice: walls tabulated by height)"),
+}
+
+# [costs]: the least-cost objective. ILLUSTRATIVE defaults, not market prices.
+COSTS_KEYS = {
+    "concrete_usd_per_cy": Key(float, 250.0, lo=0, hi=10000, doc="placed concrete, $/CY"),
+    "steel_usd_per_lb": Key(float, 1.25, lo=0, hi=100, doc="reinforcing steel in place, $/lb"),
+    "excavation_usd_per_cy": Key(float, 30.0, lo=0, hi=10000, doc="excavation, $/CY"),
+    "formwork_usd_per_sf": Key(float, 12.0, lo=0, hi=1000, doc="formwork, $/SF of contact"),
+    "step_usd": Key(float, 150.0, lo=0, hi=100000, doc="one step in footing or top, $ each"),
+}
+
+# [sizing]: the candidate grid of the least-cost search (common practice increments).
+SIZING_KEYS = {
+    "toe_max_ft": Key(float, 8.0, lo=0, hi=30, doc="largest toe, ft"),
+    "heel_max_ft": Key(float, 14.0, lo=0.5, hi=40, doc="largest heel, ft"),
+    "toe_heel_step_in": Key(float, 3.0, lo=1, hi=24, doc="toe and heel increments, in"),
+    "footing_thickness_min_in": Key(float, 12.0, lo=8, hi=60,
+                                    doc="thinnest footing, in (IBC 2021 1809.4: 12 in width)"),
+    "footing_thickness_max_in": Key(float, 36.0, lo=8, hi=96, doc="thickest footing, in"),
+    "footing_thickness_step_in": Key(float, 1.0, lo=0.5, hi=12, doc="footing increments, in"),
+    "stem_min_in": Key(float, 8.0, lo=6, hi=48, doc="thinnest stem, in (common practice)"),
+    "stem_max_in": Key(float, 24.0, lo=6, hi=72, doc="thickest stem base, in"),
+    "stem_step_in": Key(float, 1.0, lo=0.5, hi=12, doc="stem increments, in"),
+    "stem_batter": Key(bool, False, doc="batter the back face: stem top at stem_min_in"),
+    "bar_sizes": Key(str, "4-9", doc="bar sizes to try, e.g. \"4-9\" (ASTM A615 numbers)"),
+    "bar_spacing_min_in": Key(float, 6.0, lo=2, hi=48, doc="closest bar spacing, in"),
+    "bar_spacing_max_in": Key(float, 18.0, lo=2, hi=48, doc="widest bar spacing, in"),
+    "bar_spacing_step_in": Key(float, 1.0, lo=0.5, hi=12, doc="bar spacing increments, in"),
 }

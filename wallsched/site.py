@@ -15,14 +15,23 @@ from types import MappingProxyType
 from typing import Any
 
 from .errors import InputError
-from .keys import CRITERIA_KEYS, LOADS_KEYS, MATERIALS_KEYS, SITE_KEYS, SOIL_KEYS
+from .keys import (
+    COSTS_KEYS,
+    CRITERIA_KEYS,
+    LOADS_KEYS,
+    MATERIALS_KEYS,
+    SITE_KEYS,
+    SIZING_KEYS,
+    SOIL_KEYS,
+)
 from .schema import REQUIRED, Key, SourceText, check_table, check_value, did_you_mean, load_toml
 from .schema import where_text as _where
 
 # Tables a wall may override, with their declared keys.
 OVERRIDABLE = {"soil": SOIL_KEYS, "loads": LOADS_KEYS, "materials": MATERIALS_KEYS,
                "criteria": CRITERIA_KEYS}
-TOP_LEVEL = ("site", "soil", "loads", "materials", "criteria", "walls")
+SITE_ONLY = {"costs": COSTS_KEYS, "sizing": SIZING_KEYS}  # site-wide tables
+TOP_LEVEL = ("site", "soil", "loads", "materials", "criteria", "costs", "sizing", "walls")
 SOURCE_KINDS = ("csv", "dxf", "gis")
 
 WALL_KEYS = {
@@ -82,6 +91,8 @@ class Site:
     criteria: Mapping[str, Any]
     walls: tuple[WallSpec, ...]
     raw: Mapping[str, Any]
+    costs: Mapping[str, Any] = field(default_factory=dict)
+    sizing: Mapping[str, Any] = field(default_factory=dict)
 
     def input_files(self) -> list[Path]:
         """The site file and every file it points to, once each, in a stable order."""
@@ -291,8 +302,11 @@ def load_site(path: str | Path) -> Site:
                     "soil parameters are never defaulted - give it in [soil] or in the wall",
                     file=file, where="[soil]")
         walls.append(spec)
+    site_only = {t: MappingProxyType(check_table(data.get(t, {}), keys, table=t, file=file,
+                                                 src=src))
+                 for t, keys in SITE_ONLY.items()}
     # the site-level soil, for the record (validated per wall above)
-    return Site(
+    return Site(costs=site_only["costs"], sizing=site_only["sizing"],
         path=path.resolve(), folder=folder.resolve(), name=meta["name"],
         meta=MappingProxyType(meta), soil=MappingProxyType(tables["soil"]),
         loads=MappingProxyType(tables["loads"]), materials=MappingProxyType(tables["materials"]),
