@@ -84,9 +84,14 @@ def warn(messages: list[str], text: str) -> None:
 
 @lru_cache(maxsize=8)
 def _load(path: str, mtime_ns: int, size: int):
+    import logging
+
     import ezdxf
     from ezdxf import recover
 
+    log = logging.getLogger("ezdxf")
+    level = log.level
+    log.setLevel(logging.CRITICAL)  # repairs are reported as one ProfileWarning instead
     try:
         doc, auditor = recover.readfile(path)
     except ezdxf.DXFStructureError as exc:
@@ -95,11 +100,18 @@ def _load(path: str, mtime_ns: int, size: int):
     except Exception as exc:  # noqa: BLE001 - any failure of the parser is bad input here
         raise ProfileError(f"is not a readable DXF drawing ({type(exc).__name__}); export it "
                            "again from the CAD program as DXF", file=Path(path).name) from None
-    return doc, len(auditor.fixes), len(auditor.errors)
+    finally:
+        log.setLevel(level)
+    return doc, len(auditor.fixes) + len(auditor.errors)
 
 
-def open_dxf(path: Path, label: str):
-    """The recovered ezdxf document of ``path`` (cached while the file is unchanged)."""
+_REPAIRED_WARNED: set[tuple[str, int]] = set()
+
+
+def open_dxf(path: Path, label: str, messages: list[str] | None = None):
+    """The recovered ezdxf document of ``path`` (cached while the file is unchanged).
+
+    A drawing that needed repairs gives one warning per file (into ``messages``)."""
     try:
         st = path.stat()
     except OSError as exc:
@@ -110,9 +122,14 @@ def open_dxf(path: Path, label: str):
         raise ProfileError("is not a DXF drawing (no DXF section tags at its start); export "
                            "it from the CAD program as DXF", file=label)
     try:
-        doc, _fixes, _errors = _load(str(path), st.st_mtime_ns, st.st_size)
+        doc, repairs = _load(str(path), st.st_mtime_ns, st.st_size)
     except ProfileError as exc:
         raise ProfileError(exc.message, file=label) from None
+    key = (str(path), st.st_mtime_ns)
+    if repairs and messages is not None and key not in _REPAIRED_WARNED:
+        _REPAIRED_WARNED.add(key)
+        warn(messages, f"{label}: the drawing was damaged; {repairs} problem(s) were "
+             "repaired while reading it - check the result, or save the drawing again")
     return doc
 
 
@@ -279,12 +296,12 @@ def orient(xy: np.ndarray, start: Any, *, label: str, where: str) -> np.ndarray:
 
 def read_alignment_dxf(path: Path, options: Mapping[str, Any], label: str) -> DrawingAlignment:
     """A wall alignment from the LWPOLYLINE/POLYLINE/LINE/ARC entities of one layer."""
-    doc = open_dxf(path, label)
+    messages: list[str] = []
+    doc = open_dxf(path, label, messages)
     scale = unit_factor(doc, options, label)
     layer = options["layer"]
     where = f"layer {layer}"
     found, on_layer = layer_entities(doc, layer, label)
-    messages: list[str] = []
     skipped = len(on_layer) - len(found)
     if skipped:
         kinds = sorted({e.dxftype() for e in on_layer if e.dxftype() not in LINEAR_TYPES})
@@ -403,12 +420,12 @@ def build_profile(st: np.ndarray, el: np.ndarray, tags: list[str], *, label: str
 def read_plan_grade(path: Path, options: Mapping[str, Any], label: str, *,
                     alignment: Alignment, start_station_ft: float) -> DrawingProfile:
     """A grade from 3D polylines (or 2D ones with an elevation) drawn in plan on a layer."""
-    doc = open_dxf(path, label)
+    messages: list[str] = []
+    doc = open_dxf(path, label, messages)
     scale = unit_factor(doc, options, label)
     layer = options["layer"]
     lab = f"{label} [layer {layer}]"
     found, on_layer = layer_entities(doc, layer, label)
-    messages: list[str] = []
     max_off = float(options.get("max_offset_ft", MAX_OFFSET_FT))
     proj = Projector(alignment, start_station_ft)
     sts, els, tags = [], [], []
@@ -440,7 +457,8 @@ def read_profile_view(path: Path, options: Mapping[str, Any], label: str) -> Dra
     ``origin_elevation_ft + (y - y0) / vertical_exaggeration``, with (x0, y0) the
     ``origin_xy`` option (default 0, 0), in drawing units converted to feet.
     """
-    doc = open_dxf(path, label)
+    messages: list[str] = []
+    doc = open_dxf(path, label, messages)
     scale = unit_factor(doc, options, label)
     layer = options["layer"]
     lab = f"{label} [layer {layer}]"
@@ -456,4 +474,4 @@ def read_profile_view(path: Path, options: Mapping[str, Any], label: str) -> Dra
         els.append(z0 + (pts[:, 1] - y0) / ve)
         tags.extend([_handle(e)] * len(pts))
     return build_profile(np.concatenate(sts), np.concatenate(els), tags, label=lab,
-                         what=f"line on layer {layer}", messages=[])
+                         what=f"line on layer {layer}", messages=messages)

@@ -101,7 +101,8 @@ def _listed(items: list[str]) -> str:
 def read_label_grade(path: Path, options: Mapping[str, Any], label: str, *,
                      alignment: Alignment, start_station_ft: float) -> DrawingProfile:
     """The TW (retained grade) or BW (front grade) profile from spot labels on a layer."""
-    doc = open_dxf(path, label)
+    messages: list[str] = []
+    doc = open_dxf(path, label, messages)
     scale = unit_factor(doc, options, label)
     layer = options["layer"]
     kind = str(options["labels"]).upper()
@@ -113,7 +114,6 @@ def read_label_grade(path: Path, options: Mapping[str, Any], label: str, *,
     allowance = float(options.get("allowance_ft", 0.0))
     max_off = float(options.get("max_offset_ft", MAX_OFFSET_FT))
     found, _ = layer_entities(doc, layer, label, types=LABEL_TYPES)
-    messages: list[str] = []
     pts, values, tags, bad = [], [], [], []
     for e in found:
         text, p = _text_and_point(e)
