@@ -76,6 +76,6 @@ def make_design(wall: str = "W1", *, existing_ground: bool = True) -> WallDesign
                       station_segment=idx.astype(int), station_utilization=util,
                       station_governing=tuple(segs[i].governing_check for i in idx),
                       station_status=tuple("ok" for _ in idx),
-                      extra={"checks": {
+                      extra={"station_checks": {
                           "overturning": util * 0.75, "sliding": util,
                           "bearing": util * 0.88, "stem flexure": util * 0.8}})
