@@ -83,9 +83,27 @@ CRITERIA_KEYS = {
                                     doc="contraction joint spacing limit, ft (common practice)"),
     "expansion_joint_max_ft": Key(float, 90.0, lo=10, hi=1000,
                                   doc="expansion joint spacing limit, ft (common practice)"),
-    "design_height_increment_ft": Key(float, 0.25, lo=0.01, hi=2,
+    "design_height_increment_ft": Key(float, 1.0, lo=0.01, hi=5,
                                       doc="design heights rounded up to this, ft (common "
                                           "practice: walls tabulated by height)"),
+    # strength options, ACI 318-19 (the section check; DESIGN.md section 7)
+    "cover_stem_in": Key(float, None, lo=0.75, hi=6,
+                         doc="clear cover to the stem bars, in (default ACI 318-19 Table "
+                             "20.5.1.3.1: 2 in for #6 and larger, 1.5 in for #5 and smaller)"),
+    "cover_heel_in": Key(float, None, lo=0.75, hi=6,
+                         doc="clear cover to the heel top bars, in (default as cover_stem_in)"),
+    "cover_toe_in": Key(float, 3.0, lo=0.75, hi=6,
+                        doc="clear cover to the toe bottom bars, in (ACI 318-19 Table "
+                            "20.5.1.3.1: 3 in cast against earth)"),
+    "footing_shear_size_effect": Key(bool, False,
+                                     doc="apply lambda_s to footing one-way shear (ACI 318-19 "
+                                         "13.2.6.2 permits neglecting it)"),
+    "crack_control": Key(bool, True,
+                         doc="limit the stem bar spacing for crack control (ACI 318-19 24.3.2, "
+                             "service bar stress)"),
+    "hook_psi_o": Key(float, 1.0, lo=1.0, hi=1.25,
+                      doc="hook location factor psi_o (ACI 318-19 Table 25.4.3.2): 1.0 for a "
+                          "continuous wall, 1.25 where side cover < 6 db"),
 }
 
 # [costs]: the least-cost objective. ILLUSTRATIVE defaults, not market prices.
@@ -94,7 +112,7 @@ COSTS_KEYS = {
     "steel_usd_per_lb": Key(float, 1.25, lo=0, hi=100, doc="reinforcing steel in place, $/lb"),
     "excavation_usd_per_cy": Key(float, 30.0, lo=0, hi=10000, doc="excavation, $/CY"),
     "formwork_usd_per_sf": Key(float, 12.0, lo=0, hi=1000, doc="formwork, $/SF of contact"),
-    "step_usd": Key(float, 150.0, lo=0, hi=100000, doc="one step in footing or top, $ each"),
+    "step_usd": Key(float, 500.0, lo=0, hi=100000, doc="one step in footing or top, $ each"),
 }
 
 # [sizing]: the candidate grid of the least-cost search (common practice increments).
@@ -104,7 +122,7 @@ SIZING_KEYS = {
     "toe_heel_step_in": Key(float, 3.0, lo=1, hi=24, doc="toe and heel increments, in"),
     "footing_thickness_min_in": Key(float, 12.0, lo=8, hi=60,
                                     doc="thinnest footing, in (IBC 2021 1809.4: 12 in width)"),
-    "footing_thickness_max_in": Key(float, 36.0, lo=8, hi=96, doc="thickest footing, in"),
+    "footing_thickness_max_in": Key(float, 48.0, lo=8, hi=96, doc="thickest footing, in"),
     "footing_thickness_step_in": Key(float, 1.0, lo=0.5, hi=12, doc="footing increments, in"),
     "stem_min_in": Key(float, 8.0, lo=6, hi=48, doc="thinnest stem, in (common practice)"),
     "stem_max_in": Key(float, 24.0, lo=6, hi=72, doc="thickest stem base, in"),
@@ -114,4 +132,43 @@ SIZING_KEYS = {
     "bar_spacing_min_in": Key(float, 6.0, lo=2, hi=48, doc="closest bar spacing, in"),
     "bar_spacing_max_in": Key(float, 18.0, lo=2, hi=48, doc="widest bar spacing, in"),
     "bar_spacing_step_in": Key(float, 1.0, lo=0.5, hi=12, doc="bar spacing increments, in"),
+}
+
+# [geometry] of a section file (DESIGN.md sections 3 and 4)
+SECTION_GEOMETRY_KEYS = {
+    "retained_height_ft": Key(float, REQUIRED, lo=0, hi=40, lo_open=True,
+                              doc="retained grade - front grade, ft"),
+    "embedment_ft": Key(float, REQUIRED, lo=0, hi=20,
+                        doc="front grade - bottom of footing, ft"),
+    "footing_thickness_in": Key(float, REQUIRED, lo=6, hi=72, doc="footing thickness, in"),
+    "stem_top_in": Key(float, REQUIRED, lo=6, hi=72, doc="stem thickness at the top, in"),
+    "stem_base_in": Key(float, REQUIRED, lo=6, hi=72,
+                        doc="stem thickness at the top of footing, in (>= stem_top_in)"),
+    "toe_ft": Key(float, REQUIRED, lo=0, hi=30, doc="stem front face to toe edge, ft"),
+    "heel_ft": Key(float, REQUIRED, lo=0, hi=40, doc="stem back face to heel edge, ft"),
+    "key_width_in": Key(float, 0.0, lo=0, hi=60, doc="shear key width, in (0: no key)"),
+    "key_depth_in": Key(float, 0.0, lo=0, hi=72, doc="shear key depth below footing, in"),
+    "key_offset_ft": Key(float, None, lo=0, hi=80,
+                         doc="toe edge to the key's front face, ft (default: below the stem's "
+                             "front face, common practice)"),
+    "freeboard_ft": Key(float, None, lo=0, hi=5,
+                        doc="top of wall above retained grade, ft (default [criteria] "
+                            "freeboard_ft, 0.5)"),
+}
+
+# [reinforcement] of a section file: the trade's bar notation "#6@12"
+REINFORCEMENT_KEYS = {
+    "stem": Key(str, REQUIRED, doc="stem vertical bars at the back (earth) face, e.g. \"#6@12\""),
+    "heel": Key(str, REQUIRED, doc="heel top bars, e.g. \"#5@12\""),
+    "toe": Key(str, REQUIRED, doc="toe bottom bars, e.g. \"#5@12\""),
+    "horizontal": Key(str, None, doc="stem horizontal bars in each layer (optional)"),
+    "horizontal_layers": Key(int, 2, lo=1, hi=2, doc="layers of stem horizontal bars"),
+    "longitudinal": Key(str, None, doc="footing longitudinal bars in each layer (optional)"),
+    "longitudinal_layers": Key(int, 2, lo=1, hi=2, doc="layers of footing longitudinal bars"),
+}
+
+# [section]: optional labels of a section file
+SECTION_META_KEYS = {
+    "name": Key(str, None, doc="a name for the section"),
+    "notes": Key(str, None, doc="free text"),
 }

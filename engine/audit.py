@@ -1,0 +1,395 @@
+"""An independent re-check of one section in plain Python floats (``math`` only).
+
+Written apart from the vectorized engine and sharing none of its formula code: only the ASTM
+A615 bar table and the :class:`~.section.DesignInputs` container. The methods differ on
+purpose so that an error in one is unlikely to be repeated in the other:
+
+- weights and arms by the shoelace formula over polygons of concrete and soil (the engine
+  adds rectangles and triangles);
+- Ka and Kp from (1 - sin phi)/(1 + sin phi) (the engine uses tan^2);
+- bearing from the resultant's distance to the toe (middle-third rule), the toe load by
+  trapezoids between the breaks of the pressure diagram;
+- flexural strength by bisection on the neutral axis with the steel stress from strain
+  compatibility (the engine solves it in closed form);
+- the cracked section for crack control from the transformed-area equation in kd.
+
+``audit_section(inputs, geometry, bars)`` returns ``{check name: AuditRow(demand, capacity,
+passes)}`` with the names of :data:`~.checks.CHECK_NAMES`; ``audit_details`` also returns
+the headline values (the keys of the ``section --json`` object).
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Mapping
+from typing import NamedTuple
+
+from .bars import A615, parse_bars
+
+E_STEEL = 29.0e6
+STRAIN_CU = 0.003
+UP_FRACTIONS = (0.25, 0.5, 0.75)
+
+
+class AuditRow(NamedTuple):
+    demand: float
+    capacity: float
+    passes: bool
+
+
+def _bar(spec):
+    if spec is None:
+        return None
+    if isinstance(spec, str):
+        b = parse_bars(spec)
+        return b.size, b.spacing_in
+    size, spacing = spec
+    return int(size), float(spacing)
+
+
+def _polygon(pts):
+    """Area and centroid x of a simple polygon (shoelace), any orientation."""
+    a2 = cx = 0.0
+    n = len(pts)
+    for i in range(n):
+        x1, y1 = pts[i]
+        x2, y2 = pts[(i + 1) % n]
+        cross = x1 * y2 - x2 * y1
+        a2 += cross
+        cx += (x1 + x2) * cross
+    if abs(a2) < 1e-15:
+        return 0.0, 0.0
+    return abs(a2) / 2.0, cx / (3.0 * a2)
+
+
+def _whitney_strength(As, d, fc, fy, b=12.0):
+    """phi*Mn (lb-ft) by bisection on c: 0.85 f'c b beta1 c = As * min(fy, Es eps_s)."""
+    if As <= 0 or d <= 0:
+        return 0.0, 0.9
+    if fc <= 4000:
+        b1 = 0.85
+    elif fc >= 8000:
+        b1 = 0.65
+    else:
+        b1 = 0.85 - 0.05 * (fc - 4000) / 1000
+    lo, hi = 1e-9 * d, d
+    for _ in range(200):
+        c = 0.5 * (lo + hi)
+        eps = STRAIN_CU * (d - c) / c
+        fs = min(fy, E_STEEL * eps)
+        if 0.85 * fc * b * b1 * c > As * fs:
+            hi = c
+        else:
+            lo = c
+        if hi - lo < 1e-13 * d:
+            break
+    c = 0.5 * (lo + hi)
+    eps = STRAIN_CU * (d - c) / c
+    fs = min(fy, E_STEEL * eps)
+    a = b1 * c
+    mn = As * fs * (d - a / 2) / 12.0  # steel force times lever arm
+    ety = fy / E_STEEL
+    if eps >= ety + 0.003:
+        phi = 0.90
+    elif eps <= ety:
+        phi = 0.65
+    else:
+        phi = 0.65 + 0.25 * (eps - ety) / 0.003
+    return phi * mn, phi
+
+
+def _shear_strength(As, d, fc, lam_s_used, b=12.0):
+    """0.75 Vc, Table 22.5.5.1(c), Nu = 0."""
+    if d <= 0:
+        return 0.0
+    root = min(math.sqrt(fc), 100.0)
+    lam_s = min(1.0, math.sqrt(2.0 / (1.0 + d / 10.0))) if lam_s_used else 1.0
+    vc = 8.0 * lam_s * (As / (b * d)) ** (1.0 / 3.0) * root * b * d
+    return 0.75 * min(vc, 5.0 * root * b * d)
+
+
+def _ldh(size, fc, fy, spacing, psi_o):
+    db = A615[size][0]
+    root = min(math.sqrt(fc), 100.0)
+    psi_r = 1.0 if (size <= 11 and spacing >= 6 * db) else 1.6
+    psi_c = 0.6 + fc / 15000 if fc < 6000 else 1.0
+    return max(fy * psi_r * psi_o * psi_c / (55 * root) * db ** 1.5, 8 * db, 6.0)
+
+
+def _ratio(a, b):
+    if b == 0:
+        return 0.0 if a <= 0 else math.inf
+    return a / b
+
+
+def _cover(size, given):
+    if given is not None:
+        return float(given)
+    return 2.0 if size >= 6 else 1.5
+
+
+def _toe_load(x_bar, V, B, L):
+    """Upward force and moment about x = L of the service base pressure over [0, L]."""
+    if B / 3 <= x_bar <= 2 * B / 3:
+        p_toe = V * (4 * B - 6 * x_bar) / B ** 2
+        p_heel = V * (6 * x_bar - 2 * B) / B ** 2
+
+        def p(x):
+            return p_toe + (p_heel - p_toe) * x / B
+        breaks = [0.0, L]
+    elif x_bar < B / 3:
+        n = 3 * x_bar  # triangle from the toe
+
+        def p(x):
+            return max(0.0, 2 * V / n * (1 - x / n))
+        breaks = sorted({0.0, L, min(max(n, 0.0), L)})
+    else:
+        n = 3 * (B - x_bar)  # triangle from the heel
+
+        def p(x):
+            return max(0.0, 2 * V / n * (1 - (B - x) / n))
+        breaks = sorted({0.0, L, min(max(B - n, 0.0), L)})
+    force = moment = 0.0
+    for x1, x2 in zip(breaks, breaks[1:], strict=False):
+        p1, p2 = p(x1), p(x2)
+        f = (p1 + p2) / 2 * (x2 - x1)
+        if f > 0:
+            xc = x1 + (x2 - x1) * (p1 + 2 * p2) / (3 * (p1 + p2))
+            moment += f * (L - xc)
+        force += f
+    return force, moment
+
+
+def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, object]):
+    """The checks of one section and its headline values, independently of the engine.
+
+    Args:
+        inputs: a :class:`~.section.DesignInputs`.
+        geometry: the ``[geometry]`` keys as floats (key and freeboard keys optional).
+        bars: ``{"stem": "#6@12" or (size, spacing_in), "heel": ..., "toe": ...}``, optionally
+            ``"horizontal"``, ``"horizontal_layers"``, ``"longitudinal"``,
+            ``"longitudinal_layers"``.
+
+    Returns:
+        (rows, values): ``rows`` maps check names to AuditRow; ``values`` holds
+        footing_width_ft, m_overturning_lbft, m_resisting_lbft, fs_overturning, h_driving_lb,
+        h_resisting_lb, fs_sliding, q_max_psf (None outside the base), eccentricity_ft, and
+        stem_/heel_/toe_ mu_lbft, phi_mn_lbft, vu_lb, phi_vn_lb, d_in.
+    """
+    i = inputs
+    g = {k: float(v) for k, v in geometry.items() if v is not None}
+    h_ret, emb = g["retained_height_ft"], g["embedment_ft"]
+    T_in, T = g["footing_thickness_in"], g["footing_thickness_in"] / 12.0
+    tt, tb = g["stem_top_in"] / 12.0, g["stem_base_in"] / 12.0
+    toe, heel = g["toe_ft"], g["heel_ft"]
+    kw, kd = g.get("key_width_in", 0.0) / 12.0, g.get("key_depth_in", 0.0) / 12.0
+    ko = g.get("key_offset_ft", toe)
+    fb = g.get("freeboard_ft", 0.5)
+    gam, gc, q = i.unit_weight_pcf, i.concrete_unit_weight_pcf, i.surcharge_psf
+    fc, fy = i.fc_psi, i.fy_psi
+
+    # pressures
+    if i.active_efp_pcf is not None:
+        efp = i.active_efp_pcf
+        ka = efp / gam
+    else:
+        sn = math.sin(math.radians(i.friction_angle_deg))
+        ka = (1 - sn) / (1 + sn)
+        efp = ka * gam
+    if not i.use_passive:
+        efp_p = 0.0
+    elif i.passive_from_friction_angle:
+        sn = math.sin(math.radians(i.friction_angle_deg))
+        efp_p = (1 + sn) / (1 - sn) * gam
+    else:
+        efp_p = i.passive_efp_pcf
+
+    # polygons: x from the toe edge, y up from the bottom of footing
+    H = h_ret + emb
+    B = toe + tb + heel
+    y_top = H + fb
+    x_front, x_back = toe, toe + tb
+    if i.batter_face == "back":
+        stem_poly = [(x_front, T), (x_back, T), (x_front + tt, y_top), (x_front, y_top)]
+        x_face_at_grade = x_back - (tb - tt) * (H - T) / (y_top - T)
+    else:
+        stem_poly = [(x_front, T), (x_back, T), (x_back, y_top), (x_back - tt, y_top)]
+        x_face_at_grade = x_back
+    pieces = [(gc, stem_poly), (gc, [(0, 0), (B, 0), (B, T), (0, T)])]
+    if kw > 0 and kd > 0:
+        pieces.append((gc, [(ko, 0), (ko, -kd), (ko + kw, -kd), (ko + kw, 0)]))
+    if H > T:
+        pieces.append((gam, [(x_back, T), (B, T), (B, H), (x_face_at_grade, H)]))
+    if i.count_toe_soil and emb > T:
+        pieces.append((gam, [(0, T), (toe, T), (toe, emb), (0, emb)]))
+    V_dead = M_dead = 0.0
+    for unit, poly in pieces:
+        area, xc = _polygon(poly)
+        V_dead += unit * area
+        M_dead += unit * area * xc
+    Wq = q * heel  # the surcharge over the heel, from the stem's back face at its base
+    Mq = Wq * (x_back + B) / 2
+
+    # lateral, on the heel plane over H
+    M_O = efp * H ** 3 / 6 + ka * q * H ** 2 / 2
+    H_drive = efp * H ** 2 / 2 + ka * q * H
+    V_res, M_res = (V_dead + Wq, M_dead + Mq) if i.surcharge_resists else (V_dead, M_dead)
+    fs_ot = M_res / M_O if M_O > 0 else math.inf
+    z_bot = emb + (kd if (kw > 0 and kd > 0) else 0.0)
+    z_top = min(i.passive_neglect_ft, z_bot)
+    P_p = efp_p * (z_bot ** 2 - z_top ** 2) / 2 if i.use_passive else 0.0
+    H_res = i.friction_coefficient * V_res + P_p
+    fs_sl = H_res / H_drive if H_drive > 0 else math.inf
+
+    # bearing cases: (V, M_R) with and without the surcharge weight
+    cases = [(V_res, M_res)] if i.surcharge_resists else [(V_dead, M_dead),
+                                                          (V_dead + Wq, M_dead + Mq)]
+    bearing = []
+    for V, M in cases:
+        xb = (M - M_O) / V
+        if not (0 < xb < B):
+            bearing.append((V, xb, None))
+            continue
+        if B / 3 <= xb <= 2 * B / 3:
+            qmax = max(V * (4 * B - 6 * xb) / B ** 2, V * (6 * xb - 2 * B) / B ** 2)
+        else:
+            qmax = 2 * V / (3 * min(xb, B - xb))
+        bearing.append((V, xb, qmax))
+    in_base = all(c[2] is not None for c in bearing)
+    if in_base:
+        gov = max(bearing, key=lambda c: c[2])
+        q_max = gov[2]
+    else:
+        gov = next(c for c in bearing if c[2] is None)
+        q_max = None
+    e_gov = B / 2 - gov[1]
+
+    rows: dict[str, AuditRow] = {}
+    rows["overturning"] = AuditRow(i.fs_overturning, fs_ot,
+                                   fs_ot >= i.fs_overturning and in_base)
+    rows["sliding"] = AuditRow(i.fs_sliding, fs_sl, fs_sl >= i.fs_sliding)
+    rows["bearing"] = AuditRow(q_max if q_max is not None else math.nan,
+                               i.allowable_bearing_psf,
+                               q_max is not None and q_max <= i.allowable_bearing_psf)
+    emb_req = max(i.min_embedment_ft, i.frost_depth_ft or 0.0)
+    rows["embedment"] = AuditRow(emb_req, emb, emb >= emb_req)
+
+    # ---- stem
+    s_size, s_sp = _bar(bars["stem"])
+    db = A615[s_size][0]
+    As = A615[s_size][1] * 12 / s_sp
+    cov = _cover(s_size, i.cover_stem_in)
+    d = g["stem_base_in"] - cov - db / 2
+    hs = max(H - T, 0.0)
+
+    def stem_mv(z):
+        z = max(z, 0.0)
+        return (1.6 * (efp * z ** 3 / 6 + ka * q * z * z / 2),
+                1.6 * (efp * z * z / 2 + ka * q * z))
+
+    mu_s, _ = stem_mv(hs)
+    _, vu_s = stem_mv(hs - d / 12)
+    pmn_s, _ = _whitney_strength(As, d, fc, fy)
+    pvn_s = _shear_strength(As, d, fc, True)
+    rows["stem_flexure"] = AuditRow(mu_s, pmn_s, mu_s <= pmn_s)
+    rows["stem_shear"] = AuditRow(vu_s, pvn_s, vu_s <= pvn_s)
+    best_f = best_v = None
+    for f in UP_FRACTIONS:
+        y = f * hs
+        t_in = g["stem_base_in"] - (g["stem_base_in"] - g["stem_top_in"]) * min(
+            y / (y_top - T), 1.0)
+        dy = t_in - cov - db / 2
+        mu_y, vu_y = stem_mv(hs - y)
+        pm, _ = _whitney_strength(As, dy, fc, fy)
+        pv = _shear_strength(As, dy, fc, True)
+        if best_f is None or _ratio(mu_y, pm) > _ratio(*best_f):
+            best_f = (mu_y, pm)
+        if best_v is None or _ratio(vu_y, pv) > _ratio(*best_v):
+            best_v = (vu_y, pv)
+    rows["stem_flexure_height"] = AuditRow(best_f[0], best_f[1], best_f[0] <= best_f[1])
+    rows["stem_shear_height"] = AuditRow(best_v[0], best_v[1], best_v[0] <= best_v[1])
+    as_min = 0.0018 * 12 * g["stem_base_in"]
+    rows["stem_min_steel"] = AuditRow(as_min, As, As >= as_min)
+    s_lim = min(3 * g["stem_base_in"], 18.0)
+    if i.crack_control:
+        ms = mu_s / 1.6
+        n = E_STEEL / (57000 * math.sqrt(fc))
+        # transformed section: 12 kd^2 / 2 = n As (d - kd)
+        aq, bq, cq = 6.0, n * As, -n * As * d
+        kd_ = (-bq + math.sqrt(bq * bq - 4 * aq * cq)) / (2 * aq)
+        fs_serv = ms * 12 / (As * (d - kd_ / 3))
+        if fs_serv > 0:
+            s_lim = max(0.0, min(s_lim, 15 * 40000 / fs_serv - 2.5 * cov,
+                                 12 * 40000 / fs_serv))
+    rows["stem_spacing"] = AuditRow(s_sp, s_lim, s_sp <= s_lim)
+    ldh = _ldh(s_size, fc, fy, s_sp, i.hook_psi_o)
+    rows["stem_hook"] = AuditRow(ldh, T_in - i.cover_toe_in, ldh <= T_in - i.cover_toe_in)
+
+    # ---- heel: cantilever from the back face, 1.2 D + 1.6 L, upward pressure neglected
+    h_size, h_sp = _bar(bars["heel"])
+    w_heel = 1.2 * (gam * hs + gc * T) + 1.6 * q
+    mu_h, vu_h = w_heel * heel ** 2 / 2, w_heel * heel
+    d_h = T_in - _cover(h_size, i.cover_heel_in) - A615[h_size][0] / 2
+    As_h = A615[h_size][1] * 12 / h_sp
+    pmn_h, _ = _whitney_strength(As_h, d_h, fc, fy)
+    pvn_h = _shear_strength(As_h, d_h, fc, i.footing_shear_size_effect)
+    rows["heel_flexure"] = AuditRow(mu_h, pmn_h, mu_h <= pmn_h)
+    rows["heel_shear"] = AuditRow(vu_h, pvn_h, vu_h <= pvn_h)
+    rows["heel_min_steel"] = AuditRow(0.0018 * 12 * T_in, As_h, As_h >= 0.0018 * 12 * T_in)
+    rows["heel_spacing"] = AuditRow(h_sp, min(3 * T_in, 18.0), h_sp <= min(3 * T_in, 18.0))
+
+    # ---- toe: 1.6 x service bearing pressure - 0.9 x weight over the toe, at the front face
+    t_size, t_sp = _bar(bars["toe"])
+    w_toe = gc * T + (gam * max(emb - T, 0.0) if i.count_toe_soil else 0.0)
+    if in_base:
+        f_up, m_up = _toe_load(gov[1], gov[0], B, toe)  # the governing bearing case
+        mu_t = 1.6 * m_up - 0.9 * w_toe * toe ** 2 / 2
+        vu_t = 1.6 * f_up - 0.9 * w_toe * toe
+    else:
+        mu_t = vu_t = math.nan
+    d_t = T_in - _cover(t_size, i.cover_toe_in) - A615[t_size][0] / 2
+    As_t = A615[t_size][1] * 12 / t_sp
+    pmn_t, _ = _whitney_strength(As_t, d_t, fc, fy)
+    pvn_t = _shear_strength(As_t, d_t, fc, i.footing_shear_size_effect)
+    rows["toe_flexure"] = AuditRow(mu_t, pmn_t, mu_t <= pmn_t)
+    rows["toe_shear"] = AuditRow(vu_t, pvn_t, vu_t <= pvn_t)
+    rows["toe_min_steel"] = AuditRow(0.0018 * 12 * T_in, As_t, As_t >= 0.0018 * 12 * T_in)
+    rows["toe_spacing"] = AuditRow(t_sp, min(3 * T_in, 18.0), t_sp <= min(3 * T_in, 18.0))
+    rows["toe_depth"] = AuditRow(6.0, d_t, d_t >= 6.0)
+
+    hz = _bar(bars.get("horizontal"))
+    if hz is not None:
+        size, sp = hz
+        rho = 0.0020 if (size <= 5 and fy >= 60000) else 0.0025
+        need = rho * 12 * (g["stem_top_in"] + g["stem_base_in"]) / 2
+        have = bars.get("horizontal_layers", 2) * A615[size][1] * 12 / sp
+        rows["stem_horizontal_steel"] = AuditRow(need, have, have >= need)
+        lim = min(3 * g["stem_top_in"], 18.0)
+        rows["stem_horizontal_spacing"] = AuditRow(sp, lim, sp <= lim)
+    lg = _bar(bars.get("longitudinal"))
+    if lg is not None:
+        size, sp = lg
+        need = 0.0018 * 12 * T_in
+        have = bars.get("longitudinal_layers", 2) * A615[size][1] * 12 / sp
+        rows["footing_longitudinal_steel"] = AuditRow(need, have, have >= need)
+        lim = min(5 * T_in, 18.0)
+        rows["footing_longitudinal_spacing"] = AuditRow(sp, lim, sp <= lim)
+
+    values = {
+        "footing_width_ft": B, "m_overturning_lbft": M_O, "m_resisting_lbft": M_res,
+        "fs_overturning": fs_ot, "h_driving_lb": H_drive, "h_resisting_lb": H_res,
+        "fs_sliding": fs_sl, "q_max_psf": q_max, "eccentricity_ft": e_gov,
+        "stem_mu_lbft": mu_s, "stem_phi_mn_lbft": pmn_s, "stem_vu_lb": vu_s,
+        "stem_phi_vn_lb": pvn_s, "stem_d_in": d,
+        "heel_mu_lbft": mu_h, "heel_phi_mn_lbft": pmn_h, "heel_vu_lb": vu_h,
+        "heel_phi_vn_lb": pvn_h, "heel_d_in": d_h,
+        "toe_mu_lbft": mu_t, "toe_phi_mn_lbft": pmn_t, "toe_vu_lb": vu_t,
+        "toe_phi_vn_lb": pvn_t, "toe_d_in": d_t,
+    }
+    return rows, values
+
+
+def audit_section(inputs, geometry: Mapping[str, float],
+                  bars: Mapping[str, object]) -> dict[str, AuditRow]:
+    """Every check of one section, independently: ``{name: (demand, capacity, passes)}``."""
+    return audit_details(inputs, geometry, bars)[0]

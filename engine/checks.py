@@ -1,0 +1,342 @@
+"""Every check of a cantilever section, as rows: name, demand, capacity, ratio, passes, clause.
+
+Public API (all functions broadcast over sections; a scalar call equals the array element):
+
+- inputs: :class:`~.section.SectionGeometry`, :class:`~.section.DesignInputs`
+  (``DesignInputs.from_tables(soil, loads, materials, criteria)``),
+  :class:`~.section.Reinforcement` of :class:`~.section.BarArrays`;
+- :func:`~.stability.stability` (geometry only, for screening), :func:`~.strength.stem_strength`,
+  :func:`~.strength.heel_strength`, :func:`~.strength.toe_strength` (geometry + bars);
+- :func:`check_section` -> :class:`SectionChecks` with every :class:`CheckRow`, ``passes`` and
+  ``utilization_max`` arrays, ``to_frame()``, ``rows_frame(i)`` and ``to_dict(i)`` (the JSON
+  object of ``wallsched section --json``).
+
+Ratio = demand / capacity, and a row passes when ratio <= 1 (so NaN never passes). For the
+factor-of-safety rows the demand is the required FS and the capacity the FS provided; for
+minimum-quantity rows (steel area, embedment, depth) the demand is the minimum and the capacity
+what is provided. A resultant outside the base fails overturning and has no bearing number
+(q_max NaN, bearing ratio inf). Invalid geometry (see ``SectionGeometry.valid``) never passes.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+import numpy as np
+
+from .pressure import EarthPressure, earth_pressure
+from .section import DesignInputs, Reinforcement, SectionGeometry, section_weights
+from .stability import StabilityResult, stability
+from .strength import (
+    MemberResult,
+    StemResult,
+    heel_strength,
+    max_flexural_spacing_in,
+    shrinkage_spacing_in,
+    shrinkage_steel_in2,
+    stem_strength,
+    toe_strength,
+    wall_horizontal_min_in2,
+)
+
+TOE_MIN_DEPTH_IN = 6.0  # 13.3.1.2: depth of footing above the bottom reinforcement
+
+LOAD_FACTORS = (
+    "Stability (overturning, sliding, bearing): service loads, all factors 1.0 "
+    "(IBC 2021 1807.2.3; required FS from [criteria]).",
+    "Stem: 1.6 on lateral earth pressure and on the lateral pressure of the live surcharge "
+    "(ASCE 7 2.3, H and L).",
+    "Heel: 1.2 on the soil and concrete weight over it, 1.6 on the live surcharge; the upward "
+    "soil pressure under the heel is neglected (conservative; McCormac & Brown 13.10).",
+    "Toe: 1.6 on the service bearing pressure of the governing bearing case, less 0.9 on the "
+    "weight of footing and soil "
+    "over the toe (dead load that resists).",
+)
+
+
+@dataclass(frozen=True)
+class CheckRow:
+    """One check over all sections: ``ratio = demand / capacity``, passes where ratio <= 1."""
+
+    name: str
+    title: str
+    unit: str
+    clause: str
+    demand: np.ndarray
+    capacity: np.ndarray
+    ratio: np.ndarray
+    passes: np.ndarray
+
+
+def _row(name, title, unit, clause, demand, capacity, *, ratio=None, extra_ok=None, valid=None):
+    demand, capacity = np.asarray(demand, dtype=float), np.asarray(capacity, dtype=float)
+    if ratio is None:
+        with np.errstate(divide="ignore", invalid="ignore"):
+            ratio = demand / capacity
+            # no capacity: fails when there is demand (never a negative "passing" ratio)
+            ratio = np.where(capacity <= 0, np.where(demand <= 0, 0.0, np.inf), ratio)
+    if valid is not None:
+        ratio = np.where(valid, ratio, np.nan)
+    ok = ratio <= 1.0
+    if extra_ok is not None:
+        ok = ok & extra_ok
+    return CheckRow(name, title, unit, clause, demand, capacity, np.asarray(ratio, dtype=float),
+                    np.asarray(ok))
+
+
+@dataclass(frozen=True)
+class SectionChecks:
+    """All checks of a batch of sections, with the member results behind them."""
+
+    rows: tuple[CheckRow, ...]
+    stability: StabilityResult
+    stem: StemResult
+    heel: MemberResult
+    toe: MemberResult
+    pressure: EarthPressure
+    valid: np.ndarray
+    passes: np.ndarray
+    utilization_max: np.ndarray
+
+    @property
+    def names(self) -> tuple[str, ...]:
+        return tuple(r.name for r in self.rows)
+
+    def row(self, name: str) -> CheckRow:
+        for r in self.rows:
+            if r.name == name:
+                return r
+        raise KeyError(f"no check named {name!r}; checks: {', '.join(self.names)}")
+
+    @property
+    def shape(self) -> tuple[int, ...]:
+        return np.shape(self.passes)
+
+    @property
+    def governing(self) -> np.ndarray:
+        """Name of the row with the largest ratio (NaN rows win: they fail)."""
+        stack = np.stack([np.broadcast_to(r.ratio, self.shape) for r in self.rows])
+        stack = np.where(np.isnan(stack), np.inf, stack)
+        return np.asarray(self.names, dtype=object)[np.argmax(stack, axis=0)]
+
+    def to_frame(self):
+        """One row per section: key results, then ``<check>_ratio`` and ``<check>_passes``."""
+        import pandas as pd
+
+        shp = self.shape
+        b = lambda v: np.broadcast_to(v, shp).reshape(-1)  # noqa: E731
+        st = self.stability
+        cols = {
+            "footing_width_ft": st.footing_width_ft, "fs_overturning": st.fs_overturning,
+            "fs_sliding": st.fs_sliding, "q_max_psf": st.q_max_psf,
+            "eccentricity_ft": st.eccentricity_ft,
+        }
+        for m in ("stem", "heel", "toe"):
+            r = getattr(self, m)
+            for f in ("mu_lbft", "phi_mn_lbft", "vu_lb", "phi_vn_lb", "d_in"):
+                cols[f"{m}_{f}"] = getattr(r, f)
+        for r in self.rows:
+            cols[f"{r.name}_ratio"] = r.ratio
+            cols[f"{r.name}_passes"] = r.passes
+        cols["utilization_max"] = self.utilization_max
+        cols["governing"] = self.governing
+        cols["passes"] = self.passes
+        return pd.DataFrame({k: b(v) for k, v in cols.items()})
+
+    def rows_frame(self, index=()):
+        """The check rows of one section (``index`` into the batch; () for a scalar call)."""
+        import pandas as pd
+
+        return pd.DataFrame([{k: v for k, v in d.items()} for d in self._rows_at(index)])
+
+    def _rows_at(self, index):
+        out = []
+        for r in self.rows:
+            out.append({
+                "name": r.name, "title": r.title, "demand": _val(r.demand, self.shape, index),
+                "capacity": _val(r.capacity, self.shape, index), "unit": r.unit,
+                "ratio": _val(r.ratio, self.shape, index),
+                "passes": bool(np.broadcast_to(r.passes, self.shape)[index]),
+                "clause": r.clause,
+            })
+        return out
+
+    def to_dict(self, index=()) -> dict:
+        """The result of one section as plain Python (the ``section --json`` object).
+
+        Non-finite numbers become ``None``. Keys: ``footing_width_ft``, ``overturning``,
+        ``sliding``, ``bearing``, ``stem``, ``heel``, ``toe``, ``checks``, ``passes``,
+        ``utilization_max``, ``governing_check``, ``load_factors``.
+        """
+        shp = self.shape
+        v = lambda a: _val(a, shp, index)  # noqa: E731
+        st = self.stability
+        ot, sl, br = self.row("overturning"), self.row("sliding"), self.row("bearing")
+        out = {
+            "footing_width_ft": v(st.footing_width_ft),
+            "design_height_ft": v(st.design_height_ft),
+            "overturning": {
+                "fs": v(st.fs_overturning), "fs_required": v(ot.demand),
+                "m_overturning_lbft": v(st.m_overturning_lbft),
+                "m_resisting_lbft": v(st.m_resisting_lbft),
+                "resultant_in_base": bool(np.broadcast_to(st.resultant_in_base, shp)[index]),
+                "passes": bool(np.broadcast_to(ot.passes, shp)[index]),
+            },
+            "sliding": {
+                "fs": v(st.fs_sliding), "fs_required": v(sl.demand),
+                "h_driving_lb": v(st.h_driving_lb), "h_resisting_lb": v(st.h_resisting_lb),
+                "passive_lb": v(st.passive_lb),
+                "friction_lb": v(st.h_resisting_lb - st.passive_lb),
+                "sum_v_lb": v(st.sum_v_lb),
+                "passes": bool(np.broadcast_to(sl.passes, shp)[index]),
+            },
+            "bearing": {
+                "q_max_psf": v(st.q_max_psf), "q_min_psf": v(st.q_min_psf),
+                "eccentricity_ft": v(st.eccentricity_ft), "allowable_psf": v(br.capacity),
+                "case": ("with surcharge weight"
+                         if bool(np.broadcast_to(st.bearing_with_surcharge, shp)[index])
+                         else "without surcharge weight"),
+                "passes": bool(np.broadcast_to(br.passes, shp)[index]),
+            },
+        }
+        for m in ("stem", "heel", "toe"):
+            r = getattr(self, m)
+            out[m] = {f: v(getattr(r, f)) for f in
+                      ("mu_lbft", "phi_mn_lbft", "vu_lb", "phi_vn_lb", "d_in", "thickness_in",
+                       "as_in2", "as_min_in2", "spacing_in", "s_max_in", "cover_in", "phi",
+                       "eps_t")}
+        out["stem"].update(ldh_in=v(self.stem.ldh_in),
+                           ldh_available_in=v(self.stem.ldh_available_in),
+                           fs_service_psi=v(self.stem.fs_service_psi))
+        out["checks"] = self._rows_at(index)
+        out["passes"] = bool(np.broadcast_to(self.passes, shp)[index])
+        out["utilization_max"] = v(self.utilization_max)
+        out["governing_check"] = str(np.broadcast_to(self.governing, shp)[index])
+        out["load_factors"] = list(LOAD_FACTORS)
+        return out
+
+
+def _val(a, shape, index):
+    x = float(np.broadcast_to(np.asarray(a, dtype=float), shape)[index])
+    return x if math.isfinite(x) else None
+
+
+def check_section(geom: SectionGeometry, inputs: DesignInputs, bars: Reinforcement, *,
+                  pressure: EarthPressure | None = None) -> SectionChecks:
+    """Every check of every section: stability, stem, heel, toe, detailing.
+
+    Args:
+        geom: section geometry arrays; inputs: soil/loads/materials/criteria;
+        bars: reinforcement (arrays broadcast against the geometry).
+        pressure: a precomputed :func:`~.pressure.earth_pressure` (optional).
+
+    Returns:
+        SectionChecks (rows in a fixed order; the stem horizontal and footing longitudinal
+        rows only when those bars are given).
+    """
+    p = pressure or earth_pressure(inputs)
+    valid = geom.valid
+    st = stability(geom, inputs, pressure=p, weights=section_weights(geom, inputs))
+    stem = stem_strength(geom, inputs, bars.stem, pressure=p)
+    heel = heel_strength(geom, inputs, bars.heel)
+    toe = toe_strength(geom, inputs, bars.toe, st)
+    aci = "ACI 318-19"
+    emb_req = max(inputs.min_embedment_ft, inputs.frost_depth_ft or 0.0)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        ot_ratio = inputs.fs_overturning / st.fs_overturning
+        br_ratio = np.where(st.resultant_in_base,
+                            st.q_max_psf / inputs.allowable_bearing_psf, np.inf)
+    rows = [
+        _row("overturning", "Overturning about the toe (FS)", "-", "IBC 2021 1807.2.3",
+             inputs.fs_overturning, st.fs_overturning, ratio=ot_ratio,
+             extra_ok=st.resultant_in_base, valid=valid),
+        _row("sliding", "Sliding (FS)", "-", "IBC 2021 1807.2.3", inputs.fs_sliding,
+             st.fs_sliding, valid=valid),
+        _row("bearing", "Bearing pressure q_max", "psf",
+             "IBC 2021 1806.1; allowable from the geotechnical report", st.q_max_psf,
+             inputs.allowable_bearing_psf, ratio=br_ratio, valid=valid),
+        _row("embedment", "Embedment below front grade", "ft",
+             "IBC 2021 1809.4, 1809.5 (frost)", emb_req, geom.embedment_ft, valid=valid),
+        _row("stem_flexure", "Stem flexure at top of footing", "lb-ft",
+             f"{aci} 22.2, Table 21.2.2", stem.mu_lbft, stem.phi_mn_lbft, valid=valid),
+        _row("stem_shear", "Stem shear at d above footing", "lb",
+             f"{aci} Table 22.5.5.1(c) with lambda_s, 7.4.3.2", stem.vu_lb, stem.phi_vn_lb,
+             valid=valid),
+        _row("stem_flexure_height", "Stem flexure up the height", "lb-ft",
+             f"{aci} 13.3.6.3, 22.2", stem.height_mu_lbft, stem.height_phi_mn_lbft, valid=valid),
+        _row("stem_shear_height", "Stem shear up the height", "lb",
+             f"{aci} 13.3.6.3, Table 22.5.5.1(c)", stem.height_vu_lb, stem.height_phi_vn_lb,
+             valid=valid),
+        _row("stem_min_steel", "Stem minimum vertical steel", "in2/ft", f"{aci} 7.6.1.1",
+             stem.as_min_in2, stem.as_in2, valid=valid),
+        _row("stem_spacing", "Stem bar spacing (3h, 18 in, crack control)", "in",
+             f"{aci} 7.7.2.3, 24.3.2" if inputs.crack_control else f"{aci} 7.7.2.3",
+             stem.spacing_in, stem.s_max_in, valid=valid),
+        _row("stem_hook", "Stem bar hook development into footing", "in",
+             f"{aci} 25.4.3.1, Table 25.3.1", stem.ldh_in, stem.ldh_available_in, valid=valid),
+        _row("heel_flexure", "Heel flexure at back face of stem", "lb-ft",
+             f"{aci} 22.2, Table 21.2.2", heel.mu_lbft, heel.phi_mn_lbft, valid=valid),
+        _row("heel_shear", "Heel shear at back face of stem", "lb",
+             f"{aci} Table 22.5.5.1(c), " + ("lambda_s applied" if
+                                           inputs.footing_shear_size_effect else
+                                           "lambda_s neglected per 13.2.6.2"),
+             heel.vu_lb, heel.phi_vn_lb, valid=valid),
+        _row("heel_min_steel", "Heel minimum steel (top)", "in2/ft", f"{aci} 7.6.1.1, 13.3.2.1",
+             heel.as_min_in2, heel.as_in2, valid=valid),
+        _row("heel_spacing", "Heel bar spacing", "in", f"{aci} 7.7.2.3", heel.spacing_in,
+             heel.s_max_in, valid=valid),
+        _row("toe_flexure", "Toe flexure at front face of stem", "lb-ft",
+             f"{aci} 22.2, Table 21.2.2", toe.mu_lbft, toe.phi_mn_lbft, valid=valid),
+        _row("toe_shear", "Toe shear at front face of stem", "lb",
+             f"{aci} Table 22.5.5.1(c), " + ("lambda_s applied" if
+                                           inputs.footing_shear_size_effect else
+                                           "lambda_s neglected per 13.2.6.2"),
+             toe.vu_lb, toe.phi_vn_lb, valid=valid),
+        _row("toe_min_steel", "Toe minimum steel (bottom)", "in2/ft", f"{aci} 7.6.1.1, 13.3.2.1",
+             toe.as_min_in2, toe.as_in2, valid=valid),
+        _row("toe_spacing", "Toe bar spacing", "in", f"{aci} 7.7.2.3", toe.spacing_in,
+             toe.s_max_in, valid=valid),
+        _row("toe_depth", "Footing depth above bottom bars", "in", f"{aci} 13.3.1.2",
+             TOE_MIN_DEPTH_IN, toe.d_in, valid=valid),
+    ]
+    if bars.horizontal is not None:
+        hb = bars.horizontal
+        t_avg = (geom.stem_top_in + geom.stem_base_in) / 2.0
+        rows.append(_row("stem_horizontal_steel", "Stem horizontal steel (average thickness)",
+                         "in2/ft", f"{aci} 11.1.6, Table 11.6.1",
+                         wall_horizontal_min_in2(t_avg, hb.size, inputs.fy_psi),
+                         bars.horizontal_layers * hb.area_in2_per_ft, valid=valid))
+        rows.append(_row("stem_horizontal_spacing", "Stem horizontal bar spacing", "in",
+                         f"{aci} 11.7.3.1", hb.spacing_in,
+                         max_flexural_spacing_in(geom.stem_top_in), valid=valid))
+    if bars.longitudinal is not None:
+        lb = bars.longitudinal
+        T = geom.footing_thickness_in
+        rows.append(_row("footing_longitudinal_steel", "Footing longitudinal (S+T) steel",
+                         "in2/ft", f"{aci} 24.4.3.2", shrinkage_steel_in2(T),
+                         bars.longitudinal_layers * lb.area_in2_per_ft, valid=valid))
+        rows.append(_row("footing_longitudinal_spacing", "Footing longitudinal bar spacing",
+                         "in", f"{aci} 24.4.3.3", lb.spacing_in, shrinkage_spacing_in(T),
+                         valid=valid))
+    shape = np.broadcast_shapes(*(np.shape(r.ratio) for r in rows), geom.shape)
+    passes = np.broadcast_to(valid, shape).copy()
+    util = np.full(shape, -np.inf)
+    for r in rows:
+        passes &= r.passes
+        util = np.maximum(util, r.ratio)  # NaN propagates
+    return SectionChecks(tuple(rows), st, stem, heel, toe, p, np.asarray(valid), passes, util)
+
+
+# the names in order, for callers that want them without running a check
+CHECK_NAMES = (
+    "overturning", "sliding", "bearing", "embedment", "stem_flexure", "stem_shear",
+    "stem_flexure_height", "stem_shear_height", "stem_min_steel", "stem_spacing", "stem_hook",
+    "heel_flexure", "heel_shear", "heel_min_steel", "heel_spacing", "toe_flexure", "toe_shear",
+    "toe_min_steel", "toe_spacing", "toe_depth",
+)
+OPTIONAL_CHECK_NAMES = ("stem_horizontal_steel", "stem_horizontal_spacing",
+                        "footing_longitudinal_steel", "footing_longitudinal_spacing")
+
+__all__ = ["CHECK_NAMES", "LOAD_FACTORS", "OPTIONAL_CHECK_NAMES", "CheckRow", "SectionChecks",
+           "check_section", "DesignInputs", "Reinforcement", "SectionGeometry"]

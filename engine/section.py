@@ -1,0 +1,354 @@
+"""One cantilever cross-section as arrays: geometry, design inputs, bars, and its weights.
+
+Every array field holds one element per section (any broadcastable shape; a scalar is one
+section). Coordinates: ``x`` from the toe edge (x = 0) toward the heel edge (x = B), ``y`` up
+from the bottom of the footing. Results are per foot of wall.
+
+Words (DESIGN.md section 3): retained height h = retained grade - front grade; embedment
+D = front grade - bottom of footing; design height H = h + D; the stem runs from the top of
+the footing to the top of wall = retained grade + freeboard.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Mapping
+from dataclasses import dataclass, fields
+from typing import Any
+
+import numpy as np
+
+from .bars import bar_area_in2, bar_diameter_in
+
+GEOMETRY_FIELDS = (
+    "retained_height_ft", "embedment_ft", "footing_thickness_in", "stem_top_in", "stem_base_in",
+    "toe_ft", "heel_ft", "key_width_in", "key_depth_in", "key_offset_ft", "freeboard_ft",
+)
+
+
+def _arr(v) -> np.ndarray:
+    return np.asarray(v, dtype=float)
+
+
+@dataclass(frozen=True)
+class SectionGeometry:
+    """Geometry of cantilever sections, float arrays (one element per section).
+
+    Args:
+        retained_height_ft: retained grade - front grade, ft.
+        embedment_ft: front grade - bottom of footing, ft.
+        footing_thickness_in: footing thickness T, in.
+        stem_top_in, stem_base_in: stem thickness at the top of wall and at the top of footing.
+        toe_ft: stem front face (at its base) to the toe edge, ft.
+        heel_ft: stem back face (at its base) to the heel edge, ft.
+        key_width_in, key_depth_in: shear key below the footing (0 = no key), in.
+        key_offset_ft: toe edge to the key's front face, ft; ``None`` puts the key's front face
+            below the stem's front face (``toe_ft``; common practice).
+        freeboard_ft: top of wall above the retained grade, ft (DESIGN.md default 0.5).
+    """
+
+    retained_height_ft: Any
+    embedment_ft: Any
+    footing_thickness_in: Any
+    stem_top_in: Any
+    stem_base_in: Any
+    toe_ft: Any
+    heel_ft: Any
+    key_width_in: Any = 0.0
+    key_depth_in: Any = 0.0
+    key_offset_ft: Any = None
+    freeboard_ft: Any = 0.5
+
+    def __post_init__(self):
+        for f in fields(self):
+            v = getattr(self, f.name)
+            if f.name == "key_offset_ft" and v is None:
+                v = self.toe_ft
+            object.__setattr__(self, f.name, _arr(v))
+
+    # ---- derived dimensions (ft unless named otherwise) -------------------------------
+    @property
+    def shape(self) -> tuple[int, ...]:
+        return np.broadcast_shapes(*(getattr(self, n).shape for n in GEOMETRY_FIELDS))
+
+    @property
+    def design_height_ft(self) -> np.ndarray:
+        """H = retained height + embedment (retained grade to bottom of footing)."""
+        return self.retained_height_ft + self.embedment_ft
+
+    @property
+    def footing_thickness_ft(self) -> np.ndarray:
+        return self.footing_thickness_in / 12.0
+
+    @property
+    def footing_width_ft(self) -> np.ndarray:
+        """B = toe + stem base + heel."""
+        return self.toe_ft + self.stem_base_in / 12.0 + self.heel_ft
+
+    @property
+    def stem_height_ft(self) -> np.ndarray:
+        """Top of footing to top of wall (= retained grade + freeboard)."""
+        return self.design_height_ft + self.freeboard_ft - self.footing_thickness_ft
+
+    @property
+    def soil_height_ft(self) -> np.ndarray:
+        """Retained grade above the top of footing (h_s of the stem design), >= 0."""
+        return np.maximum(self.design_height_ft - self.footing_thickness_ft, 0.0)
+
+    @property
+    def toe_soil_depth_ft(self) -> np.ndarray:
+        """Front grade above the top of footing, >= 0 (soil over the toe)."""
+        return np.maximum(self.embedment_ft - self.footing_thickness_ft, 0.0)
+
+    @property
+    def has_key(self) -> np.ndarray:
+        return (self.key_width_in > 0) & (self.key_depth_in > 0)
+
+    @property
+    def valid(self) -> np.ndarray:
+        """Where the numbers describe a buildable section (else checks fail, never pass)."""
+        B = self.footing_width_ft
+        ok = ((self.retained_height_ft > 0) & (self.embedment_ft >= 0)
+              & (self.footing_thickness_in > 0) & (self.stem_top_in > 0)
+              & (self.stem_base_in >= self.stem_top_in) & (self.toe_ft >= 0)
+              & (self.heel_ft >= 0) & (self.freeboard_ft >= 0)
+              & (self.key_width_in >= 0) & (self.key_depth_in >= 0)
+              & (self.design_height_ft > self.footing_thickness_ft))
+        key_in = (~self.has_key) | ((self.key_offset_ft >= 0)
+                                    & (self.key_offset_ft + self.key_width_in / 12.0 <= B + 1e-9))
+        return ok & key_in
+
+    def stem_thickness_in(self, y_ft) -> np.ndarray:
+        """Stem thickness at ``y_ft`` above the top of footing (linear taper)."""
+        frac = np.clip(_arr(y_ft) / self.stem_height_ft, 0.0, 1.0)
+        return self.stem_base_in - (self.stem_base_in - self.stem_top_in) * frac
+
+    def broadcast(self) -> SectionGeometry:
+        """The same geometry with every field broadcast to :attr:`shape` (copies)."""
+        shp = self.shape
+        return SectionGeometry(**{n: np.broadcast_to(getattr(self, n), shp).copy()
+                                  for n in GEOMETRY_FIELDS})
+
+    def to_frame(self):
+        """One row per section (flattened in C order): the fields plus B, H, stem height."""
+        import pandas as pd
+
+        g = self.broadcast()
+        cols = {n: getattr(g, n).reshape(-1) for n in GEOMETRY_FIELDS}
+        cols["footing_width_ft"] = g.footing_width_ft.reshape(-1)
+        cols["design_height_ft"] = g.design_height_ft.reshape(-1)
+        cols["stem_height_ft"] = g.stem_height_ft.reshape(-1)
+        return pd.DataFrame(cols)
+
+    @classmethod
+    def from_mapping(cls, data: Mapping[str, Any]) -> SectionGeometry:
+        """From a ``[geometry]`` table (extra keys ignored)."""
+        return cls(**{n: data[n] for n in GEOMETRY_FIELDS if n in data})
+
+
+# ------------------------------------------------------------------------------------------
+@dataclass(frozen=True)
+class DesignInputs:
+    """Soil, loads, materials and criteria shared by every section of one call (plain values).
+
+    Field names and defaults are the keys of ``wallsched/keys.py`` (the site and section files):
+    a test holds the two together. Soil values have no defaults (never silently assumed).
+    Build from validated tables with :meth:`from_tables`.
+    """
+
+    # [soil]
+    unit_weight_pcf: float
+    friction_coefficient: float
+    allowable_bearing_psf: float
+    active_efp_pcf: float | None = None
+    friction_angle_deg: float | None = None
+    passive_efp_pcf: float | None = None
+    passive_from_friction_angle: bool = False
+    # [loads]
+    surcharge_psf: float = 0.0
+    # [materials]
+    fc_psi: float = 4000.0
+    fy_psi: float = 60000.0
+    concrete_unit_weight_pcf: float = 150.0  # common practice
+    # [criteria]: stability conventions (DESIGN.md section 7)
+    fs_overturning: float = 1.5  # IBC 2021 1807.2.3
+    fs_sliding: float = 1.5  # IBC 2021 1807.2.3
+    count_toe_soil: bool = True
+    use_passive: bool = True
+    passive_neglect_ft: float = 1.0  # common practice
+    surcharge_resists: bool = False
+    batter_face: str = "back"
+    min_embedment_ft: float = 1.0  # IBC 2021 1809.4 (12 in)
+    frost_depth_ft: float | None = None
+    # [criteria]: strength options (ACI 318-19)
+    cover_stem_in: float | None = None  # None: Table 20.5.1.3.1 by bar size (2 / 1.5 in)
+    cover_heel_in: float | None = None  # None: Table 20.5.1.3.1 by bar size (2 / 1.5 in)
+    cover_toe_in: float = 3.0  # Table 20.5.1.3.1: cast against earth
+    footing_shear_size_effect: bool = False  # 13.2.6.2 permits neglecting lambda_s
+    crack_control: bool = True  # 24.3.2 on the stem
+    hook_psi_o: float = 1.0  # Table 25.4.3.2 location factor (see development.py)
+
+    def __post_init__(self):
+        has_efp = self.active_efp_pcf is not None
+        has_phi = self.friction_angle_deg is not None
+        if has_efp == has_phi:
+            raise ValueError("give exactly one of active_efp_pcf and friction_angle_deg")
+        if self.passive_from_friction_angle and not has_phi:
+            raise ValueError("passive_from_friction_angle needs friction_angle_deg")
+        if self.use_passive and not self.passive_from_friction_angle and (
+                self.passive_efp_pcf is None):
+            raise ValueError("use_passive needs passive_efp_pcf or passive_from_friction_angle")
+        if self.batter_face not in ("back", "front"):
+            raise ValueError(f"batter_face must be 'back' or 'front', got {self.batter_face!r}")
+        for name in ("unit_weight_pcf", "friction_coefficient", "allowable_bearing_psf",
+                     "fc_psi", "fy_psi", "concrete_unit_weight_pcf"):
+            v = getattr(self, name)
+            if not (isinstance(v, int | float) and np.isfinite(v) and v > 0):
+                raise ValueError(f"{name} must be a positive number, got {v!r}")
+
+    @classmethod
+    def from_tables(cls, soil: Mapping, loads: Mapping, materials: Mapping,
+                    criteria: Mapping) -> DesignInputs:
+        """From the validated ``[soil]``, ``[loads]``, ``[materials]``, ``[criteria]`` dicts.
+
+        Keys this class does not know (e.g. ``station_interval_ft``) are ignored; a missing
+        non-soil key takes the class default (the same as ``wallsched/keys.py``).
+        """
+        names = {f.name for f in fields(cls)}
+        kw = {}
+        for table in (soil, loads, materials, criteria):
+            for k, v in table.items():
+                if k in names and v is not None:
+                    kw[k] = v
+        return cls(**kw)
+
+
+# ------------------------------------------------------------------------------------------
+@dataclass(frozen=True)
+class BarArrays:
+    """One layer of bars per section: ASTM A615 ``size`` (int) at ``spacing_in`` centres."""
+
+    size: Any
+    spacing_in: Any
+
+    def __post_init__(self):
+        object.__setattr__(self, "size", np.asarray(self.size, dtype=int))
+        object.__setattr__(self, "spacing_in", _arr(self.spacing_in))
+
+    @property
+    def diameter_in(self) -> np.ndarray:
+        return bar_diameter_in(self.size)
+
+    @property
+    def area_in2_per_ft(self) -> np.ndarray:
+        """Steel area per foot of wall, in^2/ft."""
+        return bar_area_in2(self.size) * 12.0 / self.spacing_in
+
+    @classmethod
+    def parse(cls, text: str) -> BarArrays:
+        """From the trade's ``#6@12`` notation."""
+        from .bars import parse_bars
+
+        b = parse_bars(text)
+        return cls(b.size, b.spacing_in)
+
+
+@dataclass(frozen=True)
+class Reinforcement:
+    """The bars of a section: stem (back face, vertical), heel (top), toe (bottom).
+
+    ``horizontal`` (stem horizontal bars, ``horizontal_layers`` faces) and ``longitudinal``
+    (footing longitudinal bars, ``longitudinal_layers`` layers) are optional; when ``None``
+    their checks are not made (the required areas are reported by the functions in
+    ``strength.py``).
+    """
+
+    stem: BarArrays
+    heel: BarArrays
+    toe: BarArrays
+    horizontal: BarArrays | None = None
+    horizontal_layers: int = 2
+    longitudinal: BarArrays | None = None
+    longitudinal_layers: int = 2
+
+
+# ------------------------------------------------------------------------------------------
+@dataclass(frozen=True)
+class Weight:
+    """A vertical force per foot of wall and its arm from the toe edge."""
+
+    lb: np.ndarray
+    arm_ft: np.ndarray
+
+    @property
+    def moment_lbft(self) -> np.ndarray:
+        return self.lb * self.arm_ft
+
+
+@dataclass(frozen=True)
+class Weights:
+    """The vertical loads of a section (service, per foot), each with its arm from the toe."""
+
+    stem_rectangle: Weight
+    stem_batter: Weight
+    footing: Weight
+    key: Weight
+    soil_heel: Weight
+    soil_batter: Weight
+    soil_toe: Weight  # zero when count_toe_soil is false
+    surcharge: Weight  # live: resists only with surcharge_resists
+
+    DEAD = ("stem_rectangle", "stem_batter", "footing", "key", "soil_heel", "soil_batter",
+            "soil_toe")
+
+    def dead(self) -> tuple[np.ndarray, np.ndarray]:
+        """Sum of the permanent weights and of their moments about the toe."""
+        v = sum(getattr(self, n).lb for n in self.DEAD)
+        m = sum(getattr(self, n).moment_lbft for n in self.DEAD)
+        return v, m
+
+
+def section_weights(geom: SectionGeometry, inputs: DesignInputs) -> Weights:
+    """Weights and arms of stem, footing, key, soil over heel / battered face / toe, surcharge.
+
+    The stem is a rectangle of the top thickness plus a triangle of the batter, on the back
+    face (``batter_face = "back"``) or the front face. The soil over a battered back face is the
+    triangle between that face and the vertical through the stem's back face at its base, up to
+    the retained grade. The surcharge weight acts over the heel: from the stem's back face at
+    its base to the heel edge (q * heel_ft, the span ``heel_ft`` is measured over; DESIGN.md
+    section 7). Soil over the toe spans the toe only, from the top of footing to the front grade
+    (0 if the front grade is lower).
+    """
+    g, gc, gs = geom, inputs.concrete_unit_weight_pcf, inputs.unit_weight_pcf
+    T = g.footing_thickness_ft
+    B = g.footing_width_ft
+    tt, tb = g.stem_top_in / 12.0, g.stem_base_in / 12.0
+    bat = tb - tt
+    hst = g.stem_height_ft
+    hs = g.soil_height_ft
+    toe = g.toe_ft
+    x_back = toe + tb  # stem back face at its base
+    rect_w = gc * tt * hst
+    tri_w = gc * 0.5 * bat * hst
+    if inputs.batter_face == "back":
+        rect_x = toe + tt / 2.0
+        tri_x = toe + tt + bat / 3.0
+        # width of the soil wedge at the retained grade (the face slopes to x_back at the base)
+        with np.errstate(divide="ignore", invalid="ignore"):
+            w_top = bat * hs / hst
+    else:
+        rect_x = toe + bat + tt / 2.0
+        tri_x = toe + 2.0 * bat / 3.0
+        w_top = np.zeros_like(bat)
+    soil_toe_w = gs * toe * g.toe_soil_depth_ft * (1.0 if inputs.count_toe_soil else 0.0)
+    q = inputs.surcharge_psf
+    return Weights(
+        stem_rectangle=Weight(rect_w, rect_x),
+        stem_batter=Weight(tri_w, tri_x),
+        footing=Weight(gc * B * T, B / 2.0),
+        key=Weight(np.where(g.has_key, gc * g.key_width_in * g.key_depth_in / 144.0, 0.0),
+                   g.key_offset_ft + g.key_width_in / 24.0),
+        soil_heel=Weight(gs * g.heel_ft * hs, B - g.heel_ft / 2.0),
+        soil_batter=Weight(gs * 0.5 * w_top * hs, x_back - w_top / 3.0),
+        soil_toe=Weight(soil_toe_w, toe / 2.0),
+        surcharge=Weight(q * g.heel_ft, B - g.heel_ft / 2.0),
+    )

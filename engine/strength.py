@@ -1,0 +1,414 @@
+"""ACI 318-19 strength of the stem, heel and toe (per foot of wall, b = 12 in), vectorized.
+
+Load factors (ASCE 7 section 2.3 as adopted by IBC 2021 section 1605; DESIGN.md section 7):
+
+- stem: 1.6 on the lateral earth pressure and on the lateral pressure of the live surcharge;
+- heel: 1.2 on the soil and concrete weight over it, 1.6 on the live surcharge; the upward soil
+  pressure under the heel is neglected (conservative; McCormac & Brown 9th ed. section 13.10);
+- toe: 1.6 on the service bearing pressure of the governing bearing case (the one reported
+  with q_max; McCormac & Brown 13.10 factor the soil pressure by 1.6), less 0.9 times the
+  footing and soil weight over the toe (dead load that resists).
+
+Critical sections: stem moment at the top of footing and shear at d above it (7.4.3.2); heel
+at the back face of the stem; toe at the front face (moment and shear, conservative); a
+tapered stem is also checked up its height (13.3.6.3, from memory).
+
+Flexure: Whitney block, 0.85 f'c over a = beta1 c (22.2.2), strain compatibility with
+eps_cu = 0.003 (the steel stress is Es*eps_s where the bars do not yield), phi from the net
+tensile strain (Table 21.2.2). Shear: Table 22.5.5.1 row (c) (no shear reinforcement,
+A_v < A_v,min), lambda_s by Eq. 22.5.5.1.3 on the stem (a one-way slab, 13.3.6.1 / Ch. 7);
+for the footing 13.2.6.2 permits neglecting lambda_s for one-way shallow foundations, and the
+default does (``footing_shear_size_effect = false``); row (c) with rho_w^(1/3) still governs
+there because a footing has no stirrups.
+
+Functions here take geometry and bars and need no stability result except the toe, which takes
+the bearing cases from :func:`~.stability.stability` (computed if not given).
+
+How sure the clause texts are (REFERENCES.md section 3): Tables 21.2.2, 22.2.2.4.3, 22.5.5.1,
+Eq. 22.5.5.1.3, 7.6.1.1 (0.0018 Ag), 13.2.6.2, 24.4.3 and Table 11.6.1 are from secondary
+sources [S] (StructurePoint, ideCAD, the mento implementation); Table 20.5.1.3.1 is [C];
+13.3.6.1/13.3.6.3, 24.3.2 and the 318-19 numbering of 7.7.2.3 are from memory [M].
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, fields
+
+import numpy as np
+
+from .development import hook_psi_r, hooked_development_in
+from .pressure import EarthPressure, cantilever_shear_moment, earth_pressure
+from .section import BarArrays, DesignInputs, SectionGeometry
+
+ES_PSI = 29_000_000.0  # 20.2.2.2
+EPS_CU = 0.003  # 22.2.2.1
+PHI_SHEAR = 0.75  # Table 21.2.1
+B_IN = 12.0  # one foot of wall
+LF_LATERAL = 1.6  # ASCE 7 2.3: H (lateral earth pressure) and L (live surcharge)
+LF_DEAD_ADDS = 1.2
+LF_DEAD_RESISTS = 0.9
+STEM_HEIGHT_FRACTIONS = (0.25, 0.5, 0.75)  # sections up a stem, fractions of h_s
+
+
+def _a(x):
+    return np.asarray(x, dtype=float)
+
+
+# ---------------------------------------------------------------- section-level helpers --
+def beta1(fc_psi):
+    """Stress-block depth factor (Table 22.2.2.4.3): 0.85 to 4000 psi, -0.05 per 1000 psi,
+    0.65 from 8000 psi."""
+    fc = _a(fc_psi)
+    return np.clip(0.85 - 0.05 * (fc - 4000.0) / 1000.0, 0.65, 0.85)
+
+
+def phi_flexure(eps_t, fy_psi):
+    """Strength reduction factor from the net tensile strain (Table 21.2.2, 318-19): 0.65 at
+    eps_t <= eps_ty, 0.90 at eps_t >= eps_ty + 0.003, linear between (other than spirals)."""
+    eps_ty = _a(fy_psi) / ES_PSI
+    return np.clip(0.65 + 0.25 * (_a(eps_t) - eps_ty) / 0.003, 0.65, 0.90)
+
+
+@dataclass(frozen=True)
+class Flexure:
+    """Flexural strength of a singly reinforced rectangle."""
+
+    phi_mn_lbft: np.ndarray
+    mn_lbft: np.ndarray
+    phi: np.ndarray
+    eps_t: np.ndarray
+    c_in: np.ndarray
+    a_in: np.ndarray
+
+
+def flexural_strength(as_in2, d_in, fc_psi, fy_psi, b_in=B_IN) -> Flexure:
+    """phi*Mn of a singly reinforced rectangle, lb-ft (ACI 318-19 22.2, Table 21.2.2).
+
+    Equilibrium 0.85 f'c b beta1 c = As fs with fs = min(fy, Es eps_s): first with the steel
+    yielding; where eps_s < eps_ty the quadratic 0.85 f'c b beta1 c^2 + As Es eps_cu c
+    - As Es eps_cu d = 0 gives c (steel elastic).
+    """
+    As, d, fc, fy = _a(as_in2), _a(d_in), _a(fc_psi), _a(fy_psi)
+    b1 = beta1(fc)
+    k = 0.85 * fc * b_in * b1
+    with np.errstate(divide="ignore", invalid="ignore"):
+        c = As * fy / k
+        eps = EPS_CU * (d - c) / c
+        elastic = eps < fy / ES_PSI
+        m = As * ES_PSI * EPS_CU
+        c_el = (-m + np.sqrt(m * m + 4.0 * k * m * d)) / (2.0 * k)
+        c = np.where(elastic, c_el, c)
+        eps = EPS_CU * (d - c) / c
+    a = b1 * c
+    mn = 0.85 * fc * b_in * a * (d - a / 2.0) / 12.0
+    phi = phi_flexure(eps, fy)
+    return Flexure(phi * mn, mn, phi, eps, c, a)
+
+
+def size_effect_factor(d_in):
+    """lambda_s = sqrt(2 / (1 + d/10)) <= 1.0, d in inches (Eq. 22.5.5.1.3)."""
+    return np.minimum(np.sqrt(2.0 / (1.0 + _a(d_in) / 10.0)), 1.0)
+
+
+def one_way_shear_strength(as_in2, d_in, fc_psi, b_in=B_IN, *, size_effect=True, lam=1.0):
+    """phi*Vc, lb, of a member without shear reinforcement (Table 22.5.5.1 row (c), Nu = 0):
+    Vc = 8 lambda_s lam rho_w^(1/3) sqrt(f'c) b d <= 5 lam sqrt(f'c) b d (22.5.5.1.1), with
+    sqrt(f'c) <= 100 psi (22.5.3.1) and phi = 0.75 (Table 21.2.1).
+
+    Args:
+        as_in2: flexural tension steel in the width b, in^2; d_in: effective depth, in.
+        size_effect: apply lambda_s (False where 13.2.6.2 permits neglecting it).
+    """
+    As, d = _a(as_in2), _a(d_in)
+    sq = np.minimum(np.sqrt(_a(fc_psi)), 100.0)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        rho = As / (b_in * d)
+    ls = size_effect_factor(d) if size_effect else 1.0
+    vc = 8.0 * ls * lam * np.cbrt(rho) * sq * b_in * d
+    vc = np.minimum(vc, 5.0 * lam * sq * b_in * d)
+    return PHI_SHEAR * vc
+
+
+def required_steel_in2(mu_lbft, d_in, fc_psi, fy_psi, b_in=B_IN, phi=0.9):
+    """Steel area for ``mu_lbft`` with the Whitney block, assuming yield and ``phi`` (sizing
+    aid; NaN where the section cannot carry it). Check the result with flexural_strength."""
+    mu = _a(mu_lbft) * 12.0 / phi
+    fc, fy, d = _a(fc_psi), _a(fy_psi), _a(d_in)
+    k = 0.85 * fc * b_in
+    with np.errstate(invalid="ignore"):
+        a = d - np.sqrt(d * d - 2.0 * mu / k)
+    return k * a / fy
+
+
+def cover_in(size, override=None):
+    """Clear cover to bars formed and exposed to earth or weather (Table 20.5.1.3.1): 2 in for
+    No. 6 - 18, 1.5 in for No. 5 and smaller; ``override`` (a criteria option) replaces it."""
+    if override is not None:
+        return np.full(np.shape(size), float(override))
+    return np.where(np.asarray(size) >= 6, 2.0, 1.5)
+
+
+def min_flexural_steel_in2(thickness_in, b_in=B_IN):
+    """As,min = 0.0018 Ag of a one-way slab (7.6.1.1, 318-19 [S]); also used for the footing
+    (13.3.2.1 routes one-way shallow foundations to Ch. 7)."""
+    return 0.0018 * b_in * _a(thickness_in)
+
+
+def max_flexural_spacing_in(thickness_in):
+    """Maximum spacing of flexural bars in a slab: the lesser of 3h and 18 in (7.7.2.3)."""
+    return np.minimum(3.0 * _a(thickness_in), 18.0)
+
+
+def service_steel_stress_psi(ms_lbft, as_in2, d_in, fc_psi, b_in=B_IN):
+    """Bar stress under the service moment, cracked elastic section, psi (for 24.3.2).
+
+    n = Es/Ec with Ec = 57,000 sqrt(f'c) (19.2.2.1(b), normal-weight concrete);
+    k = sqrt(2 rho n + (rho n)^2) - rho n; fs = Ms / (As (d - kd/3)).
+    """
+    As, d = _a(as_in2), _a(d_in)
+    n = ES_PSI / (57000.0 * np.sqrt(_a(fc_psi)))
+    with np.errstate(divide="ignore", invalid="ignore"):
+        rn = As / (b_in * d) * n
+        k = np.sqrt(2.0 * rn + rn * rn) - rn
+        return _a(ms_lbft) * 12.0 / (As * d * (1.0 - k / 3.0))
+
+
+def crack_control_spacing_in(fs_psi, clear_cover_in):
+    """Maximum bar spacing for crack control (24.3.2, Table 24.3.2; from memory):
+    s = 15 (40,000/fs) - 2.5 cc <= 12 (40,000/fs), >= 0; infinite where fs = 0."""
+    fs = _a(fs_psi)
+    with np.errstate(divide="ignore"):
+        r = 40000.0 / fs
+    return np.maximum(np.minimum(15.0 * r - 2.5 * _a(clear_cover_in), 12.0 * r), 0.0)
+
+
+def wall_horizontal_min_in2(thickness_in, size, fy_psi, b_in=B_IN):
+    """Minimum horizontal (transverse) wall steel per foot of height, Table 11.6.1 (via
+    11.1.6 for cantilever retaining walls; [S]): rho_t = 0.0020 for No. 5 and smaller with
+    fy >= 60 ksi, else 0.0025, of b times the thickness given (use the average thickness)."""
+    rho = np.where((np.asarray(size) <= 5) & (_a(fy_psi) >= 60000.0), 0.0020, 0.0025)
+    return rho * b_in * _a(thickness_in)
+
+
+def shrinkage_steel_in2(thickness_in, b_in=B_IN):
+    """Shrinkage and temperature steel, 0.0018 Ag (24.4.3.2, 318-19 [S])."""
+    return 0.0018 * b_in * _a(thickness_in)
+
+
+def shrinkage_spacing_in(thickness_in):
+    """Maximum spacing of shrinkage and temperature bars: lesser of 5h and 18 in (24.4.3.3)."""
+    return np.minimum(5.0 * _a(thickness_in), 18.0)
+
+
+# ------------------------------------------------------------------------ member results --
+@dataclass(frozen=True)
+class MemberResult:
+    """Strength of one member (stem, heel or toe) at its critical section, per foot.
+
+    Moments lb-ft, shears lb, lengths in, areas in^2 per foot of wall.
+    """
+
+    mu_lbft: np.ndarray
+    phi_mn_lbft: np.ndarray
+    vu_lb: np.ndarray
+    phi_vn_lb: np.ndarray
+    d_in: np.ndarray
+    thickness_in: np.ndarray
+    as_in2: np.ndarray
+    as_min_in2: np.ndarray
+    spacing_in: np.ndarray
+    s_max_in: np.ndarray
+    cover_in: np.ndarray
+    phi: np.ndarray
+    eps_t: np.ndarray
+
+    def to_frame(self):
+        """One row per section, the fields as columns."""
+        import pandas as pd
+
+        arrs = {f.name: getattr(self, f.name) for f in fields(self)}
+        shape = np.broadcast_shapes(*(np.shape(v) for v in arrs.values()))
+        return pd.DataFrame({k: np.broadcast_to(v, shape).reshape(-1)
+                             for k, v in arrs.items()})
+
+
+@dataclass(frozen=True)
+class StemResult(MemberResult):
+    """Stem at the top of footing plus its service, hook and up-the-height values.
+
+    ``height_*``: the section up the stem with the largest flexure (or shear) ratio, at
+    ``height_*_y_ft`` above the top of footing (13.3.6.3). ``s_crack_in`` is the 24.3.2
+    spacing limit (inf when crack control is off); ``ldh_available_in`` = T - bottom cover.
+    """
+
+    ms_lbft: np.ndarray
+    fs_service_psi: np.ndarray
+    s_crack_in: np.ndarray
+    ldh_in: np.ndarray
+    ldh_available_in: np.ndarray
+    height_mu_lbft: np.ndarray
+    height_phi_mn_lbft: np.ndarray
+    height_flexure_y_ft: np.ndarray
+    height_vu_lb: np.ndarray
+    height_phi_vn_lb: np.ndarray
+    height_shear_y_ft: np.ndarray
+
+
+def stem_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays, *,
+                  pressure: EarthPressure | None = None,
+                  fractions=STEM_HEIGHT_FRACTIONS) -> StemResult:
+    """Stem flexure, shear, minimum steel, spacing, crack control and hook development.
+
+    Mu = 1.6 (EFP h_s^3/6 + Ka q h_s^2/2) with h_s = retained grade - top of footing; Vu at d
+    above the footing (7.4.3.2); d = stem base - cover - db/2 (bars at the back face);
+    lambda_s applies (one-way slab). The stem bars are hooked into the footing: l_dh
+    (25.4.3.1; psi_r from the bar spacing, psi_o from the criteria) must fit in T - bottom
+    cover. ``fractions`` of h_s give the sections checked up the stem (bars run full height).
+    """
+    p = pressure or earth_pressure(inputs)
+    lat = p.surcharge_lateral_psf
+    fc, fy = inputs.fc_psi, inputs.fy_psi
+    hs = geom.soil_height_ft
+    tb = geom.stem_base_in
+    cov = cover_in(bars.size, inputs.cover_stem_in)
+    db = bars.diameter_in
+    d = tb - cov - db / 2.0
+    As = bars.area_in2_per_ft
+    _, ms = cantilever_shear_moment(p.active_efp_pcf, lat, hs)
+    vs_d, _ = cantilever_shear_moment(p.active_efp_pcf, lat, hs - d / 12.0)
+    fl = flexural_strength(As, d, fc, fy)
+    pvn = one_way_shear_strength(As, d, fc, size_effect=True)
+    s_max = max_flexural_spacing_in(tb)
+    if inputs.crack_control:
+        fs = service_steel_stress_psi(ms, As, d, fc)
+        s_cr = crack_control_spacing_in(fs, cov)
+    else:
+        fs = np.full(np.shape(ms), np.nan)
+        s_cr = np.full(np.shape(ms), np.inf)
+    ldh = hooked_development_in(bars.size, fc, fy, psi_e=1.0,
+                                psi_r=hook_psi_r(bars.size, bars.spacing_in),
+                                psi_o=inputs.hook_psi_o)
+    # sections up the stem: y above the top of footing, z below the retained grade
+    nd = len(np.broadcast_shapes(np.shape(hs), np.shape(d), np.shape(As), geom.shape))
+    fr = np.asarray(fractions, dtype=float).reshape((-1,) + (1,) * nd)
+    y = fr * hs
+    d_y = geom.stem_thickness_in(y) - cov - db / 2.0
+    v_y, m_y = cantilever_shear_moment(p.active_efp_pcf, lat, hs - y)
+    mu_y, vu_y = LF_LATERAL * m_y, LF_LATERAL * v_y
+    pmn_y = flexural_strength(As, d_y, fc, fy).phi_mn_lbft
+    pvn_y = one_way_shear_strength(As, d_y, fc, size_effect=True)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        r_f, r_v = mu_y / pmn_y, vu_y / pvn_y
+    i_f = np.argmax(r_f, axis=0)[None]
+    i_v = np.argmax(r_v, axis=0)[None]
+
+    def pick(arr, idx):
+        arr = np.broadcast_to(arr, (arr.shape[0],) + idx.shape[1:])
+        return np.take_along_axis(arr, idx, axis=0)[0]
+
+    return StemResult(
+        mu_lbft=LF_LATERAL * ms, phi_mn_lbft=fl.phi_mn_lbft, vu_lb=LF_LATERAL * vs_d,
+        phi_vn_lb=pvn, d_in=d, thickness_in=tb, as_in2=As,
+        as_min_in2=min_flexural_steel_in2(tb), spacing_in=bars.spacing_in,
+        s_max_in=np.minimum(s_max, s_cr), cover_in=cov, phi=fl.phi, eps_t=fl.eps_t,
+        ms_lbft=ms, fs_service_psi=fs, s_crack_in=s_cr, ldh_in=ldh,
+        ldh_available_in=geom.footing_thickness_in - inputs.cover_toe_in,
+        height_mu_lbft=pick(mu_y, i_f), height_phi_mn_lbft=pick(pmn_y, i_f),
+        height_flexure_y_ft=pick(y, i_f), height_vu_lb=pick(vu_y, i_v),
+        height_phi_vn_lb=pick(pvn_y, i_v), height_shear_y_ft=pick(y, i_v),
+    )
+
+
+def heel_loads_psf(geom: SectionGeometry, inputs: DesignInputs):
+    """Factored downward load on the heel, psf: 1.2 (soil + footing) + 1.6 surcharge."""
+    dead = inputs.unit_weight_pcf * geom.soil_height_ft \
+        + inputs.concrete_unit_weight_pcf * geom.footing_thickness_ft
+    return LF_DEAD_ADDS * dead + LF_LATERAL * inputs.surcharge_psf
+
+
+def _footing_member(geom, inputs, bars, mu, vu, cov):
+    fc, fy = inputs.fc_psi, inputs.fy_psi
+    T = geom.footing_thickness_in
+    d = T - cov - bars.diameter_in / 2.0
+    As = bars.area_in2_per_ft
+    fl = flexural_strength(As, d, fc, fy)
+    pvn = one_way_shear_strength(As, d, fc, size_effect=inputs.footing_shear_size_effect)
+    return MemberResult(
+        mu_lbft=mu, phi_mn_lbft=fl.phi_mn_lbft, vu_lb=vu, phi_vn_lb=pvn, d_in=d,
+        thickness_in=T, as_in2=As, as_min_in2=min_flexural_steel_in2(T),
+        spacing_in=bars.spacing_in, s_max_in=max_flexural_spacing_in(T), cover_in=cov,
+        phi=fl.phi, eps_t=fl.eps_t)
+
+
+def heel_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays) -> MemberResult:
+    """Heel as a cantilever from the stem's back face, top bars in tension.
+
+    wu = 1.2 (gamma h_s + gamma_c T) + 1.6 q; Mu = wu L^2/2 and Vu = wu L at the face (upward
+    soil pressure neglected); cover per Table 20.5.1.3.1 (top face: 2 / 1.5 in) unless
+    ``cover_heel_in`` is given.
+    """
+    L = geom.heel_ft
+    wu = heel_loads_psf(geom, inputs)
+    cov = cover_in(bars.size, inputs.cover_heel_in)
+    return _footing_member(geom, inputs, bars, wu * L * L / 2.0, wu * L, cov)
+
+
+def pressure_line(case, width_ft):
+    """Base pressure of a bearing case as q(x) = max(0, q0 + s x), x from the toe (psf, psf/ft).
+
+    Trapezoid inside the kern; triangle of length 3a at the toe (e > B/6) or at the heel
+    (e < -B/6); NaN outside the base.
+    """
+    B, V, e = _a(width_ft), case.sum_v_lb, case.eccentricity_ft
+    with np.errstate(divide="ignore", invalid="ignore"):
+        a = B / 2.0 - np.abs(e)
+        q_toe, q_heel = V / B * (1.0 + 6.0 * e / B), V / B * (1.0 - 6.0 * e / B)
+        qm = 2.0 * V / (3.0 * a)
+        inside = np.abs(e) <= B / 6.0
+        q0 = np.where(inside, q_toe, np.where(e > 0, qm, qm * (1.0 - B / (3.0 * a))))
+        s = np.where(inside, (q_heel - q_toe) / B, np.where(e > 0, -qm, qm) / (3.0 * a))
+    bad = ~case.in_base
+    return np.where(bad, np.nan, q0), np.where(bad, np.nan, s)
+
+
+def clipped_line_load(q0, s, length_ft):
+    """Force (lb) and moment about x = L (lb-ft) of q(x) = max(0, q0 + s x) over [0, L]."""
+    q0, s, L = _a(q0), _a(s), _a(length_ft)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        r = np.where(s != 0, -q0 / s, np.where(q0 > 0, -np.inf, np.inf))
+    u = np.where(s > 0, np.clip(r, 0.0, L), 0.0)
+    v = np.where(s > 0, L, np.where(s < 0, np.clip(r, 0.0, L), np.where(q0 > 0, L, 0.0)))
+    v = np.maximum(u, v)
+    d1, d2, d3 = v - u, (v * v - u * u) / 2.0, (v ** 3 - u ** 3) / 3.0
+    force = q0 * d1 + s * d2
+    moment = q0 * (L * d1 - d2) + s * (L * d2 - d3)
+    return force, moment
+
+
+def toe_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays,
+                 stab=None) -> MemberResult:
+    """Toe as a cantilever from the stem's front face, bottom bars in tension.
+
+    Mu, Vu at the face = 1.6 x (service bearing pressure over the toe) - 0.9 x (footing + soil
+    over the toe, the soil only with ``count_toe_soil``), the pressure being that of the
+    governing bearing case (the larger q_max, as reported by stability). Bottom cover 3 in
+    (cast against earth) unless ``cover_toe_in``. ``stab`` is a
+    :class:`~.stability.StabilityResult` (computed if omitted).
+    """
+    if stab is None:
+        from .stability import stability
+
+        stab = stability(geom, inputs)
+    L, B = geom.toe_ft, geom.footing_width_ft
+    # the pressure diagram of the governing bearing case (the one reported with q_max)
+    q0d, sd = pressure_line(stab.case_dead, B)
+    q0s, ss = pressure_line(stab.case_surcharge, B)
+    pick = stab.bearing_with_surcharge
+    f_up, m_up = clipped_line_load(np.where(pick, q0s, q0d), np.where(pick, ss, sd), L)
+    w = inputs.concrete_unit_weight_pcf * geom.footing_thickness_ft
+    if inputs.count_toe_soil:
+        w = w + inputs.unit_weight_pcf * geom.toe_soil_depth_ft
+    mu = LF_LATERAL * m_up - LF_DEAD_RESISTS * w * L * L / 2.0
+    vu = LF_LATERAL * f_up - LF_DEAD_RESISTS * w * L
+    cov = cover_in(bars.size, inputs.cover_toe_in)
+    return _footing_member(geom, inputs, bars, mu, vu, cov)
