@@ -73,11 +73,17 @@ class SegmentPlan:
 
 
 def _floor_to(x, step):
-    return np.floor(np.asarray(x) / step + 1e-9) * step
+    """Round down to a multiple of ``step``, never above ``x`` (so a limit stays met)."""
+    x = np.asarray(x, float)
+    out = np.round(np.floor(x / step + 1e-9) * step, 9)
+    return np.where(out > x, np.round(out - step, 9), out)
 
 
 def _ceil_to(x, step):
-    return np.ceil(np.asarray(x) / step - 1e-9) * step
+    """Round up to a multiple of ``step``, never below ``x``."""
+    x = np.asarray(x, float)
+    out = np.round(np.ceil(x / step - 1e-9) * step, 9)
+    return np.where(out < x, np.round(out + step, 9), out)
 
 
 def window_extremes(values: np.ndarray, kmax: int, fn) -> np.ndarray:

@@ -1,0 +1,573 @@
+"""Least-cost sizing: the cheapest section on the candidate grid that passes every check.
+
+The grid (``[sizing]``, common-practice increments): toe and heel in 3-in steps, footing
+thickness in 1-in steps from 12 in, stem at least 8 in in 1-in steps (optionally battered on
+the back face, top at the minimum), bars #4-#9 at 6 to 18 in for the stem, heel and toe. The
+stem horizontal bars and the footing longitudinal bars follow from the geometry (the least
+area and widest spacing ACI 318-19 allows, in #4 or #5).
+
+Design heights are taken in increments of ``design_height_increment_ft`` (rounded up; walls
+are tabulated by height in common practice), so one *design table* per wall holds the optimum
+for every height the wall needs: :func:`design_table`. For each height the search is exact
+over the whole grid:
+
+1. the checks decompose: stability depends on the geometry alone, the stem on the stem
+   thickness and footing thickness and its bars, the heel on heel length and footing thickness
+   and its bars, the toe on the geometry (through the bearing pressure) and its bars. So the
+   cheapest passing stem bars are found once per (stem, footing) pair and the cheapest heel
+   bars once per (heel, footing) pair; the toe bars per geometry;
+2. branch and bound: a geometry's cost with its cheapest stem and heel bars and the cheapest
+   toe bar option that could exist is a lower bound on any full candidate of that geometry;
+   geometries are evaluated cheapest bound first, in blocks, until no bound is below the best
+   full candidate found;
+3. heights are processed in increasing order, and a geometry that fails stability at one
+   height fails at every greater height (loads grow with height), so it is dropped for good.
+
+:func:`exhaustive_optimum` is the plain reference (every combination through
+:func:`~.checks.check_section`), which the tests hold the fast search to on small grids.
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Mapping
+from dataclasses import dataclass, replace
+
+import numpy as np
+
+from .bars import SIZES, bar_area_in2, bar_weight_plf
+from .checks import check_section
+from .model import SectionDims
+from .section import BarArrays, DesignInputs, Reinforcement, SectionGeometry
+from .stability import stability
+from .strength import (
+    heel_strength,
+    max_flexural_spacing_in,
+    shrinkage_spacing_in,
+    shrinkage_steel_in2,
+    stem_strength,
+    toe_strength,
+    wall_horizontal_min_in2,
+)
+
+CY_FT3 = 27.0
+BLOCK = 4096  # geometries evaluated at once in the branch and bound
+TOE_MIN_DEPTH_IN = 6.0  # ACI 318-19 13.3.1.2 (as in checks.py)
+
+
+def _steps(lo, hi, step):
+    n = int(math.floor((hi - lo) / step + 1e-9))
+    return lo + step * np.arange(n + 1)
+
+
+def parse_sizes(text: str) -> np.ndarray:
+    """``"4-9"`` or ``"4,5,6"`` -> bar sizes (ASTM A615 numbers). Raises ValueError."""
+    out: list[int] = []
+    for part in str(text).replace(" ", "").split(","):
+        if "-" in part:
+            a, b = part.split("-", 1)
+            out += [s for s in SIZES if int(a) <= s <= int(b)]
+        elif part:
+            out.append(int(part))
+    bad = [s for s in out if s not in SIZES]
+    if not out or bad:
+        raise ValueError(f"bar sizes {text!r}: use ASTM A615 numbers like \"4-9\"")
+    return np.array(sorted(set(out)))
+
+
+@dataclass(frozen=True)
+class CostRates:
+    """Unit costs (``[costs]``; illustrative defaults, not market prices)."""
+
+    concrete_usd_per_cy: float = 250.0
+    steel_usd_per_lb: float = 1.25
+    excavation_usd_per_cy: float = 30.0
+    formwork_usd_per_sf: float = 12.0
+    step_usd: float = 500.0
+
+    @classmethod
+    def from_table(cls, t: Mapping) -> CostRates:
+        return cls(**{k: float(t[k]) for k in cls.__dataclass_fields__ if k in t})
+
+
+@dataclass(frozen=True)
+class SizingGrid:
+    """The candidate dimensions and bars (``[sizing]``)."""
+
+    toe_ft: np.ndarray
+    heel_ft: np.ndarray
+    footing_thickness_in: np.ndarray
+    stem_base_in: np.ndarray
+    stem_top_min_in: float
+    stem_batter: bool
+    bar_sizes: np.ndarray
+    bar_spacings_in: np.ndarray
+
+    @classmethod
+    def from_table(cls, t: Mapping) -> SizingGrid:
+        st = float(t.get("toe_heel_step_in", 3.0)) / 12.0
+        smin = float(t.get("stem_min_in", 8.0))
+        return cls(
+            toe_ft=_steps(0.0, float(t.get("toe_max_ft", 8.0)), st),
+            heel_ft=_steps(st * 2, float(t.get("heel_max_ft", 14.0)), st),
+            footing_thickness_in=_steps(float(t.get("footing_thickness_min_in", 12.0)),
+                                        float(t.get("footing_thickness_max_in", 48.0)),
+                                        float(t.get("footing_thickness_step_in", 1.0))),
+            stem_base_in=_steps(smin, float(t.get("stem_max_in", 24.0)),
+                                float(t.get("stem_step_in", 1.0))),
+            stem_top_min_in=smin,
+            stem_batter=bool(t.get("stem_batter", False)),
+            bar_sizes=parse_sizes(t.get("bar_sizes", "4-9")),
+            bar_spacings_in=_steps(float(t.get("bar_spacing_min_in", 6.0)),
+                                   float(t.get("bar_spacing_max_in", 18.0)),
+                                   float(t.get("bar_spacing_step_in", 1.0))),
+        )
+
+    def geometries(self) -> dict[str, np.ndarray]:
+        """Every (toe, heel, footing, stem) combination, flattened, with pair codes."""
+        toe, heel, T, tb = np.meshgrid(self.toe_ft, self.heel_ft, self.footing_thickness_in,
+                                       self.stem_base_in, indexing="ij")
+        nT, nS = self.footing_thickness_in.size, self.stem_base_in.size
+        i_heel, i_T, i_S = np.meshgrid(np.arange(self.toe_ft.size), np.arange(self.heel_ft.size),
+                                       np.arange(nT), np.arange(nS), indexing="ij")[1:]
+        tt = np.full(tb.shape, self.stem_top_min_in) if self.stem_batter else tb
+        return {
+            "toe_ft": toe.ravel(), "heel_ft": heel.ravel(), "footing_thickness_in": T.ravel(),
+            "stem_base_in": tb.ravel(), "stem_top_in": tt.ravel(),
+            "stem_code": (i_T * nS + i_S).ravel(), "heel_code": (i_heel * nT + i_T).ravel(),
+        }
+
+    def bar_options(self) -> BarArrays:
+        size, sp = np.meshgrid(self.bar_sizes, self.bar_spacings_in, indexing="ij")
+        return BarArrays(size.ravel(), sp.ravel())
+
+
+# ------------------------------------------------------------------------------ costs --
+def minimum_bars(required_in2, layers, s_max_in, sizes=(4, 5, 6)):
+    """The lightest of #4/#5/#6 at a whole-inch spacing <= s_max giving ``required_in2`` per
+    foot over ``layers`` layers (for stem horizontal and footing longitudinal bars)."""
+    req = np.asarray(required_in2, float)
+    smax = np.floor(np.asarray(s_max_in, float) + 1e-9)
+    best_size = np.zeros(req.shape, int)
+    best_sp = np.zeros(req.shape)
+    best_w = np.full(req.shape, np.inf)
+    for s in sizes:
+        a = float(bar_area_in2(s))
+        sp = np.minimum(np.floor(layers * a * 12.0 / np.maximum(req, 1e-12) + 1e-9), smax)
+        w = layers * 12.0 / np.maximum(sp, 1.0) * float(bar_weight_plf(s))
+        better = (sp >= 3.0) & (w < best_w - 1e-12)
+        best_size = np.where(better, s, best_size)
+        best_sp = np.where(better, sp, best_sp)
+        best_w = np.where(better, w, best_w)
+    return best_size, best_sp
+
+
+def fixed_bars(geom: SectionGeometry, inputs: DesignInputs):
+    """Stem horizontal (2 faces) and footing longitudinal (2 mats) bars of each geometry."""
+    t_avg = (geom.stem_top_in + geom.stem_base_in) / 2.0
+    h_size, h_sp = minimum_bars(wall_horizontal_min_in2(t_avg, 4, inputs.fy_psi), 2,
+                                max_flexural_spacing_in(geom.stem_top_in), sizes=(4, 5))
+    # a #5 or larger needs the 0.0025 ratio of Table 11.6.1: recheck with the size found
+    h_req = wall_horizontal_min_in2(t_avg, h_size, inputs.fy_psi)
+    h_size, h_sp = minimum_bars(h_req, 2, max_flexural_spacing_in(geom.stem_top_in),
+                                sizes=(4, 5))
+    T = geom.footing_thickness_in
+    l_size, l_sp = minimum_bars(shrinkage_steel_in2(T), 2, shrinkage_spacing_in(T))
+    return BarArrays(h_size, h_sp), BarArrays(l_size, l_sp)
+
+
+def geometry_cost(geom: SectionGeometry, rates: CostRates):
+    """$ per ft of wall for concrete, formwork and excavation (no steel)."""
+    hst = geom.stem_height_ft
+    T = geom.footing_thickness_ft
+    B = geom.footing_width_ft
+    key = np.where(geom.has_key, geom.key_width_in * geom.key_depth_in / 144.0, 0.0)
+    concrete = ((geom.stem_top_in + geom.stem_base_in) / 24.0 * hst + B * T + key) / CY_FT3
+    formwork = 2.0 * hst + 2.0 * T
+    excavation = B * np.maximum(geom.embedment_ft, T) / CY_FT3
+    return (rates.concrete_usd_per_cy * concrete + rates.formwork_usd_per_sf * formwork
+            + rates.excavation_usd_per_cy * excavation)
+
+
+def stem_steel_lb(geom: SectionGeometry, bars: BarArrays, inputs: DesignInputs):
+    """Stem vertical bars per ft of wall: full stem height, into the footing to the bottom
+    mat, plus a 90-degree hook extension of 12 db (ACI 318-19 Table 25.3.1)."""
+    L = (geom.stem_height_ft + (geom.footing_thickness_in - inputs.cover_toe_in) / 12.0
+         + 12.0 * bars.diameter_in / 12.0)
+    return 12.0 / bars.spacing_in * bar_weight_plf(bars.size) * L
+
+
+def footing_bar_steel_lb(geom: SectionGeometry, bars: BarArrays):
+    """Heel top or toe bottom bars per ft of wall: the footing width less 3-in end covers."""
+    return 12.0 / bars.spacing_in * bar_weight_plf(bars.size) * (geom.footing_width_ft - 0.5)
+
+
+def fixed_steel_lb(geom: SectionGeometry, horiz: BarArrays, longi: BarArrays):
+    """Stem horizontal bars (2 faces over the stem height) and footing longitudinal bars
+    (2 mats over the footing width), per ft of wall."""
+    return (2.0 * geom.stem_height_ft * 12.0 / horiz.spacing_in * bar_weight_plf(horiz.size)
+            + 2.0 * geom.footing_width_ft * 12.0 / longi.spacing_in * bar_weight_plf(longi.size))
+
+
+def candidate_cost(geom, inputs, rates, stem, heel, toe, horiz, longi):
+    """Total $ per ft of wall of a full candidate (the objective of the search)."""
+    steel = (stem_steel_lb(geom, stem, inputs) + footing_bar_steel_lb(geom, heel)
+             + footing_bar_steel_lb(geom, toe) + fixed_steel_lb(geom, horiz, longi))
+    return geometry_cost(geom, rates) + rates.steel_usd_per_lb * steel
+
+
+# ---------------------------------------------------------------- member pass masks --
+def _le(a, b):
+    with np.errstate(invalid="ignore", divide="ignore"):
+        return np.asarray(a <= b * (1.0 + 1e-12))
+
+
+def stem_passes(r) -> np.ndarray:
+    """Every stem row of check_section (ratio <= 1)."""
+    return (_le(r.mu_lbft, r.phi_mn_lbft) & _le(r.vu_lb, r.phi_vn_lb)
+            & _le(r.height_mu_lbft, r.height_phi_mn_lbft) & _le(r.height_vu_lb, r.height_phi_vn_lb)
+            & _le(r.as_min_in2, r.as_in2) & _le(r.spacing_in, r.s_max_in)
+            & _le(r.ldh_in, r.ldh_available_in))
+
+
+def footing_member_passes(r, toe: bool = False) -> np.ndarray:
+    """Every heel (or toe) row of check_section (ratio <= 1)."""
+    ok = (_le(r.mu_lbft, r.phi_mn_lbft) & _le(r.vu_lb, r.phi_vn_lb)
+          & _le(r.as_min_in2, r.as_in2) & _le(r.spacing_in, r.s_max_in))
+    if toe:
+        ok = ok & _le(TOE_MIN_DEPTH_IN, r.d_in)
+    return ok
+
+
+# ------------------------------------------------------------------------- the search --
+@dataclass(frozen=True)
+class Choice:
+    """The optimum at one design height (``section`` None where nothing on the grid holds)."""
+
+    design_height_ft: float
+    section: SectionDims | None
+    cost_per_ft: float
+
+
+def _geom(g: Mapping[str, np.ndarray], idx, h, emb, fb) -> SectionGeometry:
+    return SectionGeometry(
+        retained_height_ft=h, embedment_ft=emb, footing_thickness_in=g["footing_thickness_in"][idx],
+        stem_top_in=g["stem_top_in"][idx], stem_base_in=g["stem_base_in"][idx],
+        toe_ft=g["toe_ft"][idx], heel_ft=g["heel_ft"][idx], freeboard_ft=fb)
+
+
+def precompute(g, inputs: DesignInputs, rates: CostRates, emb: float) -> dict:
+    """The height-independent parts of every geometry's cost: the cost is
+    ``cost0 + cost_per_hst * stem height`` plus the stem, heel and toe bars."""
+    geo = _geom(g, slice(None), 1.0, emb, 0.0)
+    T = geo.footing_thickness_ft
+    B = geo.footing_width_ft
+    horiz, longi = fixed_bars(geo, inputs)
+    w_h = 2.0 * 12.0 / horiz.spacing_in * bar_weight_plf(horiz.size)  # lb/ft per ft of stem
+    w_l = 2.0 * 12.0 / longi.spacing_in * bar_weight_plf(longi.size)  # lb/ft per ft of width
+    t_avg_ft = (geo.stem_top_in + geo.stem_base_in) / 24.0
+    exc = B * np.maximum(emb, T) / CY_FT3
+    cost0 = (rates.concrete_usd_per_cy * B * T / CY_FT3 + rates.formwork_usd_per_sf * 2.0 * T
+             + rates.excavation_usd_per_cy * exc + rates.steel_usd_per_lb * w_l * B)
+    per_hst = (rates.concrete_usd_per_cy * t_avg_ft / CY_FT3 + rates.formwork_usd_per_sf * 2.0
+               + rates.steel_usd_per_lb * w_h)
+    return {"T_ft": T, "B_ft": B, "cost0": cost0, "cost_per_hst": per_hst,
+            "stem_anchor_ft": (geo.footing_thickness_in - inputs.cover_toe_in) / 12.0}
+
+
+class StabilityScreen:
+    """A fast necessary condition for stability at one height, for every geometry at once.
+
+    The weights are linear in the design height (stem, soil over the heel and the battered
+    face grow with it; footing, key, toe soil and surcharge do not) and the thrust and passive
+    resistance are the same for every geometry at a height. The weights come from the engine's
+    own :func:`~.section.section_weights` at two heights, with linearity verified at a third;
+    where it does not hold (a pressure model whose weights are not linear) the screen passes
+    everything. The screen only discards: every candidate is then checked by the engine.
+    """
+
+    SLACK = 1e-9
+
+    def __init__(self, g, inputs: DesignInputs, emb: float, fb: float):
+        from .pressure import earth_pressure
+        from .section import section_weights
+
+        self.inputs = inputs
+        self.emb, self.fb = emb, fb
+        self.p = earth_pressure(inputs)
+        hs = (4.0, 12.0, 7.0)
+        parts = []
+        for h in hs:
+            w = section_weights(_geom(g, slice(None), h, emb, fb), inputs)
+            v, m = w.dead()
+            parts.append((v, m, w.surcharge.lb, w.surcharge.moment_lbft))
+        (va, ma, qa, qma), (vb, mb, qb, qmb), (vc, mc, qc, qmc) = parts
+        t = (hs[2] - hs[0]) / (hs[1] - hs[0])
+        lin = all(np.allclose(c, a + t * (b - a), rtol=1e-9, atol=1e-6)
+                  for a, b, c in ((va, vb, vc), (ma, mb, mc), (qa, qb, qc), (qma, qmb, qmc)))
+        self.linear = bool(lin)
+        d = hs[1] - hs[0]
+        self.v1, self.m1 = (vb - va) / d, (mb - ma) / d
+        self.v0, self.m0 = va - self.v1 * hs[0], ma - self.m1 * hs[0]
+        self.vq, self.mq = qa, qma
+        self.B = _geom(g, slice(None), 1.0, emb, fb).footing_width_ft
+
+    def passes(self, h: float) -> np.ndarray:
+        from .pressure import design_thrust, passive_resistance_lb
+
+        if not self.linear:
+            return np.ones(self.B.shape, bool)
+        i = self.inputs
+        one = SectionGeometry(retained_height_ft=h, embedment_ft=self.emb,
+                              footing_thickness_in=12.0, stem_top_in=8.0, stem_base_in=8.0,
+                              toe_ft=1.0, heel_ft=1.0, freeboard_ft=self.fb)
+        th = design_thrust(one, i, self.p)
+        m_o = float(th.moment_lbft)
+        h_d = float(th.horizontal_lb)
+        v_th = float(th.vertical_lb)
+        pp = (float(passive_resistance_lb(self.p.passive_efp_pcf, i.passive_neglect_ft,
+                                          self.emb)) if i.use_passive else 0.0)
+        B = self.B
+        v = self.v0 + self.v1 * h + v_th
+        m = self.m0 + self.m1 * h + v_th * B
+        if i.surcharge_resists:
+            v, m = v + self.vq, m + self.mq
+        k = 1.0 - self.SLACK
+        ok = (m >= i.fs_overturning * m_o * k) & (
+            i.friction_coefficient * v + pp >= i.fs_sliding * h_d * k)
+        cases = [(v, m)] if i.surcharge_resists else [(v, m), (v + self.vq, m + self.mq)]
+        for vv, mm in cases:
+            with np.errstate(divide="ignore", invalid="ignore"):
+                e = np.abs(B / 2.0 - (mm - m_o) / vv)
+                a = B / 2.0 - e
+                q = np.where(e <= B / 6.0, vv / B * (1.0 + 6.0 * e / B), 2.0 * vv / (3.0 * a))
+            ok &= (a > 0) & (vv > 0) & (q * k <= i.allowable_bearing_psf)
+        return ok
+
+
+def toe_capacity_table(g, inputs: DesignInputs, bars: BarArrays) -> dict:
+    """Toe capacities of every (footing thickness, bar option): they do not depend on the
+    loads, so the toe check of a geometry is its demand against one row of this table."""
+    from .strength import _footing_member, cover_in
+
+    T_vals, T_of = np.unique(g["footing_thickness_in"], return_inverse=True)
+    geo = SectionGeometry(retained_height_ft=1.0, embedment_ft=1.0,
+                          footing_thickness_in=T_vals[:, None], stem_top_in=8.0,
+                          stem_base_in=8.0, toe_ft=1.0, heel_ft=1.0)
+    bb = BarArrays(bars.size[None, :], bars.spacing_in[None, :])
+    r = _footing_member(geo, inputs, bb, 0.0, 0.0, cover_in(bb.size, inputs.cover_toe_in))
+    fixed_ok = (_le(r.as_min_in2, r.as_in2) & _le(r.spacing_in, r.s_max_in)
+                & _le(TOE_MIN_DEPTH_IN, r.d_in))
+    return {"T_of": T_of, "phi_mn": np.asarray(r.phi_mn_lbft), "phi_vn": np.asarray(r.phi_vn_lb),
+            "fixed_ok": np.asarray(fixed_ok)}
+
+
+def _column(geo: SectionGeometry) -> SectionGeometry:
+    """The same sections as a column (n, 1), to broadcast against bar options (1, n_b)."""
+    return SectionGeometry(**{k: np.asarray(getattr(geo, k))[..., None] if np.ndim(
+        getattr(geo, k)) else getattr(geo, k) for k in (
+        "retained_height_ft", "embedment_ft", "footing_thickness_in", "stem_top_in",
+        "stem_base_in", "toe_ft", "heel_ft", "key_width_in", "key_depth_in", "key_offset_ft",
+        "freeboard_ft")})
+
+
+def _pair_table(g, first, h, emb, fb, inputs, bars: BarArrays, member: str) -> np.ndarray:
+    """Cheapest passing bar option for each (member dims, footing) pair code; -1 where none.
+
+    ``first`` holds one geometry index per code (the member check depends only on the pair).
+    """
+    geo = _column(_geom(g, first, h, emb, fb))
+    bb = BarArrays(bars.size[None, :], bars.spacing_in[None, :])
+    if member == "stem":
+        ok = stem_passes(stem_strength(geo, inputs, bb))
+        lb = stem_steel_lb(geo, bb, inputs)
+    else:  # heel: the bar length (footing width) is common to every option of a geometry
+        ok = footing_member_passes(heel_strength(geo, inputs, bb))
+        lb = np.broadcast_to(12.0 / bb.spacing_in * bar_weight_plf(bb.size), ok.shape)
+    cost = np.where(ok, lb, np.inf)
+    best = np.argmin(cost, axis=1)
+    return np.where(np.isfinite(cost[np.arange(first.size), best]), best, -1)
+
+
+def _search_height(g, codes, pre, toe_tab, screen, h, emb, fb, inputs, rates, bars):
+    """Exact optimum at one height over the whole grid.
+
+    Returns (geometry, stem bars, heel bars, toe bars, cost), or None where nothing holds.
+    """
+    bars_w = 12.0 / bars.spacing_in * bar_weight_plf(bars.size)  # lb per ft of run per ft
+    bars_db_ft = bars.diameter_in  # 12 db hook extension, in ft (Table 25.3.1)
+    stem_pick = _pair_table(g, codes["stem_first"], h, emb, fb, inputs, bars, "stem")
+    heel_pick = _pair_table(g, codes["heel_first"], h, emb, fb, inputs, bars, "heel")
+    s_all = stem_pick[codes["stem_of"]]
+    h_all = heel_pick[codes["heel_of"]]
+    cand = np.nonzero((s_all >= 0) & (h_all >= 0) & screen.passes(h))[0]
+    s_b, h_b = s_all[cand], h_all[cand]
+    if cand.size == 0:
+        return None
+    # cost of each candidate with its stem and heel bars (linear in the stem height)
+    hst = h + emb + fb - pre["T_ft"][cand]
+    B = pre["B_ft"][cand]
+    sw = bars_w[s_b] * (hst + pre["stem_anchor_ft"][cand] + bars_db_ft[s_b])
+    base = (pre["cost0"][cand] + pre["cost_per_hst"][cand] * hst
+            + rates.steel_usd_per_lb * (sw + bars_w[h_b] * (B - 0.5)))
+    # lower bound of a full candidate: the lightest toe option there is
+    w_min = float(np.min(12.0 / bars.spacing_in * bar_weight_plf(bars.size)))
+    lower = base + rates.steel_usd_per_lb * w_min * (B - 0.5)
+    one_bar = BarArrays(bars.size[:1], bars.spacing_in[:1])
+    done = np.zeros(cand.size, bool)
+    best_cost, best = math.inf, None
+    while True:
+        idx = np.nonzero(~done & (lower < best_cost))[0]
+        if idx.size == 0:
+            break
+        if idx.size > BLOCK:
+            idx = idx[np.argpartition(lower[idx], BLOCK)[:BLOCK]]
+        done[idx] = True
+        sub = _column(_geom(g, cand[idx], h, emb, fb))
+        st = stability(sub, inputs)
+        ok = np.asarray(st.passes & sub.valid)[:, 0]
+        if not ok.any():
+            continue
+        tr = toe_strength(sub, inputs, one_bar, st)  # demands; capacities from the table
+        ti = toe_tab["T_of"][cand[idx]]
+        t_ok = (_le(tr.mu_lbft, toe_tab["phi_mn"][ti]) & _le(tr.vu_lb, toe_tab["phi_vn"][ti])
+                & toe_tab["fixed_ok"][ti] & ok[:, None])
+        t_cost = np.where(t_ok, bars_w[None, :] * (B[idx] - 0.5)[:, None], np.inf)
+        t_pick = np.argmin(t_cost, axis=1)
+        total = base[idx] + rates.steel_usd_per_lb * t_cost[np.arange(idx.size), t_pick]
+        if not np.isfinite(total).any():
+            continue
+        k = int(np.lexsort((cand[idx], total))[0])  # least cost, ties to the lower index
+        key = (float(total[k]), int(cand[idx][k]))
+        if best is None or key < (best_cost, best[0]):
+            best_cost = key[0]
+            best = (int(cand[idx][k]), int(s_b[idx][k]), int(h_b[idx][k]), int(t_pick[k]))
+    if best is None:
+        return None
+    return (*best, best_cost)
+
+
+def section_from(g, gi, bars: BarArrays, si, hi, ti, inputs, h, emb, fb) -> SectionDims:
+    from .bars import BarSpec
+
+    geo = _geom(g, np.array([gi]), h, emb, fb)
+    horiz, longi = fixed_bars(geo, inputs)
+
+    def spec(b, i):
+        return BarSpec(int(b.size[i]), float(b.spacing_in[i]))
+
+    return SectionDims(
+        stem_top_in=float(g["stem_top_in"][gi]), stem_base_in=float(g["stem_base_in"][gi]),
+        footing_thickness_in=float(g["footing_thickness_in"][gi]),
+        toe_ft=float(g["toe_ft"][gi]), heel_ft=float(g["heel_ft"][gi]),
+        batter_face=inputs.batter_face,
+        stem_bars=spec(bars, si), heel_bars=spec(bars, hi), toe_bars=spec(bars, ti),
+        horizontal_bars=BarSpec(int(horiz.size[0]), float(horiz.spacing_in[0])),
+        footing_long_bars=BarSpec(int(longi.size[0]), float(longi.spacing_in[0])),
+    )
+
+
+@dataclass(frozen=True)
+class DesignTable:
+    """The optimum section for each design height ``increment * k`` (k = 1..K)."""
+
+    increment_ft: float
+    embedment_ft: float
+    freeboard_ft: float
+    choices: tuple[Choice, ...]
+
+    @property
+    def heights_ft(self) -> np.ndarray:
+        return np.array([c.design_height_ft for c in self.choices])
+
+    @property
+    def max_height_ft(self) -> float:
+        return float(self.heights_ft[-1]) if self.choices else 0.0
+
+    def index(self, h_ft) -> np.ndarray:
+        """Row of the table for each height (rounded up to the increment); -1 beyond it."""
+        h = np.asarray(h_ft, float)
+        k = np.ceil(np.maximum(h, 0.0) / self.increment_ft - 1e-9).astype(int)
+        k = np.maximum(k, 1) - 1
+        return np.where(k < len(self.choices), k, -1)
+
+    def cost_per_ft(self, h_ft) -> np.ndarray:
+        """$ per ft for each height; NaN where no section holds it."""
+        costs = np.array([c.cost_per_ft for c in self.choices] + [np.nan])
+        return costs[self.index(h_ft)]
+
+    def section(self, h_ft: float) -> SectionDims | None:
+        i = int(self.index(h_ft))
+        return None if i < 0 else self.choices[i].section
+
+
+def design_table(inputs: DesignInputs, grid: SizingGrid, rates: CostRates, *,
+                 max_height_ft: float, increment_ft: float, embedment_ft: float,
+                 freeboard_ft: float) -> DesignTable:
+    """The least-cost section for every design height up to ``max_height_ft``."""
+    g = grid.geometries()
+    bars = grid.bar_options()
+    screen = StabilityScreen(g, inputs, embedment_ft, freeboard_ft)
+    toe_tab = toe_capacity_table(g, inputs, bars)
+    codes = {}
+    for name in ("stem", "heel"):
+        uniq, first, inverse = np.unique(g[f"{name}_code"], return_index=True,
+                                         return_inverse=True)
+        codes[f"{name}_first"], codes[f"{name}_of"] = first, inverse
+    pre = precompute(g, inputs, rates, embedment_ft)
+    choices = []
+    k_max = int(math.ceil(max_height_ft / increment_ft - 1e-9))
+    for k in range(1, k_max + 1):
+        h = k * increment_ft
+        found = _search_height(g, codes, pre, toe_tab, screen, h, embedment_ft, freeboard_ft,
+                               inputs, rates, bars)
+        if found is None:
+            choices.append(Choice(h, None, math.nan))
+            continue
+        gi, si, hi, ti, cost = found
+        choices.append(Choice(h, section_from(g, gi, bars, si, hi, ti, inputs, h, embedment_ft,
+                                              freeboard_ft), cost))
+    return DesignTable(increment_ft, embedment_ft, freeboard_ft, tuple(choices))
+
+
+def reinforcement_of(sec: SectionDims) -> Reinforcement:
+    """The engine's Reinforcement for a designed section."""
+    def arr(b):
+        return BarArrays(b.size, b.spacing_in)
+
+    return Reinforcement(stem=arr(sec.stem_bars), heel=arr(sec.heel_bars),
+                         toe=arr(sec.toe_bars), horizontal=arr(sec.horizontal_bars),
+                         longitudinal=arr(sec.footing_long_bars))
+
+
+def exhaustive_optimum(inputs: DesignInputs, grid: SizingGrid, rates: CostRates, *, h: float,
+                       emb: float, fb: float):
+    """Reference: every geometry x stem x heel x toe bar combination through check_section.
+
+    Only for small grids (tests). Returns (cost, SectionDims) or (inf, None).
+    """
+    g = grid.geometries()
+    bars = grid.bar_options()
+    n_g, n_b = g["toe_ft"].size, bars.size.size
+    gi, si, hi, ti = np.meshgrid(np.arange(n_g), np.arange(n_b), np.arange(n_b), np.arange(n_b),
+                                 indexing="ij")
+    gi, si, hi, ti = gi.ravel(), si.ravel(), hi.ravel(), ti.ravel()
+    geo = _geom(g, gi, h, emb, fb)
+    horiz, longi = fixed_bars(geo, inputs)
+
+    def sel(i):
+        return BarArrays(bars.size[i], bars.spacing_in[i])
+
+    res = check_section(geo, inputs, Reinforcement(stem=sel(si), heel=sel(hi), toe=sel(ti),
+                                                   horizontal=horiz, longitudinal=longi))
+    cost = candidate_cost(geo, inputs, rates, sel(si), sel(hi), sel(ti), horiz, longi)
+    cost = np.where(res.passes, cost, np.inf)
+    k = int(np.argmin(cost))
+    if not np.isfinite(cost[k]):
+        return math.inf, None
+    return float(cost[k]), section_from(g, int(gi[k]), bars, int(si[k]), int(hi[k]), int(ti[k]),
+                                        inputs, h, emb, fb)
+
+
+__all__ = ["Choice", "CostRates", "DesignTable", "SizingGrid", "design_table",
+           "exhaustive_optimum", "reinforcement_of", "replace"]

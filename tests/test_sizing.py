@@ -1,0 +1,84 @@
+"""Least-cost sizing: the fast search against a plain exhaustive search on small grids."""
+
+import math
+
+import numpy as np
+import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
+from wallsched.engine.checks import check_section
+from wallsched.engine.section import DesignInputs
+from wallsched.engine.sizing import (
+    CostRates,
+    SizingGrid,
+    design_table,
+    exhaustive_optimum,
+    parse_sizes,
+)
+
+from wallsched.design import reinforcement, station_geometry
+
+
+def small_grid(batter=False):
+    return SizingGrid(
+        toe_ft=np.array([0.0, 1.0, 2.5]), heel_ft=np.array([1.5, 3.0, 4.5, 6.5]),
+        footing_thickness_in=np.array([12.0, 18.0, 26.0]), stem_base_in=np.array([8.0, 12.0]),
+        stem_top_min_in=8.0, stem_batter=batter, bar_sizes=np.array([4, 6]),
+        bar_spacings_in=np.array([8.0, 12.0]))
+
+
+soils = st.fixed_dictionaries({
+    "unit_weight_pcf": st.floats(100, 130), "friction_coefficient": st.floats(0.3, 0.55),
+    "allowable_bearing_psf": st.floats(1500, 4000), "active_efp_pcf": st.floats(30, 50),
+    "passive_efp_pcf": st.floats(150, 350), "surcharge_psf": st.sampled_from([0.0, 100.0, 250.0]),
+    "min_embedment_ft": st.sampled_from([1.0, 2.0]),
+})
+
+
+@settings(max_examples=30, deadline=None)
+@given(soils, st.booleans())
+def test_fast_search_equals_exhaustive_search(soil, batter):
+    inputs = DesignInputs(**soil)
+    grid = small_grid(batter)
+    rates = CostRates()
+    emb = soil["min_embedment_ft"]
+    table = design_table(inputs, grid, rates, max_height_ft=8.0, increment_ft=1.0,
+                         embedment_ft=emb, freeboard_ft=0.5)
+    assert len(table.choices) == 8
+    for choice in table.choices:
+        ref_cost, ref = exhaustive_optimum(inputs, grid, rates, h=choice.design_height_ft,
+                                           emb=emb, fb=0.5)
+        if ref is None:
+            assert choice.section is None
+            continue
+        assert choice.section is not None
+        assert choice.cost_per_ft == pytest.approx(ref_cost, rel=1e-9)
+        # the section found passes every check at its height
+        r = check_section(station_geometry(choice.section, choice.design_height_ft, emb, 0.5),
+                          inputs, reinforcement(choice.section))
+        assert bool(np.all(r.passes))
+
+
+def test_taller_never_cheaper_default_grid():
+    inputs = DesignInputs(unit_weight_pcf=120, friction_coefficient=0.4,
+                          allowable_bearing_psf=3000, active_efp_pcf=40, passive_efp_pcf=250,
+                          surcharge_psf=100, min_embedment_ft=1.5)
+    grid = SizingGrid.from_table({"toe_max_ft": 4.0, "heel_max_ft": 8.0,
+                                  "footing_thickness_max_in": 24.0, "stem_max_in": 14.0})
+    table = design_table(inputs, grid, CostRates(), max_height_ft=9.0, increment_ft=0.5,
+                         embedment_ft=1.5, freeboard_ft=0.5)
+    costs = [c.cost_per_ft for c in table.choices if c.section is not None]
+    assert len(costs) >= 10
+    assert all(b >= a - 1e-9 for a, b in zip(costs[:-1], costs[1:], strict=True))
+    widths = [c.section.footing_width_ft for c in table.choices if c.section is not None]
+    assert widths[-1] > widths[0]
+    # design heights round up: 3.2 ft is designed as 3.5 ft
+    assert table.section(3.2) is table.choices[6].section
+    assert math.isnan(table.cost_per_ft(50.0))
+
+
+def test_bar_size_lists():
+    assert parse_sizes("4-9").tolist() == [4, 5, 6, 7, 8, 9]
+    assert parse_sizes("4,6,8").tolist() == [4, 6, 8]
+    with pytest.raises(ValueError):
+        parse_sizes("1-2")
