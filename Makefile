@@ -15,7 +15,7 @@ $(STAMP): pyproject.toml | $(BIN)/python
 	touch $(STAMP)
 
 demo: $(STAMP)
-	$(BIN)/wallsched stations sample_site/site.toml --out sample_site/out
+	$(BIN)/wallsched design sample_site/site.toml --out sample_site/out --replace
 
 test: $(STAMP)
 	$(BIN)/ruff check .

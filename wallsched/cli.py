@@ -88,3 +88,11 @@ if __name__ == "__main__":  # pragma: no cover
 from .cmd_diff import diff  # noqa: E402
 
 main.add_command(diff)
+
+from .cmd_section import section  # noqa: E402
+
+main.add_command(section)
+
+from .cmd_design import design  # noqa: E402
+
+main.add_command(design)

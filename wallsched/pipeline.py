@@ -51,3 +51,110 @@ def safe_name(wall_id: str) -> str:
     """A file-name-safe form of a wall id (never a path)."""
     keep = "".join(c if c.isalnum() or c in "-_." else "_" for c in wall_id)
     return keep.strip(".") or "wall"
+
+
+class collect_warnings:  # noqa: N801 - used as a context manager
+    """Collect the readers' warnings (e.g. labels off the wall) as text lines."""
+
+    def __enter__(self) -> list[str]:
+        import warnings
+
+        self._cm = warnings.catch_warnings(record=True)
+        self._rec = self._cm.__enter__()
+        warnings.simplefilter("always")
+        self.lines: list[str] = []
+        return self.lines
+
+    def __exit__(self, *exc) -> None:
+        from .profile.dxfread import ProfileWarning
+
+        self._cm.__exit__(*exc)
+        for w in self._rec:
+            if issubclass(w.category, ProfileWarning):
+                self.lines.append(" ".join(str(w.message).split()))
+        return None
+
+
+def wall_summary(w) -> str:
+    """One line per designed wall: length, segments, max height, concrete, steel, cost."""
+    import math
+
+    segs = w.segments
+    if not segs:
+        return f"{w.wall}: no wall needed (retained height below the minimum everywhere)"
+    length = sum(s.length_ft for s in segs)
+    hmax = max(s.retained_height_max_ft for s in segs)
+    cy = sum(s.concrete_cy for s in segs if math.isfinite(s.concrete_cy))
+    lb = sum(s.steel_lb for s in segs if math.isfinite(s.steel_lb))
+    usd = sum(s.cost_usd for s in segs if math.isfinite(s.cost_usd))
+    bad = [s for s in segs if not s.ok]
+    marks = sorted({s.mark for s in segs if s.mark}, key=lambda m: (len(m), m))
+    text = (f"{w.wall}: {length:.1f} ft in {len(segs)} segments (marks {', '.join(marks)}), "
+            f"max retained height {hmax:.2f} ft, {cy:.1f} CY concrete, {lb:,.0f} lb steel, "
+            f"${usd:,.0f} (illustrative unit costs)")
+    if bad:
+        text += f"; {len(bad)} segment(s) FAIL: " + "; ".join(
+            f"{s.segment} {s.status}" for s in bad[:3])
+    return text
+
+
+def write_design(site, sd, out: Path, *, drawings: bool = True, compare_dir=None) -> list[str]:
+    """Every output of ``wallsched design`` into ``out``; returns the summary lines."""
+    import pandas as pd
+
+    from .exporters.schedule import (
+        run_record,
+        stations_frame,
+        write_run_json,
+        write_schedule,
+        write_xlsx,
+    )
+    from .exporters.tables import write_csv
+
+    write_csv(stations_frame(sd.walls), out / "stations.csv")
+    schedule = write_schedule(sd.walls, out)
+    bars = pd.concat([w.extra["bars"] for w in sd.walls if len(w.extra["bars"])],
+                     ignore_index=True) if any(len(w.extra["bars"]) for w in sd.walls) else None
+    from .engine.detailing import REBAR_COLUMNS
+
+    if bars is None:
+        bars = pd.DataFrame(columns=REBAR_COLUMNS)
+    write_csv(bars, out / "rebar.csv")
+    from .engine.quantities import quantity_totals, wall_quantities
+
+    quantities = pd.concat([wall_quantities(w, bars[bars["wall"] == w.wall])
+                            for w in sd.walls if w.segments], ignore_index=True) \
+        if any(w.segments for w in sd.walls) else None
+    totals = quantity_totals(quantities) if quantities is not None else None
+    write_xlsx(schedule, bars, totals, out / "schedule.xlsx", site.name)
+    write_run_json(run_record(site, sd, schedule), out / "run.json")
+    if drawings:
+        write_drawings(site, sd, out, bars)
+    lines = [wall_summary(w) for w in sd.walls]
+    if compare_dir is not None:
+        from .exporters.diff import RunTables, diff_tables, read_run, write_diff
+
+        new = RunTables.from_frames(schedule, stations_frame(sd.walls))
+        d = diff_tables(read_run(compare_dir), new)
+        write_diff(d, out / "diff.csv")
+        lines += d.summary_lines()
+    return lines
+
+
+def write_drawings(site, sd, out: Path, bars) -> None:
+    """The DXF elevation and the plots of every wall."""
+    from .engine.quantities import wall_quantities
+    from .exporters.design_plots import write_design_plots
+    from .exporters.dxf_elevation import write_elevation_dxf
+    from .exporters.plots import plot_stations
+
+    hash_text = ", ".join(f"{k} sha256 {v[:16]}" for k, v in site.input_hashes().items())
+    for w in sd.walls:
+        name = safe_name(w.wall)
+        plot_stations(w.stations, out / f"{name}-profile.png")
+        if not w.segments:
+            continue
+        wb = bars[bars["wall"] == w.wall]
+        write_elevation_dxf(w, out / f"{name}-elevation.dxf", input_hash=hash_text,
+                            site_name=site.name, bars=wb, quantities=wall_quantities(w, wb))
+        write_design_plots(w, out)

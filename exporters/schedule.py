@@ -1,0 +1,212 @@
+"""The wall schedule (``schedule.csv``, ``schedule.xlsx``), the designed ``stations.csv`` and the
+run record (``run.json``): tables of what the engine designed, as-is."""
+
+from __future__ import annotations
+
+import json
+import math
+from pathlib import Path
+
+import numpy as np
+import pandas as pd
+
+from ..cautions import CAUTIONS
+from ..profile.stationing import format_station
+from .tables import write_csv
+
+SCHEDULE_COLUMNS = [  # DESIGN.md section 5, in this order
+    "wall", "segment", "station_start_ft", "station_end_ft", "length_ft",
+    "retained_height_max_ft", "top_of_wall_ft", "top_of_footing_ft", "bottom_of_footing_ft",
+    "stem_top_in", "stem_base_in", "footing_thickness_in", "toe_ft", "heel_ft",
+    "footing_width_ft", "key_width_in", "key_depth_in", "key_offset_ft", "stem_bars",
+    "heel_bars", "toe_bars", "horizontal_bars", "fs_overturning", "fs_sliding", "q_max_psf",
+    "utilization_max", "concrete_cy", "steel_lb", "status",
+]
+EXTRA_COLUMNS = ["station_start", "station_end", "mark", "design_height_ft", "governing_check",
+                 "governing_station", "footing_long_bars", "formwork_sf", "excavation_cy",
+                 "backfill_cy", "cost_usd"]
+UNITS = {
+    "station_start_ft": "ft", "station_end_ft": "ft", "length_ft": "ft",
+    "retained_height_max_ft": "ft", "top_of_wall_ft": "ft (elev.)",
+    "top_of_footing_ft": "ft (elev.)", "bottom_of_footing_ft": "ft (elev.)", "stem_top_in": "in",
+    "stem_base_in": "in", "footing_thickness_in": "in", "toe_ft": "ft", "heel_ft": "ft",
+    "footing_width_ft": "ft", "key_width_in": "in", "key_depth_in": "in", "key_offset_ft": "ft",
+    "q_max_psf": "psf", "concrete_cy": "CY", "steel_lb": "lb", "design_height_ft": "ft",
+    "formwork_sf": "SF", "excavation_cy": "CY", "backfill_cy": "CY", "cost_usd": "$",
+}
+
+
+def _bar(b) -> str:
+    return "" if b is None else str(b)
+
+
+def schedule_frame(walls) -> pd.DataFrame:
+    """One row per segment of every wall."""
+    rows = []
+    for w in walls:
+        for s in w.segments:
+            sec = s.section
+            dims = {k: (getattr(sec, k) if sec is not None else math.nan) for k in (
+                "stem_top_in", "stem_base_in", "footing_thickness_in", "toe_ft", "heel_ft",
+                "key_width_in", "key_depth_in", "key_offset_ft")}
+            if sec is not None and not sec.has_key:
+                dims["key_offset_ft"] = 0.0
+            rows.append({
+                "wall": s.wall, "segment": s.segment, "station_start_ft": s.station_start_ft,
+                "station_end_ft": s.station_end_ft, "length_ft": s.length_ft,
+                "retained_height_max_ft": s.retained_height_max_ft,
+                "top_of_wall_ft": s.top_of_wall_ft, "top_of_footing_ft": s.top_of_footing_ft,
+                "bottom_of_footing_ft": s.bottom_of_footing_ft, **dims,
+                "footing_width_ft": sec.footing_width_ft if sec is not None else math.nan,
+                "stem_bars": _bar(sec and sec.stem_bars), "heel_bars": _bar(sec and sec.heel_bars),
+                "toe_bars": _bar(sec and sec.toe_bars),
+                "horizontal_bars": _bar(sec and sec.horizontal_bars),
+                "fs_overturning": s.fs_overturning, "fs_sliding": s.fs_sliding,
+                "q_max_psf": s.q_max_psf, "utilization_max": s.utilization_max,
+                "concrete_cy": s.concrete_cy, "steel_lb": s.steel_lb, "status": s.status,
+                "station_start": format_station(s.station_start_ft),
+                "station_end": format_station(s.station_end_ft), "mark": s.mark,
+                "design_height_ft": s.design_height_ft, "governing_check": s.governing_check,
+                "governing_station": (format_station(s.governing_station_ft)
+                                      if math.isfinite(s.governing_station_ft) else ""),
+                "footing_long_bars": _bar(sec and sec.footing_long_bars),
+                "formwork_sf": s.formwork_sf, "excavation_cy": s.excavation_cy,
+                "backfill_cy": s.backfill_cy, "cost_usd": s.cost_usd,
+            })
+    return pd.DataFrame(rows, columns=SCHEDULE_COLUMNS + EXTRA_COLUMNS)
+
+
+def stations_frame(walls) -> pd.DataFrame:
+    """``stations.csv`` of the design: the sampled stations plus segment, section mark,
+    utilisation and governing check per station."""
+    frames = []
+    for w in walls:
+        f = w.stations.to_frame()
+        idx = w.station_segment
+        seg_ids = np.array([s.segment for s in w.segments] + [""], dtype=object)
+        marks = np.array([s.mark for s in w.segments] + [""], dtype=object)
+        f["segment"] = seg_ids[idx]
+        f["mark"] = marks[idx]
+        f["utilization"] = w.station_utilization
+        f["governing_check"] = list(w.station_governing)
+        f["status"] = list(w.station_status)
+        frames.append(f)
+    return pd.concat(frames, ignore_index=True)
+
+
+def write_schedule(walls, out: Path) -> pd.DataFrame:
+    frame = schedule_frame(walls)
+    write_csv(frame, out / "schedule.csv")
+    return frame
+
+
+def write_xlsx(schedule: pd.DataFrame, bars: pd.DataFrame, quantities: pd.DataFrame | None,
+               path: Path, site_name: str) -> None:
+    """The schedule (and bar list, quantities) as a workbook formatted for printing: units in
+    the header row, the cautions in the page footer and below the table."""
+    from openpyxl.styles import Alignment, Font
+    from openpyxl.utils import get_column_letter
+
+    sheets = [("schedule", schedule), ("bar list", bars)]
+    if quantities is not None:
+        sheets.append(("quantities", quantities))
+    with pd.ExcelWriter(path, engine="openpyxl") as xw:
+        for name, frame in sheets:
+            frame.to_excel(xw, sheet_name=name, index=False, startrow=1)
+            ws = xw.sheets[name]
+            ws.cell(row=1, column=1, value=f"{site_name} - {name}").font = Font(bold=True)
+            for j, col in enumerate(frame.columns, 1):
+                unit = UNITS.get(col, "")
+                cell = ws.cell(row=2, column=j, value=f"{col} [{unit}]" if unit else col)
+                cell.font = Font(bold=True)
+                cell.alignment = Alignment(wrap_text=True, vertical="top")
+                ws.column_dimensions[get_column_letter(j)].width = max(9, min(24, len(col) + 2))
+            r = len(frame) + 4
+            for line in CAUTIONS:
+                ws.cell(row=r, column=1, value=line).font = Font(italic=True, size=8)
+                r += 1
+            ws.print_title_rows = "2:2"
+            ws.page_setup.orientation = "landscape"
+            ws.page_setup.fitToWidth = 1
+            ws.page_setup.fitToHeight = 0
+            ws.sheet_properties.pageSetUpPr.fitToPage = True
+            ws.oddFooter.left.text = CAUTIONS[0] + " " + CAUTIONS[2]
+            ws.oddFooter.left.size = 7
+            ws.oddFooter.right.text = "page &P of &N"
+            ws.freeze_panes = "C3"
+    _fix_workbook_times(path)
+
+
+def _fix_workbook_times(path: Path) -> None:
+    """Rewrite the workbook's document properties with a fixed time (reproducible bytes)."""
+    import zipfile
+
+    fixed = (1980, 1, 1, 0, 0, 0)
+    with zipfile.ZipFile(path) as zin:
+        items = [(i, zin.read(i.filename)) for i in zin.infolist()]
+    tmp = path.with_suffix(".tmp")
+    with zipfile.ZipFile(tmp, "w", zipfile.ZIP_DEFLATED) as zout:
+        for info, data in items:
+            if info.filename == "docProps/core.xml":
+                import re
+
+                data = re.sub(rb"<dcterms:(created|modified)([^>]*)>[^<]*<",
+                              rb"<dcterms:\1\2>2000-01-01T00:00:00Z<", data)
+            zi = zipfile.ZipInfo(info.filename, date_time=fixed)
+            zi.compress_type = zipfile.ZIP_DEFLATED
+            zout.writestr(zi, data)
+    tmp.replace(path)
+
+
+def _jsonable(v):
+    if isinstance(v, float | np.floating):
+        v = float(v)
+        return v if math.isfinite(v) else None
+    if isinstance(v, np.integer):
+        return int(v)
+    if isinstance(v, np.bool_):
+        return bool(v)
+    return v
+
+
+def run_record(site, sd, schedule: pd.DataFrame) -> dict:
+    """Inputs with hashes, the resolved criteria, versions, every segment's full design."""
+    import platform
+    from importlib import metadata
+
+    from .. import __version__
+
+    versions = {"wallsched": __version__, "python": platform.python_version()}
+    for lib in ("numpy", "pandas", "shapely", "ezdxf", "matplotlib", "click", "geopandas",
+                "openpyxl"):
+        try:
+            versions[lib] = metadata.version(lib)
+        except metadata.PackageNotFoundError:
+            versions[lib] = None
+    walls = []
+    for spec, w in zip(site.walls, sd.walls, strict=True):
+        segs = schedule[schedule["wall"] == w.wall].to_dict(orient="records")
+        walls.append({
+            "id": w.wall, "name": w.name, "retained_side": w.retained_side,
+            "soil": dict(spec.soil), "loads": dict(spec.loads),
+            "materials": dict(spec.materials), "criteria": dict(spec.criteria),
+            "joints": [{"station_ft": j.station_ft, "kind": j.kind} for j in w.joints],
+            "segments": [{k: _jsonable(v) for k, v in s.items()} for s in segs],
+        })
+    return {
+        "site": dict(site.meta), "cautions": list(CAUTIONS),
+        "inputs": site.input_hashes(), "versions": versions,
+        "costs": dict(site.costs), "sizing": dict(site.sizing),
+        "passes": bool(sd.ok), "walls": walls,
+    }
+
+
+def write_run_json(record: dict, path: Path) -> None:
+    def clean(o):
+        if isinstance(o, dict):
+            return {k: clean(v) for k, v in o.items()}
+        if isinstance(o, list | tuple):
+            return [clean(v) for v in o]
+        return _jsonable(o)
+
+    path.write_text(json.dumps(clean(record), indent=2, sort_keys=False, allow_nan=False) + "\n")

@@ -1,0 +1,68 @@
+"""``wallsched design SITE.toml --out DIR``: the main job."""
+
+from __future__ import annotations
+
+import sys
+from pathlib import Path
+
+import click
+
+from .cautions import CAUTIONS
+from .cli import EPILOG
+
+
+def _progress_enabled(quiet: bool) -> bool:
+    return not quiet and sys.stdout.isatty()
+
+
+@click.command(epilog=EPILOG)
+@click.argument("site_file", type=click.Path(dir_okay=False, path_type=Path))
+@click.option("--out", "out_dir", required=True, type=click.Path(file_okay=False, path_type=Path),
+              help="Output folder (written atomically; an old one is kept as DIR.prev).")
+@click.option("--compare", "compare_dir", type=click.Path(file_okay=False, path_type=Path),
+              help="An earlier run folder: also write the diff against it.")
+@click.option("--replace", is_flag=True, help="Replace the output folder instead of keeping .prev.")
+@click.option("--no-drawings", is_flag=True, help="Skip the DXF drawings and the plots.")
+@click.option("-q", "--quiet", is_flag=True, help="Print nothing but errors.")
+@click.pass_context
+def design(ctx, site_file: Path, out_dir: Path, compare_dir: Path | None, replace: bool,
+           no_drawings: bool, quiet: bool):
+    """Design every wall of SITE_FILE: schedule, stations, bar list, drawings, run record.
+
+    Exit 0 when every segment passes every check, 3 when outputs were written but some
+    stretch could not be designed within the limits (see the status column).
+    """
+    from .design import design_site
+    from .outdir import staged_output
+    from .pipeline import collect_warnings, site_stations, write_design
+    from .site import load_site
+
+    site = load_site(site_file)
+    with collect_warnings() as warns:
+        walls = site_stations(site)
+    if compare_dir is not None:
+        from .errors import InputError
+
+        if not (compare_dir / "schedule.csv").is_file():
+            raise InputError("is not a wallsched run folder (no schedule.csv)", file=compare_dir,
+                             where="--compare")
+    if _progress_enabled(quiet):
+        with click.progressbar(length=len(walls), label="designing walls") as bar:
+            sd = design_site(site, walls, progress=bar.update)
+    else:
+        sd = design_site(site, walls)
+    sd.warnings.extend(warns)
+    with staged_output(out_dir, replace=replace) as tmp:
+        summary = write_design(site, sd, tmp, drawings=not no_drawings, compare_dir=compare_dir)
+    if not quiet:
+        for line in sd.warnings:
+            click.echo(f"warning: {line}")
+        for line in summary:
+            click.echo(line)
+        click.echo(f"wrote {out_dir}/")
+        click.echo("CAUTION: " + CAUTIONS[0] + " " + CAUTIONS[2])
+    if not sd.ok:
+        if not quiet:
+            click.echo("some segments could not be designed within the limits: see the status "
+                       "column of schedule.csv (exit 3)", err=True)
+        ctx.exit(3)
