@@ -305,7 +305,16 @@ class StabilityScreen:
         t = (hs[2] - hs[0]) / (hs[1] - hs[0])
         lin = all(np.allclose(c, a + t * (b - a), rtol=1e-9, atol=1e-6)
                   for a, b, c in ((va, vb, vc), (ma, mb, mc), (qa, qb, qc), (qma, qmb, qmc)))
-        self.linear = bool(lin)
+        # the thrust must not depend on the geometry (level backfill on the heel plane of
+        # height H): compare two different sections at one height
+        from .pressure import design_thrust
+
+        two = _geom(g, np.array([0, g["toe_ft"].size - 1]), 8.0, emb, fb)
+        th = design_thrust(two, inputs, self.p)
+        same = all(np.allclose(np.broadcast_to(getattr(th, k), (2,))[0],
+                               np.broadcast_to(getattr(th, k), (2,))[1], rtol=1e-12)
+                   for k in ("horizontal_lb", "moment_lbft", "vertical_lb"))
+        self.linear = bool(lin and same)
         d = hs[1] - hs[0]
         self.v1, self.m1 = (vb - va) / d, (mb - ma) / d
         self.v0, self.m0 = va - self.v1 * hs[0], ma - self.m1 * hs[0]
