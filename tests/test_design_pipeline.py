@@ -107,7 +107,8 @@ def test_sample_like_site_designs_and_every_station_rechecks(runner, tmp_path):
     assert steps <= exp_at  # an expansion joint at every footing step
 
 
-@settings(max_examples=6, deadline=None, suppress_health_check=[HealthCheck.function_scoped_fixture])
+@settings(max_examples=6, deadline=None,
+          suppress_health_check=[HealthCheck.function_scoped_fixture])
 @given(st.lists(st.floats(0.5, 9.0), min_size=3, max_size=6), st.floats(-4, 4),
        st.integers(0, 10**6))
 def test_random_sites_every_segment_passes_everywhere(runner, tmp_path_factory, heights, fall,
