@@ -8,7 +8,9 @@ assigned to the next segment). For each segment and each allowed bottom of footi
 *envelope case* is
 
     BF_top = min(front grade over i..j) - required embedment, rounded down to ``bf_round_ft``
-    BF     = BF_top - m * bf_lowering_ft          (m = 0..M-1: lowering only to meet step limits)
+    BF     = BF_top - m * bf_lowering_ft          (m = 0..M-1: lowering only to meet step limits;
+                                                   M = 1 unless the ground is too steep for
+                                                   footings at their highest, then 5)
     h_case = max(retained grade over i..j) - BF - required embedment
 
 The envelope case has the largest design height of the segment with the least embedment the
@@ -36,6 +38,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
+LOWERINGS_STEEP = 5  # lowerings offered when the highest footings cannot meet the step limit
 INFEASIBLE_COST_PER_FT = 1.0e7  # $/ft for a segment no section can hold (flagged, never hidden)
 
 
@@ -48,7 +51,7 @@ class SegmentRules:
     footing_step_max_ft: float = 2.0  # common practice
     bf_round_ft: float = 0.1  # bottom of footing elevations rounded down (common practice)
     bf_lowering_ft: float = 0.5  # lowering steps offered to meet the step limit
-    bf_lowerings: int = 5
+    bf_lowerings: int = 1  # 1: footings at their highest; more only where steps need it
     top_of_wall: str = "stepped"  # or "follow_grade"
     top_step_in: float = 6.0  # common practice
     segment_min_ft: float = 10.0  # common practice
@@ -151,36 +154,41 @@ def plan_segments(
     value = np.full((n, kmax + 1, M), np.inf)
     back = np.full((n, kmax + 1, M, 2), -1, dtype=np.int64)  # previous (k', m')
     step_max = rules.footing_step_max_ft + 1e-9
-    for j in range(1, n):
-        for k in range(1, min(kmax, j) + 1):
-            if not ok_len[j, k]:
-                continue
-            i = j - k
-            c = seg_cost[j, k]  # [M]
-            if i == 0:
-                value[j, k] = c
-                continue
-            prev_v = value[i]  # [k', m']
-            if not np.isfinite(prev_v).any():
-                continue
-            prev_bf = bf[i]  # [k', m']
-            diff = np.abs(bf[j, k][:, None, None] - prev_bf[None, :, :])  # [m, k', m']
-            stepped = diff > 1e-9
-            if rules.top_of_wall == "stepped":
-                stepped = stepped | (np.abs(tw[j, k] - tw[i])[None, :, None] > 1e-9)
-            total_v = np.where(diff <= step_max, prev_v[None] + rules.step_cost_usd * stepped,
-                               np.inf)
-            flat = total_v.reshape(M, -1)
-            best = np.argmin(flat, axis=1)
-            bv = flat[np.arange(M), best]
-            value[j, k] = c + bv
-            back[j, k, :, 0] = best // M
-            back[j, k, :, 1] = best % M
+    # the stations of a block never end a segment that starts inside the same block
+    first_ok = np.where(ok_len.any(axis=1), np.argmax(ok_len, axis=1), kmax + 1)
+    block = max(1, int(first_ok[1:].min()))
+    stepped_top = rules.top_of_wall == "stepped"
+    ks = np.arange(1, kmax + 1)
+    J = 1
+    while J < n:
+        js = np.arange(J, min(J + block, n))
+        jj, kk = np.meshgrid(js, ks, indexing="ij")  # [b, k]
+        valid = (kk <= jj) & ok_len[jj, kk]
+        ii = np.where(valid, jj - kk, 0)
+        prev_v = value[ii]  # [b, k, k', m']
+        diff = np.abs(bf[jj, kk][..., :, None, None] - bf[ii][..., None, :, :])  # [b,k,m,k',m']
+        stepped = diff > 1e-9
+        if stepped_top:
+            stepped = stepped | (np.abs(tw[jj, kk][..., None] - tw[ii]) > 1e-9)[
+                ..., None, :, None]
+        total_v = np.where(diff <= step_max,
+                           prev_v[..., None, :, :] + rules.step_cost_usd * stepped, np.inf)
+        flat = total_v.reshape(total_v.shape[:3] + (-1,))
+        best = np.argmin(flat, axis=-1)  # [b, k, m]
+        bv = np.take_along_axis(flat, best[..., None], axis=-1)[..., 0]
+        bv = np.where((ii == 0)[..., None], 0.0, bv)
+        value[jj, kk] = np.where(valid[..., None], seg_cost[jj, kk] + bv, np.inf)
+        back[jj, kk, :, 0] = best // M
+        back[jj, kk, :, 1] = best % M
+        J += block
     final = value[n - 1]
     if not np.isfinite(final).any():
-        if rules.segment_min_ft > 0:  # odd station spacing: relax the minimum length
-            from dataclasses import replace
+        from dataclasses import replace
 
+        if rules.bf_lowerings < LOWERINGS_STEEP:  # steep ground: offer lowered footings
+            return plan_segments(s, rg, fg, replace(rules, bf_lowerings=LOWERINGS_STEEP),
+                                 cost_per_ft)
+        if rules.segment_min_ft > 0:  # odd station spacing: relax the minimum length
             return plan_segments(s, rg, fg, replace(rules, segment_min_ft=0.0), cost_per_ft)
         raise ValueError("no segmentation meets the footing step limit")
     k, m = np.unravel_index(int(np.argmin(final)), final.shape)

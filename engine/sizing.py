@@ -321,11 +321,12 @@ class StabilityScreen:
         self.vq, self.mq = qa, qma
         self.B = _geom(g, slice(None), 1.0, emb, fb).footing_width_ft
 
-    def passes(self, h: float) -> np.ndarray:
+    def passes(self, h: float, idx=slice(None)) -> np.ndarray:
+        """The screen at height ``h`` for the geometries ``idx`` (all by default)."""
         from .pressure import design_thrust, passive_resistance_lb
 
         if not self.linear:
-            return np.ones(self.B.shape, bool)
+            return np.ones(self.B[idx].shape, bool)
         i = self.inputs
         one = SectionGeometry(retained_height_ft=h, embedment_ft=self.emb,
                               footing_thickness_in=12.0, stem_top_in=8.0, stem_base_in=8.0,
@@ -336,15 +337,16 @@ class StabilityScreen:
         v_th = float(th.vertical_lb)
         pp = (float(passive_resistance_lb(self.p.passive_efp_pcf, i.passive_neglect_ft,
                                           self.emb)) if i.use_passive else 0.0)
-        B = self.B
-        v = self.v0 + self.v1 * h + v_th
-        m = self.m0 + self.m1 * h + v_th * B
+        B = self.B[idx]
+        v = self.v0[idx] + self.v1[idx] * h + v_th
+        m = self.m0[idx] + self.m1[idx] * h + v_th * B
+        vq, mq = self.vq[idx], self.mq[idx]
         if i.surcharge_resists:
-            v, m = v + self.vq, m + self.mq
+            v, m = v + vq, m + mq
         k = 1.0 - self.SLACK
         ok = (m >= i.fs_overturning * m_o * k) & (
             i.friction_coefficient * v + pp >= i.fs_sliding * h_d * k)
-        cases = [(v, m)] if i.surcharge_resists else [(v, m), (v + self.vq, m + self.mq)]
+        cases = [(v, m)] if i.surcharge_resists else [(v, m), (v + vq, m + mq)]
         for vv, mm in cases:
             with np.errstate(divide="ignore", invalid="ignore"):
                 e = np.abs(B / 2.0 - (mm - m_o) / vv)
@@ -409,10 +411,11 @@ def _search_height(g, codes, pre, toe_tab, screen, h, emb, fb, inputs, rates, ba
     heel_pick = _pair_table(g, codes["heel_first"], h, emb, fb, inputs, bars, "heel")
     s_all = stem_pick[codes["stem_of"]]
     h_all = heel_pick[codes["heel_of"]]
-    cand = np.nonzero((s_all >= 0) & (h_all >= 0) & screen.passes(h))[0]
+    cand = np.nonzero((s_all >= 0) & (h_all >= 0))[0]
     s_b, h_b = s_all[cand], h_all[cand]
     if cand.size == 0:
         return None
+    screened = np.zeros(cand.size, bool)  # the stability screen is applied lazily
     # cost of each candidate with its stem and heel bars (linear in the stem height)
     hst = h + emb + fb - pre["T_ft"][cand]
     B = pre["B_ft"][cand]
@@ -429,6 +432,14 @@ def _search_height(g, codes, pre, toe_tab, screen, h, emb, fb, inputs, rates, ba
         idx = np.nonzero(~done & (lower < best_cost))[0]
         if idx.size == 0:
             break
+        if done.any() and not screened[idx].all():
+            # after the first block: screen what could still beat the best, drop what fails
+            todo = idx[~screened[idx]]
+            screened[todo] = True
+            done[todo[~screen.passes(h, cand[todo])]] = True
+            idx = idx[~done[idx]]
+            if idx.size == 0:
+                break
         if idx.size > BLOCK:
             idx = idx[np.argpartition(lower[idx], BLOCK)[:BLOCK]]
         done[idx] = True
