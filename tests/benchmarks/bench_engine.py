@@ -45,11 +45,12 @@ def main(argv=None) -> int:
     ap.add_argument("--seed", type=int, default=7)
     args = ap.parse_args(argv)
 
-    from wallsched.design import reinforcement, segment_rules, station_geometry
     from wallsched.engine.checks import check_section
     from wallsched.engine.section import DesignInputs
     from wallsched.engine.segments import plan_segments
     from wallsched.engine.sizing import CostRates, SizingGrid, design_table
+
+    from wallsched.design import reinforcement, segment_rules, station_geometry
     from wallsched.keys import CRITERIA_KEYS
 
     crit = {k: v.default for k, v in CRITERIA_KEYS.items()}
