@@ -38,6 +38,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
+CHUNK_STATIONS = 2048  # end stations prepared at once (bounds the memory of the recursion)
 LOWERINGS_STEEP = 5  # lowerings offered when the highest footings cannot meet the step limit
 INFEASIBLE_COST_PER_FT = 1.0e7  # $/ft for a segment no section can hold (flagged, never hidden)
 
@@ -159,28 +160,32 @@ def plan_segments(
     block = max(1, int(first_ok[1:].min()))
     stepped_top = rules.top_of_wall == "stepped"
     ks = np.arange(1, kmax + 1)
-    J = 1
-    while J < n:
-        js = np.arange(J, min(J + block, n))
-        jj, kk = np.meshgrid(js, ks, indexing="ij")  # [b, k]
+    chunk = max(block, (CHUNK_STATIONS // block) * block)
+    for C in range(1, n, chunk):
+        # everything that does not depend on the values, for a chunk of end stations at once
+        jc = np.arange(C, min(C + chunk, n))
+        jj, kk = np.meshgrid(jc, ks, indexing="ij")  # [c, k]
         valid = (kk <= jj) & ok_len[jj, kk]
         ii = np.where(valid, jj - kk, 0)
-        prev_v = value[ii]  # [b, k, k', m']
-        diff = np.abs(bf[jj, kk][..., :, None, None] - bf[ii][..., None, :, :])  # [b,k,m,k',m']
+        diff = np.abs(bf[jj, kk][..., :, None, None] - bf[ii][..., None, :, :])  # [c,k,m,k',m']
         stepped = diff > 1e-9
         if stepped_top:
             stepped = stepped | (np.abs(tw[jj, kk][..., None] - tw[ii]) > 1e-9)[
                 ..., None, :, None]
-        total_v = np.where(diff <= step_max,
-                           prev_v[..., None, :, :] + rules.step_cost_usd * stepped, np.inf)
-        flat = total_v.reshape(total_v.shape[:3] + (-1,))
-        best = np.argmin(flat, axis=-1)  # [b, k, m]
-        bv = np.take_along_axis(flat, best[..., None], axis=-1)[..., 0]
-        bv = np.where((ii == 0)[..., None], 0.0, bv)
-        value[jj, kk] = np.where(valid[..., None], seg_cost[jj, kk] + bv, np.inf)
-        back[jj, kk, :, 0] = best // M
-        back[jj, kk, :, 1] = best % M
-        J += block
+        pen = np.where(diff <= step_max, rules.step_cost_usd * stepped, np.inf)
+        first = (ii == 0)[..., None]
+        cost_c = np.where(valid[..., None], seg_cost[jj, kk], np.inf)
+        for b0 in range(0, jc.size, block):  # the recursion, a block of stations at a time
+            sl = slice(b0, b0 + block)
+            i_b = ii[sl]
+            total_v = value[i_b][..., None, :, :] + pen[sl]
+            flat = total_v.reshape(total_v.shape[:3] + (-1,))
+            best = np.argmin(flat, axis=-1)  # [b, k, m]
+            bv = np.take_along_axis(flat, best[..., None], axis=-1)[..., 0]
+            j_b, k_b = jj[sl], kk[sl]
+            value[j_b, k_b] = cost_c[sl] + np.where(first[sl], 0.0, bv)
+            back[j_b, k_b, :, 0] = best // M
+            back[j_b, k_b, :, 1] = best % M
     final = value[n - 1]
     if not np.isfinite(final).any():
         from dataclasses import replace
