@@ -1,0 +1,863 @@
+"""The calc package for the reviewer: ``report.pdf`` (fpdf2, real extractable text).
+
+Contents, in order: cover and design basis (site, date, version, input files with SHA-256, the
+resolved soil, loads, materials and criteria per wall with where each value comes from, the
+cautions); a site summary (walls, segments, heights, quantities, the most-utilised check per
+wall, every segment with its factors of safety and status); one page or more per section mark,
+worked at the mark's governing station (a dimensioned cross-section sketch, the station's
+grades, every weight and lateral force with its arm, every check as formula -> numbers ->
+result with its ratio and clause); the bar list; with a comparison run, the revision summary.
+Page numbers and a contents list.
+
+Nothing is computed here that the engine does not own: the governing station is re-checked
+with :func:`~wallsched.engine.checks.check_section` and
+:func:`~wallsched.engine.section.section_weights` on exactly the geometry the design stage
+checked there (``wallsched.design.station_geometry``), and the numbers printed are the engine's.
+A failing segment or check is printed as failing.
+"""
+
+from __future__ import annotations
+
+import datetime as _dt
+import io
+import math
+from dataclasses import dataclass
+from pathlib import Path
+
+import numpy as np
+
+from ..cautions import CAUTIONS
+from ..profile.stationing import format_station
+
+FONT = "dejavu"
+MONO = "dejavumono"
+MARGIN_MM = 15.0
+
+
+# ---------------------------------------------------------------- the governing station
+
+
+@dataclass(frozen=True)
+class StationCase:
+    """One section mark re-checked at its governing station."""
+
+    mark: str
+    wall: str
+    segment: object  # engine.model.Segment
+    station_ft: float
+    retained_grade_ft: float
+    front_grade_ft: float
+    top_of_wall_ft: float
+    geometry: object  # engine.section.SectionGeometry (scalar)
+    inputs: object  # engine.section.DesignInputs
+    checks: object  # engine.checks.SectionChecks (scalar)
+    weights: object  # engine.section.Weights
+    thrust: object  # engine.pressure.Thrust
+    segments: tuple  # every (wall id, Segment) with this mark
+
+    @property
+    def result(self) -> dict:
+        return self.checks.to_dict(())
+
+    @property
+    def passes(self) -> bool:
+        return bool(self.checks.passes)
+
+
+def mark_segments(sd) -> dict[str, list[tuple[str, object]]]:
+    """Section mark -> [(wall id, segment)], marks in their natural order (A..Z, AA..)."""
+    out: dict[str, list] = {}
+    for w in sd.walls:
+        for s in w.segments:
+            if s.section is not None and s.mark:
+                out.setdefault(s.mark, []).append((w.wall, s))
+    return dict(sorted(out.items(), key=lambda kv: (len(kv[0]), kv[0])))
+
+
+def _worst(segs):
+    def key(ws):
+        u = ws[1].utilization_max
+        return (0 if ws[1].ok else 1, u if math.isfinite(u) else math.inf)
+
+    return max(segs, key=key)
+
+
+def station_case(site, sd, mark: str) -> StationCase:
+    """Re-check ``mark`` at its governing station: the station of the largest check ratio of
+    the most-utilised segment with this mark (a failing segment first)."""
+    from ..design import reinforcement as design_bars
+    from ..design import station_geometry
+    from ..engine.checks import check_section
+    from ..engine.pressure import design_thrust, earth_pressure
+    from ..engine.section import section_weights
+
+    segs = mark_segments(sd)[mark]
+    wall_id, seg = _worst(segs)
+    w = next(x for x in sd.walls if x.wall == wall_id)
+    spec = next(x for x in site.walls if x.id == wall_id)
+    ws = w.stations
+    st = np.asarray(ws.station_ft, float)
+    target = seg.governing_station_ft if math.isfinite(seg.governing_station_ft) else \
+        seg.station_start_ft
+    k = int(np.argmin(np.abs(st - target)))
+    rg, fg = float(ws.retained_grade_ft[k]), float(ws.front_grade_ft[k])
+    c = spec.criteria
+    tw = seg.top_of_wall_ft if c["top_of_wall"] == "stepped" else rg + c["freeboard_ft"]
+    h = rg - fg
+    emb = fg - seg.bottom_of_footing_ft
+    fb = tw - rg
+    inputs = sd.inputs[wall_id]
+    geom = station_geometry(seg.section, np.float64(h), np.float64(emb), np.float64(fb))
+    checks = check_section(geom, inputs, design_bars(seg.section))
+    weights = section_weights(geom, inputs)
+    thrust = design_thrust(geom, inputs, earth_pressure(inputs))
+    return StationCase(mark, wall_id, seg, float(st[k]), rg, fg, float(tw), geom, inputs,
+                       checks, weights, thrust, tuple(segs))
+
+
+# ---------------------------------------------------------------- check texts
+
+
+@dataclass(frozen=True)
+class CheckText:
+    """One check written out: formula, the numbers put in, and the result."""
+
+    name: str
+    title: str
+    clause: str
+    formula: str
+    numbers: str
+    result: str
+    ratio: float
+    passes: bool
+
+
+def _n(v, fmt=",.0f") -> str:
+    if v is None or not math.isfinite(float(v)):
+        return "n/a"
+    return format(float(v), fmt)
+
+
+def check_texts(case: StationCase) -> list[CheckText]:
+    """Every check row of the case as formula -> numbers -> result (ratio, clause)."""
+    r = case.result
+    g, inp = case.geometry, case.inputs
+    p = case.checks.pressure
+    f = float
+    hs = f(g.soil_height_ft)
+    T_ft = f(g.footing_thickness_ft)
+    B = f(g.footing_width_ft)
+    ot, sl, br = r["overturning"], r["sliding"], r["bearing"]
+    stem, heel, toe = r["stem"], r["heel"], r["toe"]
+    st = case.checks.stability
+    with_q = bool(st.bearing_with_surcharge)
+    case_v = st.case_surcharge if with_q else st.case_dead
+    wu_heel = 1.2 * (inp.unit_weight_pcf * hs + inp.concrete_unit_weight_pcf * T_ft) \
+        + 1.6 * inp.surcharge_psf  # ACI 318-19 5.3.1 via ASCE 7 2.3 (engine's heel load)
+
+    def flex(m):
+        a = m["as_in2"] * inp.fy_psi / (0.85 * inp.fc_psi * 12.0) if m["as_in2"] else math.nan
+        return (f"As = {_n(m['as_in2'], '.3f')} in²/ft, d = {_n(m['d_in'], '.2f')} in, "
+                f"a = As·fy/(0.85·f'c·b) = {_n(a, '.2f')} in, φ = {_n(m['phi'], '.3f')} "
+                f"(εt = {_n(m['eps_t'], '.4f')}), φMn = {_n(m['phi_mn_lbft'])} lb-ft/ft")
+
+    def shear(m, size_effect):
+        lam = "λs·" if size_effect else ""
+        return (f"φVc = 0.75·8·{lam}ρw^(1/3)·√f'c·b·d ≤ 0.75·5·√f'c·b·d with d = "
+                f"{_n(m['d_in'], '.2f')} in, f'c = {inp.fc_psi:,.0f} psi, b = 12 in: "
+                f"φVc = {_n(m['phi_vn_lb'])} lb/ft")
+
+    fs = {
+        "overturning": (
+            "FS_OT = ΣM_R / ΣM_O about the toe at the bottom of footing ≥ FS required; "
+            "resultant inside the base",
+            f"ΣM_R = {_n(ot['m_resisting_lbft'])} lb-ft/ft, ΣM_O = "
+            f"{_n(ot['m_overturning_lbft'])} lb-ft/ft, FS_OT = {_n(ot['fs'], '.2f')} "
+            f"(required {_n(ot['fs_required'], '.2f')}); resultant "
+            f"{'inside' if ot['resultant_in_base'] else 'OUTSIDE'} the base"),
+        "sliding": (
+            "FS_SL = (μ·ΣV + P_p) / ΣH ≥ FS required",
+            f"(μ = {inp.friction_coefficient:g} × ΣV = {_n(sl['sum_v_lb'])} lb/ft + P_p = "
+            f"{_n(sl['passive_lb'])} lb/ft) / ΣH = {_n(sl['h_driving_lb'])} lb/ft: "
+            f"FS_SL = {_n(sl['fs'], '.2f')} (required {_n(sl['fs_required'], '.2f')})"),
+        "bearing": (
+            "e = B/2 − (ΣM_R − ΣM_O)/ΣV; q_max = ΣV/B·(1 + 6e/B) for e ≤ B/6, else "
+            "2ΣV/(3(B/2 − e)) ≤ q_allowable",
+            f"case {br['case']}: ΣV = {_n(float(case_v.sum_v_lb))} lb/ft, B = {B:.2f} ft, "
+            f"e = {_n(br['eccentricity_ft'], '.2f')} ft (B/6 = {B / 6:.2f} ft), q_max = "
+            f"{_n(br['q_max_psf'])} psf, q_min = {_n(br['q_min_psf'])} psf, allowable "
+            f"{_n(br['allowable_psf'])} psf"),
+        "embedment": (
+            "D = front grade − bottom of footing ≥ max(min_embedment_ft, frost_depth_ft)",
+            f"D = {case.front_grade_ft:.2f} − {case.segment.bottom_of_footing_ft:.2f} = "
+            f"{f(g.embedment_ft):.2f} ft"),
+        "stem_flexure": (
+            "Mu = 1.6·(EFP·h_s³/6 + Ka·q·h_s²/2); φMn = φ·As·fy·(d − a/2)",
+            f"h_s = {hs:.2f} ft, EFP = {p.active_efp_pcf:g} pcf, Ka = {p.ka:.3f}, q = "
+            f"{p.surcharge_psf:g} psf: Mu = {_n(stem['mu_lbft'])} lb-ft/ft; " + flex(stem)),
+        "stem_shear": (
+            "Vu = 1.6·(EFP·z²/2 + Ka·q·z) at z = h_s − d (d above the footing)",
+            f"Vu = {_n(stem['vu_lb'])} lb/ft; " + shear(stem, True)),
+        "stem_flexure_height": (
+            "Mu(y) ≤ φMn(y) at sections up the stem (bars full height, thickness tapering)",
+            f"worst at y = {_n(float(case.checks.stem.height_flexure_y_ft), '.2f')} ft above "
+            "the footing"),
+        "stem_shear_height": (
+            "Vu(y) ≤ φVc(y) at sections up the stem",
+            f"worst at y = {_n(float(case.checks.stem.height_shear_y_ft), '.2f')} ft above "
+            "the footing"),
+        "stem_min_steel": ("As ≥ As,min = 0.0018·b·h (h = stem base thickness)",
+                           f"h = {_n(stem['thickness_in'], '.1f')} in"),
+        "stem_spacing": (
+            "s ≤ min(3h, 18 in" + (", crack control 15(40,000/fs) − 2.5cc ≤ 12(40,000/fs))"
+                                   if inp.crack_control else ")"),
+            f"service bar stress fs = {_n(stem['fs_service_psi'])} psi, clear cover "
+            f"{_n(stem['cover_in'], '.2f')} in"),
+        "stem_hook": ("ℓdh ≤ footing thickness − bottom cover",
+                      f"ℓdh = {_n(stem['ldh_in'], '.1f')} in, available "
+                      f"{_n(stem['ldh_available_in'], '.1f')} in"),
+        "heel_flexure": (
+            "wu = 1.2·(γ·h_s + γc·T) + 1.6·q; Mu = wu·L²/2 at the back face of the stem",
+            f"wu = {wu_heel:,.0f} psf, L = {f(g.heel_ft):.2f} ft: Mu = "
+            f"{_n(heel['mu_lbft'])} lb-ft/ft; " + flex(heel)),
+        "heel_shear": ("Vu = wu·L at the back face of the stem",
+                       f"Vu = {_n(heel['vu_lb'])} lb/ft; "
+                       + shear(heel, inp.footing_shear_size_effect)),
+        "heel_min_steel": ("As ≥ 0.0018·b·T", f"T = {f(g.footing_thickness_in):g} in"),
+        "heel_spacing": ("s ≤ min(3T, 18 in)", f"T = {f(g.footing_thickness_in):g} in"),
+        "toe_flexure": (
+            "Mu = 1.6·(bearing pressure moment over the toe) − 0.9·(footing + soil)·L²/2",
+            f"L = {f(g.toe_ft):.2f} ft, pressure of the case {br['case']}: Mu = "
+            f"{_n(toe['mu_lbft'])} lb-ft/ft; " + flex(toe)),
+        "toe_shear": ("Vu = 1.6·(bearing force over the toe) − 0.9·(footing + soil)·L",
+                      f"Vu = {_n(toe['vu_lb'])} lb/ft; "
+                      + shear(toe, inp.footing_shear_size_effect)),
+        "toe_min_steel": ("As ≥ 0.0018·b·T", f"T = {f(g.footing_thickness_in):g} in"),
+        "toe_spacing": ("s ≤ min(3T, 18 in)", f"T = {f(g.footing_thickness_in):g} in"),
+        "toe_depth": ("d of the bottom bars ≥ 6 in", f"d = {_n(toe['d_in'], '.2f')} in"),
+        "stem_horizontal_steel": (
+            "2 faces × As ≥ ρt·b·t_avg (ρt 0.0020 for #5 and smaller, fy ≥ 60 ksi; else 0.0025)",
+            f"t_avg = {(f(g.stem_top_in) + f(g.stem_base_in)) / 2:.1f} in"),
+        "stem_horizontal_spacing": ("s ≤ min(3t, 18 in)", f"t = {f(g.stem_top_in):g} in"),
+        "footing_longitudinal_steel": ("2 mats × As ≥ 0.0018·b·T",
+                                       f"T = {f(g.footing_thickness_in):g} in"),
+        "footing_longitudinal_spacing": ("s ≤ min(5T, 18 in)",
+                                         f"T = {f(g.footing_thickness_in):g} in"),
+    }
+    out = []
+    for row in r["checks"]:
+        formula, numbers = fs.get(row["name"], ("demand ≤ capacity", ""))
+        ratio = row["ratio"]
+        unit = "" if row["unit"] == "-" else f" {row['unit']}"
+        if row["name"] in ("overturning", "sliding"):
+            dc = (f"required FS {_n(row['demand'], '.2f')} / provided "
+                  f"{_n(row['capacity'], '.2f')}")
+        else:
+            fmt = ".3f" if row["unit"] in ("in2/ft",) else ",.2f" if row["unit"] in (
+                "in", "ft") else ",.0f"
+            dc = (f"demand {_n(row['demand'], fmt)}{unit} / capacity "
+                  f"{_n(row['capacity'], fmt)}{unit}")
+        rtxt = "inf" if ratio is None and not row["passes"] else _n(ratio, ".3f")
+        verdict = "OK" if row["passes"] else "FAILS"
+        out.append(CheckText(row["name"], row["title"], row["clause"], formula, numbers,
+                             f"{dc} = ratio {rtxt} -> {verdict}",
+                             math.inf if ratio is None else float(ratio), bool(row["passes"])))
+    return out
+
+
+# ---------------------------------------------------------------- the sketch
+
+
+def section_sketch_png(case: StationCase, *, dpi: int = 150) -> bytes:
+    """A dimensioned cross-section of the case (matplotlib, Agg) as PNG bytes."""
+    import matplotlib
+
+    matplotlib.use("Agg")
+    import matplotlib.pyplot as plt
+    from matplotlib.patches import Polygon
+
+    from .dxf_elevation import format_ft_in
+
+    sec, g = case.segment.section, case.geometry
+    T = sec.footing_thickness_in / 12.0
+    B = sec.footing_width_ft
+    tb, tt = sec.stem_base_in / 12.0, sec.stem_top_in / 12.0
+    toe = sec.toe_ft
+    hst = float(g.stem_height_ft)
+    D = float(g.embedment_ft)
+    H = float(g.design_height_ft)
+    xf0 = toe
+    xb0 = toe + tb
+    if sec.batter_face == "back":
+        xf1, xb1 = xf0, xf0 + tt
+    else:
+        xf1, xb1 = xb0 - tt, xb0
+    fig, ax = plt.subplots(figsize=(6.4, 4.0))
+    concrete = dict(facecolor="#d9d9d9", edgecolor="black", lw=1.2)
+    ax.add_patch(Polygon([(0, 0), (B, 0), (B, T), (0, T)], closed=True, **concrete))
+    ax.add_patch(Polygon([(xf0, T), (xb0, T), (xb1, T + hst), (xf1, T + hst)], closed=True,
+                         **concrete))
+    kd = sec.key_depth_in / 12.0 if sec.has_key else 0.0
+    if sec.has_key:
+        kw, ko = sec.key_width_in / 12.0, sec.key_offset_ft
+        ax.add_patch(Polygon([(ko, 0), (ko + kw, 0), (ko + kw, -kd), (ko, -kd)], closed=True,
+                             **concrete))
+    # grades
+    ax.plot([xb0 + (xb1 - xb0) * (H - T) / hst, B + 1.5], [H, H], color="#8b5a2b", lw=1.5)
+    ax.text(B + 1.5, H, " retained grade", va="center", fontsize=7)
+    ax.plot([-2.0, xf0], [D, D], color="#2e7d32", lw=1.5)
+    ax.text(xf0 - 0.15, D + 0.08, "front grade", va="bottom", ha="right", fontsize=7)
+    # thrust on the heel plane
+    ax.plot([B, B], [0, H], color="0.5", lw=0.8, ls=":")
+    for comp in case.thrust.components:
+        y = float(comp.arm_ft)
+        if float(comp.horizontal_lb) > 0:
+            ax.annotate("", xy=(B, y), xytext=(B + 1.2, y),
+                        arrowprops=dict(arrowstyle="->", color="#c62828", lw=1.2))
+            ax.text(B + 1.25, y, f" {comp.name} {float(comp.horizontal_lb):,.0f} lb/ft @ "
+                    f"{y:.2f} ft", va="center", fontsize=6.5, color="#c62828")
+
+    def dim_h(x0, x1, y, label):
+        ax.annotate("", xy=(x0, y), xytext=(x1, y),
+                    arrowprops=dict(arrowstyle="<->", lw=0.7, shrinkA=0, shrinkB=0))
+        ax.text((x0 + x1) / 2, y - 0.12, label, ha="center", va="top", fontsize=6.5)
+
+    def dim_v(x, y0, y1, label, side="left"):
+        ax.annotate("", xy=(x, y0), xytext=(x, y1),
+                    arrowprops=dict(arrowstyle="<->", lw=0.7, shrinkA=0, shrinkB=0))
+        ax.text(x + (-0.1 if side == "left" else 0.1), (y0 + y1) / 2, label, rotation=90,
+                ha="right" if side == "left" else "left", va="center", fontsize=6.5)
+
+    yb = -kd - 0.5
+    dim_h(0, toe, yb, f"toe {format_ft_in(toe)}")
+    dim_h(xf0, xb0, yb - 0.55, f"stem {sec.stem_base_in:g}\"")
+    dim_h(xb0, B, yb, f"heel {format_ft_in(sec.heel_ft)}")
+    dim_h(0, B, yb - 1.1, f"B = {format_ft_in(B)}")
+    dim_h(xf1, xb1, T + hst + 0.35, f"{sec.stem_top_in:g}\"")
+    dim_v(-0.4, 0, T, f"T {sec.footing_thickness_in:g}\"")
+    dim_v(-2.3, 0, D, f"D {D:.2f}'")
+    dim_v(-2.3, D, H, f"h {float(g.retained_height_ft):.2f}'")
+    dim_v(-3.2, 0, H, f"H {H:.2f}'")
+    dim_v(xf0 - 0.35 if toe > 0.8 else xf0 + (xb1 - xf0) / 2, T, T + hst,
+          f"stem {hst:.2f}'")
+    if sec.has_key:
+        ax.text(ko + kw / 2, -kd - 0.1, f"key {sec.key_width_in:g}\" x {sec.key_depth_in:g}\"",
+                ha="center", va="top", fontsize=6.5)
+    ax.set_aspect("equal")
+    ax.set_xlim(-3.9, B + 7.5)
+    ax.set_ylim(yb - 2.0, T + hst + 1.0)
+    ax.axis("off")
+    ax.set_title(f"Section {case.mark} at station {format_station(case.station_ft)} "
+                 f"(wall {case.wall}, segment {case.segment.segment})", fontsize=8)
+    buf = io.BytesIO()
+    fig.savefig(buf, format="png", dpi=dpi, bbox_inches="tight", facecolor="white",
+                metadata={"Software": None})
+    plt.close(fig)
+    return buf.getvalue()
+
+
+# ---------------------------------------------------------------- the PDF
+
+
+def _font_files() -> dict[str, Path]:
+    import matplotlib
+
+    d = Path(matplotlib.get_data_path()) / "fonts" / "ttf"
+    return {"": d / "DejaVuSans.ttf", "B": d / "DejaVuSans-Bold.ttf",
+            "I": d / "DejaVuSans-Oblique.ttf", "mono": d / "DejaVuSansMono.ttf"}
+
+
+def _make_pdf(site_name: str, version: str):
+    from fpdf import FPDF
+
+    class Report(FPDF):
+        def header(self):
+            if self.page_no() == 1:
+                return
+            self.set_font(FONT, "", 7)
+            self.set_text_color(90)
+            self.cell(0, 4, f"{site_name} - retaining wall calculations (wallsched {version})",
+                      align="L")
+            self.ln(6)
+            self.set_text_color(0)
+
+        def footer(self):
+            self.set_y(-12)
+            self.set_font(FONT, "", 6.5)
+            self.set_text_color(90)
+            self.cell(0, 3.5, CAUTIONS[0] + " " + CAUTIONS[2], align="L")
+            self.ln(3.5)
+            self.cell(0, 3.5, f"page {self.page_no()} of {{nb}}", align="R")
+            self.set_text_color(0)
+
+    pdf = Report(orientation="P", unit="mm", format="letter")
+    fonts = _font_files()
+    pdf.add_font(FONT, "", str(fonts[""]))
+    pdf.add_font(FONT, "B", str(fonts["B"]))
+    pdf.add_font(FONT, "I", str(fonts["I"]))
+    pdf.add_font(MONO, "", str(fonts["mono"]))
+    pdf.set_margins(MARGIN_MM, MARGIN_MM, MARGIN_MM)
+    pdf.set_auto_page_break(True, margin=16)
+    return pdf
+
+
+class _Writer:
+    """Paragraphs and tables drawn with ``cell`` and a word-wrap of our own (fpdf2's
+    ``multi_cell`` is exact but slow for a package of a hundred pages)."""
+
+    def __init__(self, pdf):
+        self.pdf = pdf
+        self._widths: dict = {}
+
+    def width(self, text: str) -> float:
+        p = self.pdf
+        key = (p.font_family, p.font_style, p.font_size_pt, text)
+        w = self._widths.get(key)
+        if w is None:
+            w = self._widths[key] = p.get_string_width(text)
+        return w
+
+    def wrap(self, text: str, width: float) -> list[str]:
+        """Lines of ``text`` no wider than ``width`` (mm), broken at blanks; an over-long
+        word is broken by characters."""
+        out = []
+        for raw in str(text).split("\n"):
+            lead = len(raw) - len(raw.lstrip(" "))
+            words = raw.split()
+            line, lw = " " * lead, self.width(" " * lead) if lead else 0.0
+            sp = self.width(" ")
+            for word in words:
+                ww = self.width(word)
+                if line.strip() and lw + sp + ww > width:
+                    out.append(line)
+                    line, lw = " " * lead, self.width(" " * lead) if lead else 0.0
+                while ww > width and len(word) > 1:
+                    k = len(word) - 1
+                    while k > 1 and self.width(word[:k]) > width - lw:
+                        k -= 1
+                    out.append(line + word[:k])
+                    word = word[k:]
+                    ww = self.width(word)
+                    line, lw = " " * lead, self.width(" " * lead) if lead else 0.0
+                if line.strip():
+                    line, lw = line + " " + word, lw + sp + ww
+                else:
+                    line, lw = line + word, lw + ww
+            out.append(line)
+        return out
+
+    def lines(self, text, h):
+        p = self.pdf
+        for line in self.wrap(text, p.w - p.l_margin - p.r_margin):
+            if p.get_y() + h > p.page_break_trigger:
+                p.add_page()
+            p.cell(0, h, line, new_x="LMARGIN", new_y="NEXT")
+
+    def h1(self, text):
+        p = self.pdf
+        p.start_section(text, level=0)
+        p.set_font(FONT, "B", 14)
+        self.lines(text, 7)
+        p.ln(1)
+        p.set_font(FONT, "", 9)
+
+    def h2(self, text, *, toc=False):
+        p = self.pdf
+        if p.get_y() > p.h - 40:
+            p.add_page()
+        if toc:
+            p.start_section(text, level=1)
+        p.ln(1.5)
+        p.set_font(FONT, "B", 10.5)
+        self.lines(text, 5.5)
+        p.set_font(FONT, "", 9)
+
+    def para(self, text, size=9, style="", h=4.4, mono=False, color=None):
+        p = self.pdf
+        p.set_font(MONO if mono else FONT, "" if mono else style, size)
+        if color:
+            p.set_text_color(*color)
+        self.lines(text, h)
+        p.set_text_color(0)
+        p.set_font(FONT, "", 9)
+
+    def table(self, headers, rows, widths=None, size=7.5, bold_rows=()):
+        """A ruled table; header repeated on each page; ``bold_rows`` in bold red."""
+        p = self.pdf
+        n = len(headers)
+        avail = p.w - p.l_margin - p.r_margin
+        widths = list(widths) if widths else [avail / n] * n
+        scale = avail / sum(widths) if sum(widths) > avail else 1.0
+        widths = [w * scale for w in widths]
+        lh = size * 0.42
+        pad = 0.8
+
+        def draw(cells, style, color=None):
+            p.set_font(FONT, style, size)
+            wrapped = [self.wrap(str(c), w - 2 * pad) for c, w in zip(cells, widths,
+                                                                       strict=True)]
+            hgt = max(len(x) for x in wrapped) * lh + 2 * pad * 0.6
+            if p.get_y() + hgt > p.page_break_trigger:
+                p.add_page()
+                if style != "B" or color:
+                    draw(headers, "B")
+                    p.set_font(FONT, style, size)
+            x0, y0 = p.l_margin, p.get_y()
+            if color:
+                p.set_text_color(*color)
+            x = x0
+            for lines_, w in zip(wrapped, widths, strict=True):
+                p.rect(x, y0, w, hgt)
+                for i, line in enumerate(lines_):
+                    p.set_xy(x + pad, y0 + pad * 0.6 + i * lh)
+                    p.cell(w - 2 * pad, lh, line)
+                x += w
+            p.set_text_color(0)
+            p.set_xy(x0, y0 + hgt)
+
+        p.set_line_width(0.15)
+        draw(headers, "B")
+        bad = set(bold_rows)
+        for i, r in enumerate(rows):
+            if i in bad:
+                draw(r, "B", (180, 0, 0))
+            else:
+                draw(r, "")
+        p.set_font(FONT, "", 9)
+        p.ln(1.5)
+
+
+def _toc_pages(n_entries: int) -> int:
+    return max(1, math.ceil((n_entries + 4) / 48))
+
+
+def _render_toc(pdf, outline):
+    pdf.set_xy(MARGIN_MM, MARGIN_MM + 6)
+    pdf.set_font(FONT, "B", 14)
+    pdf.cell(0, 8, "Contents", new_x="LMARGIN", new_y="NEXT")
+    pdf.ln(2)
+    for entry in outline:
+        pdf.set_font(FONT, "B" if entry.level == 0 else "", 9 if entry.level == 0 else 8.5)
+        indent = 6 * entry.level
+        pdf.set_x(MARGIN_MM + indent)
+        w = pdf.w - 2 * MARGIN_MM - indent - 12
+        pdf.cell(w, 4.6, entry.name, link=pdf.add_link(page=entry.page_number))
+        pdf.cell(12, 4.6, str(entry.page_number), align="R", new_x="LMARGIN", new_y="NEXT")
+
+
+def _given(site, wall_spec, table: str, key: str) -> bool:
+    raw = site.raw
+    if key in (raw.get(table) or {}):
+        return True
+    for w in raw.get("walls") or []:
+        if (isinstance(w, dict) and str(w.get("id", "")).strip() == wall_spec.id
+                and (key in w or key in (w.get(table) or {}))):
+            return True
+    return False
+
+
+def _fmt_value(v) -> str:
+    if v is None:
+        return "-"
+    if isinstance(v, bool):
+        return "true" if v else "false"
+    if isinstance(v, float):
+        return f"{v:g}"
+    return str(v)
+
+
+def _parameter_rows(site, table: str, keys: dict):
+    """Rows ``key | value per wall | source`` of one resolved table."""
+    rows = []
+    for k, spec in keys.items():
+        if table == "soil" and k == "source":
+            continue
+        vals = [w.__getattribute__(table).get(k) for w in site.walls]
+        if table == "soil" and all(v is None for v in vals):
+            continue
+        given = [_given(site, w, table, k) for w in site.walls]
+        if table == "soil":
+            src = "site file; see the stated source below" if all(given) else "site file"
+        elif all(given):
+            src = "site file"
+        elif any(given):
+            src = "site file (some walls); else default: " + spec.doc
+        else:
+            src = "default: " + spec.doc
+        rows.append([k, *(_fmt_value(v) for v in vals), src])
+    return rows
+
+
+def write_report(site, sd, path, *, diff=None, date: _dt.date | None = None) -> Path:
+    """Write the calc package to ``path`` (``report.pdf``); returns the path.
+
+    ``diff`` is a :class:`~wallsched.exporters.diff.RunDiff` against an earlier run (its
+    summary becomes the last chapter); ``date`` defaults to today.
+    """
+    from .. import __version__
+    from ..keys import CRITERIA_KEYS, LOADS_KEYS, MATERIALS_KEYS, SOIL_KEYS
+    from .dxf_elevation import format_ft_in
+
+    path = Path(path)
+    date = date or _dt.date.today()
+    marks = mark_segments(sd)
+    cases = {m: station_case(site, sd, m) for m in marks}
+    pdf = _make_pdf(site.name, __version__)
+    pdf.set_title(f"{site.name} - retaining wall calculations")
+    pdf.set_author("wallsched " + __version__)
+    pdf.set_creator("wallsched " + __version__)
+    pdf.set_creation_date(_dt.datetime(date.year, date.month, date.day,
+                                       tzinfo=_dt.UTC))
+    wr = _Writer(pdf)
+    n_walls = len(sd.walls)
+
+    # ---- cover
+    pdf.add_page()
+    pdf.set_font(FONT, "B", 20)
+    pdf.ln(10)
+    pdf.multi_cell(0, 10, site.name, new_x="LMARGIN", new_y="NEXT")
+    pdf.set_font(FONT, "", 13)
+    pdf.multi_cell(0, 7, "Cantilevered reinforced-concrete site retaining walls - "
+                         "calculation package", new_x="LMARGIN", new_y="NEXT")
+    pdf.ln(3)
+    pdf.set_font(FONT, "", 9.5)
+    meta = [f"Date: {date.isoformat()}", f"Made with wallsched {__version__}",
+            f"Walls: {', '.join(w.wall for w in sd.walls)}"]
+    if site.meta.get("engineer"):
+        meta.append(f"Engineer: {site.meta['engineer']}")
+    if site.meta.get("notes"):
+        meta.append(f"Notes: {site.meta['notes']}")
+    overall = "every segment passes every check" if sd.ok else \
+        "SOME SEGMENTS FAIL OR COULD NOT BE DESIGNED - see the site summary"
+    meta.append(f"Result: {overall}")
+    for line in meta:
+        wr.para(line, size=9.5)
+    pdf.ln(3)
+    pdf.set_draw_color(180, 0, 0)
+    pdf.set_line_width(0.6)
+    y0 = pdf.get_y()
+    pdf.set_font(FONT, "B", 10)
+    pdf.set_text_color(180, 0, 0)
+    pdf.multi_cell(0, 5.5, "CAUTIONS", new_x="LMARGIN", new_y="NEXT")
+    pdf.set_text_color(0)
+    for i, line in enumerate(CAUTIONS, 1):
+        wr.para(f"{i}. {line}", size=9)
+    pdf.rect(MARGIN_MM - 2, y0 - 2, pdf.w - 2 * MARGIN_MM + 4, pdf.get_y() - y0 + 4)
+    pdf.set_draw_color(0)
+    pdf.set_line_width(0.2)
+    pdf.ln(6)
+    wr.h2("Input files (SHA-256)")
+    for name, digest in site.input_hashes().items():
+        wr.para(name, size=8)
+        wr.para("    " + digest, size=7, mono=True, h=3.6)
+
+    # ---- contents
+    pdf.add_page()
+    n_entries = 6 + n_walls + len(marks) + (1 if diff is not None else 0)
+    pdf.insert_toc_placeholder(_render_toc, pages=_toc_pages(n_entries))
+
+    # ---- design basis
+    pdf.add_page()
+    wr.h1("Design basis")
+    wr.para("Resolved values per wall (site-file values, per-wall overrides and the "
+            "documented defaults), with where each comes from.", size=8.5, style="I")
+    heads = ["key", *(w.id for w in site.walls), "source"]
+    widths = [34, *([14] * n_walls), 186 - 34 - 14 * n_walls]
+    srcs = sorted({str(w.soil.get("source")) for w in site.walls if w.soil.get("source")})
+    wr.h2("Soil (from the geotechnical report; never defaulted)", toc=True)
+    wr.table(heads, _parameter_rows(site, "soil", SOIL_KEYS), widths)
+    wr.para("Stated source of the soil values: " + ("; ".join(srcs) if srcs else
+            "NONE STATED - the site file gives no [soil] source; the values must be confirmed "
+            "against the geotechnical report"), size=8.5, style="B")
+    wr.h2("Loads and materials", toc=True)
+    wr.table(heads, _parameter_rows(site, "loads", LOADS_KEYS)
+             + _parameter_rows(site, "materials", MATERIALS_KEYS), widths)
+    wr.h2("Criteria", toc=True)
+    wr.table(heads, _parameter_rows(site, "criteria", CRITERIA_KEYS), widths, size=7)
+    wr.h2("Load factors and methods")
+    from ..engine.checks import LOAD_FACTORS
+
+    for line in LOAD_FACTORS:
+        wr.para("- " + line, size=8.5)
+    wr.para("- Active pressure on the vertical plane through the heel edge over the design "
+            "height H (retained grade to bottom of footing); surcharge lateral pressure Ka·q "
+            "over H (Ka = EFP/γ when an EFP is given). Overturning about the toe; sliding "
+            "resistance μ·ΣV plus passive below the neglected depth; bearing by the kern rule "
+            "(IBC 2021 1807.2.3; DESIGN basis of this program).", size=8.5)
+
+    # ---- site summary
+    pdf.add_page()
+    wr.h1("Site summary")
+    rows, bad_rows = [], []
+    for w in sd.walls:
+        segs = w.segments
+        if not segs:
+            rows.append([w.wall, w.name or "", "0", "-", "-", "-", "-", "-",
+                         "no wall needed"])
+            continue
+        length = sum(s.length_ft for s in segs)
+        hmax = max(s.retained_height_max_ft for s in segs)
+        cy = sum(s.concrete_cy for s in segs if math.isfinite(s.concrete_cy))
+        lb = sum(s.steel_lb for s in segs if math.isfinite(s.steel_lb))
+        top = max(segs, key=lambda s: s.utilization_max if math.isfinite(s.utilization_max)
+                  else -1.0)
+        nbad = sum(not s.ok for s in segs)
+        gov = (f"{top.governing_check} {top.utilization_max:.3f} at "
+               f"{format_station(top.governing_station_ft)} ({top.segment})"
+               if math.isfinite(top.utilization_max) else "-")
+        status = "OK" if nbad == 0 else f"{nbad} FAIL"
+        if nbad:
+            bad_rows.append(len(rows))
+        rows.append([w.wall, w.name or "", str(len(segs)), f"{length:.1f}", f"{hmax:.2f}",
+                     f"{cy:.1f}", f"{lb:,.0f}", gov, status])
+    wr.table(["wall", "name", "segments", "length ft", "H max ft", "concrete CY", "steel lb",
+              "most-utilised check (ratio, station)", "status"], rows,
+             [10, 38, 14, 15, 14, 17, 16, 48, 14], bold_rows=bad_rows)
+    for w in sd.walls:
+        wr.h2(f"Wall {w.wall} segments" + (f" - {w.name}" if w.name else ""), toc=True)
+        srows, sbad = [], []
+        for i, s in enumerate(w.segments):
+            if not s.ok:
+                sbad.append(i)
+            srows.append([s.segment, s.mark or "-",
+                          f"{format_station(s.station_start_ft)} - "
+                          f"{format_station(s.station_end_ft)}",
+                          f"{s.retained_height_max_ft:.2f}",
+                          _n(s.fs_overturning, ".2f"), _n(s.fs_sliding, ".2f"),
+                          _n(s.q_max_psf, ",.0f"), _n(s.utilization_max, ".3f"),
+                          s.governing_check or "-", _n(s.concrete_cy, ".1f"),
+                          "OK" if s.ok else "FAIL: " + s.status])
+        wr.table(["segment", "mark", "stations", "H max ft", "FS OT", "FS SL", "q max psf",
+                  "ratio max", "governing check", "conc. CY", "status"], srows,
+                 [15, 10, 34, 13, 11, 11, 14, 13, 33, 12, 20], size=7, bold_rows=sbad)
+    failing = [(w.wall, s) for w in sd.walls for s in w.segments if not s.ok]
+    if failing:
+        wr.h2("FAILING SEGMENTS")
+        for wid, s in failing:
+            wr.para(f"{wid} {s.segment} ({format_station(s.station_start_ft)} to "
+                    f"{format_station(s.station_end_ft)}): FAILS - {s.status}", size=8.5,
+                    style="B")
+
+    # ---- section marks
+    for mark, case in cases.items():
+        pdf.add_page()
+        seg = case.segment
+        sec = seg.section
+        wr.h1(f"Section {mark}" + ("" if case.passes else " - FAILS"))
+        used = ", ".join(s.segment for _, s in case.segments)
+        wr.para(f"Used by segments {used}.", size=8.5)
+        wr.para(f"Stem {sec.stem_top_in:g}\" top / {sec.stem_base_in:g}\" base "
+                f"({sec.batter_face} face battered), footing {sec.footing_thickness_in:g}\" "
+                f"thick, toe {format_ft_in(sec.toe_ft)}, heel {format_ft_in(sec.heel_ft)}, "
+                f"B = {format_ft_in(sec.footing_width_ft)}"
+                + (f", key {sec.key_width_in:g}\" wide x {sec.key_depth_in:g}\" deep at "
+                   f"{format_ft_in(sec.key_offset_ft)} from the toe" if sec.has_key else
+                   ", no key")
+                + f". Bars: stem {sec.stem_bars}, heel top {sec.heel_bars}, toe bottom "
+                  f"{sec.toe_bars}, stem horizontal {sec.horizontal_bars} each face, footing "
+                  f"longitudinal {sec.footing_long_bars} each mat.", size=8.5)
+        pdf.image(io.BytesIO(section_sketch_png(case)), x=MARGIN_MM + 15, w=125)
+        wr.h2(f"Governing station {format_station(case.station_ft)} (wall {case.wall}, "
+              f"segment {seg.segment})")
+        g = case.geometry
+        wr.para(f"Retained grade {case.retained_grade_ft:.2f}, front grade "
+                f"{case.front_grade_ft:.2f}, top of wall {case.top_of_wall_ft:.2f}, top of "
+                f"footing {seg.top_of_footing_ft:.2f}, bottom of footing "
+                f"{seg.bottom_of_footing_ft:.2f} (ft). Retained height h = "
+                f"{float(g.retained_height_ft):.2f} ft, embedment D = {float(g.embedment_ft):.2f}"
+                f" ft, design height H = {float(g.design_height_ft):.2f} ft, freeboard "
+                f"{float(g.freeboard_ft):.2f} ft. Segment ratio max "
+                f"{_n(seg.utilization_max, '.3f')} ({seg.governing_check}).", size=8.5)
+        p = case.checks.pressure
+        inp = case.inputs
+        wr.para(f"γ = {inp.unit_weight_pcf:g} pcf, active {p.basis}: EFP = "
+                f"{p.active_efp_pcf:.1f} pcf, Ka = {p.ka:.3f}; passive EFP = "
+                f"{p.passive_efp_pcf:g} pcf from {inp.passive_neglect_ft:g} ft below front "
+                f"grade; μ = {inp.friction_coefficient:g}; q = {inp.surcharge_psf:g} psf; "
+                f"allowable bearing {inp.allowable_bearing_psf:,.0f} psf; f'c = "
+                f"{inp.fc_psi:,.0f} psi, fy = {inp.fy_psi:,.0f} psi, γc = "
+                f"{inp.concrete_unit_weight_pcf:g} pcf.", size=8.5)
+        wr.h2("Loads and forces (service, per foot of wall; arms from the toe)")
+        wrows = []
+        names = {"stem_rectangle": "stem, rectangle", "stem_batter": "stem, batter triangle",
+                 "footing": "footing", "key": "shear key", "soil_heel": "soil over heel",
+                 "soil_batter": "soil over battered face", "soil_toe": "soil over toe",
+                 "surcharge": "surcharge over heel (live)"}
+        wt = case.weights
+        from dataclasses import fields as _fields
+
+        for fld in _fields(wt):
+            k = fld.name
+            wgt = getattr(wt, k)
+            if wgt is None or not hasattr(wgt, "arm_ft"):
+                continue
+            label = names.get(k, k.replace("_", " "))
+            lb_, arm = float(wgt.lb), float(wgt.arm_ft)
+            if lb_ == 0:
+                continue
+            resists = k != "surcharge" or inp.surcharge_resists
+            wrows.append([label, "vertical", f"{lb_:,.0f}", f"{arm:.2f}",
+                          f"{lb_ * arm:,.0f}", "resisting" if resists else
+                          "bearing case only"])
+        for comp in case.thrust.components:
+            hl, arm = float(comp.horizontal_lb), float(comp.arm_ft)
+            if hl == 0:
+                continue
+            wrows.append([comp.name, "horizontal", f"{hl:,.0f}", f"{arm:.2f} above BF",
+                          f"{hl * arm:,.0f}", "overturning"])
+        st = case.checks.stability
+        if float(st.passive_lb) > 0:
+            wrows.append(["passive on the front", "horizontal", f"{float(st.passive_lb):,.0f}",
+                          "-", "-", "sliding only"])
+        wr.table(["load", "direction", "force lb/ft", "arm ft", "moment lb-ft/ft", "role"],
+                 wrows, [52, 20, 22, 26, 28, 38])
+        wr.h2("Checks (formula -> numbers -> result)")
+        for ct in check_texts(case):
+            if pdf.get_y() > pdf.h - 34:
+                pdf.add_page()
+            wr.para(f"{ct.title} [{ct.clause}]", size=8.5, style="B", h=4.2,
+                    color=None if ct.passes else (180, 0, 0))
+            wr.para("    " + ct.formula, size=7.8, h=3.8)
+            if ct.numbers:
+                wr.para("    " + ct.numbers, size=7.8, h=3.8)
+            wr.para("    " + ct.result, size=7.8, h=3.8, style="" if ct.passes else "B",
+                    color=None if ct.passes else (180, 0, 0))
+        verdict = ("All checks pass at the governing station." if case.passes else
+                   "THIS SECTION FAILS at the governing station (see the FAILS lines).")
+        wr.para(verdict, size=9, style="B")
+
+    # ---- bar list
+    pdf.add_page()
+    wr.h1("Bar list")
+    import pandas as pd
+
+    frames = [w.extra.get("bars") for w in sd.walls if w.extra.get("bars") is not None
+              and len(w.extra["bars"])]
+    bars = pd.concat(frames, ignore_index=True) if frames else None
+    if bars is None:
+        wr.para("No bars: no wall needed.")
+    else:
+        brow = [[r.wall, r.segment, r.mark, f"#{r.size}", f"{r.spacing_in:g}", f"{r.count}",
+                 format_ft_in(r.length_ft), r.shape, f"{r.weight_lb:,.1f}"]
+                for r in bars.itertuples()]
+        for wid in dict.fromkeys(bars["wall"]):
+            b = bars[bars["wall"] == wid]
+            brow.append([wid, "WALL TOTAL", "", "", "", f"{int(b['count'].sum())}", "", "",
+                         f"{b['weight_lb'].sum():,.1f}"])
+        brow.append(["SITE", "TOTAL", "", "", "", f"{int(bars['count'].sum())}", "", "",
+                     f"{bars['weight_lb'].sum():,.1f}"])
+        wr.table(["wall", "segment", "mark", "size", "spacing in", "count", "cut length",
+                  "shape", "weight lb"], brow, [14, 22, 14, 14, 20, 16, 24, 40, 22], size=7)
+        wr.para("ASTM A615 Grade 60. Hooks per ACI 318-19 Table 25.3.1; laps Class B per "
+                "ACI 318-19 25.5.2.", size=8)
+
+    # ---- revision
+    if diff is not None:
+        pdf.add_page()
+        wr.h1("Revision: changes against the earlier run")
+        for line in diff.summary_lines():
+            wr.para(line, size=8)
+
+    path.parent.mkdir(parents=True, exist_ok=True)
+    pdf.output(str(path))
+    return path
