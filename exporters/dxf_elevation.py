@@ -48,6 +48,11 @@ LAYERS: dict[str, tuple[int, str, str]] = {
     "C-GRAD-FRNT": (3, "Continuous", "front grade"),
     "C-GRAD-EXST": (8, "DOT", "existing ground"),
 }
+# revision clouds and tags (drawn only when a comparison run gives changed station ranges)
+REVISION_LAYER = "C-ANNO-REVS"
+REVISION_LAYER_STYLE = (1, "Continuous", "revision clouds and revision tags")
+CLOUD_CHORD_FT = 6.0  # scallop chord, drawn ft (0.3" at 1" = 20')
+CLOUD_ARC_DEG = 120.0  # included angle of each scallop
 POLYLINE_LAYERS = ("C-WALL-OTLN", "C-WALL-FTNG", "C-GRAD-RETD", "C-GRAD-FRNT", "C-GRAD-EXST")
 
 
@@ -177,12 +182,17 @@ def _bottom_ft(seg) -> float:
 
 
 def write_elevation_dxf(design, path, *, input_hash: str, site_name: str,
-                        vertical_exaggeration: float = 1.0, bars=None, quantities=None) -> Path:
+                        vertical_exaggeration: float = 1.0, bars=None, quantities=None,
+                        revisions=None, revision_tag: str = "1") -> Path:
     """Write ``<wall>-elevation.dxf`` for one :class:`WallDesign`; returns the path written.
 
     ``path`` is a file path or a folder (then the file is named :func:`elevation_dxf_name`).
     ``bars`` is the wall's bar list and ``quantities`` its per-segment quantity frame (both
     from the engine; computed here from the design when not given).
+    ``revisions`` is a list of changed ``(station_start_ft, station_end_ft)`` ranges (e.g.
+    ``RunDiff.changed_station_ranges(wall)``): each gets a revision cloud around that stretch
+    of the elevation, with a revision tag (a triangle holding ``revision_tag``), on the layer
+    :data:`REVISION_LAYER`. None or empty draws no revision layer.
     """
     import ezdxf
 
@@ -205,12 +215,14 @@ def write_elevation_dxf(design, path, *, input_hash: str, site_name: str,
     ezdxf.options.write_fixed_meta_data_for_testing = True  # fixed dates, GUIDs and marker
     try:
         return _write(design, path, input_hash=input_hash, site_name=site_name,
-                      ve=vertical_exaggeration, bars=bars, quantities=quantities)
+                      ve=vertical_exaggeration, bars=bars, quantities=quantities,
+                      revisions=list(revisions or ()), revision_tag=str(revision_tag))
     finally:
         ezdxf.options.write_fixed_meta_data_for_testing = old
 
 
-def _write(design, path: Path, *, input_hash, site_name, ve, bars, quantities) -> Path:
+def _write(design, path: Path, *, input_hash, site_name, ve, bars, quantities,
+           revisions=(), revision_tag="1") -> Path:
     import ezdxf
 
     from ..engine.detailing import describe
@@ -228,6 +240,10 @@ def _write(design, path: Path, *, input_hash, site_name, ve, bars, quantities) -
         layer.description = desc
     sheet = _Sheet(doc.modelspace())
     extents = _draw_elevation(sheet, design, vertical_exaggeration, site_name)
+    if revisions:
+        colour, ltype, desc = REVISION_LAYER_STYLE
+        doc.layers.add(REVISION_LAYER, color=colour, linetype=ltype).description = desc
+        _draw_revisions(sheet, design, revisions, revision_tag)
     x_right, y_bottom, y_top = extents
     sec_x0 = x_right + 30.0
     _draw_sections(sheet, design, sec_x0, y_bottom, bars)
@@ -260,6 +276,7 @@ def _draw_elevation(sh: _Sheet, design, ve: float, site_name: str):
 
     pad = 10.0
     gx0, gx1 = s0 - pad, s1 + pad
+    sh.elev_y = Y  # the elevation's vertical transform, for the revision clouds
     # elevation grid with labels both sides
     e = datum
     while e <= top_el + 1e-9:
@@ -369,6 +386,71 @@ def _draw_elevation(sh: _Sheet, design, ve: float, site_name: str):
         sh.text(label, (x + 11.0, ty + 1.0), TEXT_SMALL_FT, "C-WALL-NOTE", align="MIDDLE_LEFT")
         x += 13.0 + len(label) * CHAR_W * TEXT_SMALL_FT
     return max(gx1 + 12.0, x), Y(datum) - 6.0, ty + 12.0
+
+
+def cloud_arcs(x0: float, y0: float, x1: float, y1: float, *, chord_ft: float = CLOUD_CHORD_FT,
+               arc_deg: float = CLOUD_ARC_DEG):
+    """Scallops of a revision cloud around the rectangle (x0, y0)-(x1, y1): a list of
+    ``(centre_x, centre_y, radius, start_deg, end_deg)`` arcs, counter-clockwise, each bulging
+    outward and meeting the next at a point of the rectangle."""
+    corners = [(x0, y0), (x1, y0), (x1, y1), (x0, y1)]
+    half = math.radians(arc_deg) / 2.0
+    out = []
+    for (ax, ay), (bx, by) in zip(corners, corners[1:] + corners[:1], strict=True):
+        side = math.hypot(bx - ax, by - ay)
+        n = max(1, round(side / chord_ft))
+        dx, dy = (bx - ax) / side, (by - ay) / side
+        nx, ny = dy, -dx  # outward normal of a counter-clockwise outline
+        c = side / n
+        r = c / (2.0 * math.sin(half))
+        off = r * math.cos(half)  # the centre lies inside the outline
+        for i in range(n):
+            px, py = ax + dx * c * i, ay + dy * c * i
+            qx, qy = px + dx * c, py + dy * c
+            cx, cy = (px + qx) / 2 - nx * off, (py + qy) / 2 - ny * off
+            a0 = math.degrees(math.atan2(py - cy, px - cx)) % 360.0
+            a1 = math.degrees(math.atan2(qy - cy, qx - cx)) % 360.0
+            out.append((cx, cy, r, a0, a1))
+    return out
+
+
+def _draw_revisions(sh: _Sheet, design, ranges, tag: str) -> None:
+    """A revision cloud around each changed station range of the elevation, and its tag."""
+    Y = sh.elev_y
+    st = design.stations
+    s = np.asarray(st.station_ft, dtype=float)
+    s_lo, s_hi = float(s[0]), float(s[-1])
+    segs = [g for g in design.segments if g.section is not None] or list(design.segments)
+    grades = np.vstack([np.asarray(st.retained_grade_ft, float),
+                        np.asarray(st.front_grade_ft, float)])
+    for a, b in sorted((float(min(r[0], r[1])), float(max(r[0], r[1]))) for r in ranges):
+        if b - a < 0.01:  # a single station (rounding at a wall end): nothing to cloud
+            continue
+        a, b = max(a, s_lo), min(b, s_hi)
+        if b - a < 2.0:  # a point, or a stretch beyond the wall's end: mark it as a short one
+            mid = min(max((a + b) / 2.0, s_lo), s_hi)
+            a, b = mid - 1.0, mid + 1.0
+        inside = (s >= a) & (s <= b)
+        near = [g for g in segs if g.station_start_ft < b and g.station_end_ft > a]
+        hi = [float(np.nanmax(grades[:, inside]))] if inside.any() else []
+        lo = [float(np.nanmin(grades[:, inside]))] if inside.any() else []
+        hi += [max(_tw_ends(g)) for g in near]
+        lo += [_bottom_ft(g) for g in near]
+        if not hi:
+            hi = lo = [float(np.interp((a + b) / 2.0, s, st.retained_grade_ft))]
+        x0, x1 = a - 3.0, b + 3.0
+        y0 = Y(min(lo)) - 3.0
+        y1 = Y(max(hi)) + (12.0 if near else 3.0)  # the segment tags sit above the wall
+        for cx, cy, r, a0, a1 in cloud_arcs(x0, y0, x1, y1):
+            sh.msp.add_arc((cx, cy), r, a0, a1, dxfattribs={"layer": REVISION_LAYER})
+        # revision tag: an equilateral triangle at the cloud's top right corner
+        side = 5.0
+        tx, ty = x1 + 1.5, y1 + 1.5
+        pts = [(tx, ty), (tx + side, ty), (tx + side / 2.0, ty + side * math.sqrt(3) / 2.0)]
+        for p, q in zip(pts, pts[1:] + pts[:1], strict=True):
+            sh.line(p, q, REVISION_LAYER)
+        sh.text(tag, (tx + side / 2.0, ty + side * 0.3), TEXT_FT, REVISION_LAYER,
+                align="MIDDLE_CENTER")
 
 
 def _draw_sections(sh: _Sheet, design, x0: float, y_base: float, bars) -> float:

@@ -128,9 +128,8 @@ def write_design(site, sd, out: Path, *, drawings: bool = True, compare_dir=None
     totals = quantity_totals(quantities) if quantities is not None else None
     write_xlsx(schedule, bars, totals, out / "schedule.xlsx", site.name)
     write_run_json(run_record(site, sd, schedule), out / "run.json")
-    if drawings:
-        write_drawings(site, sd, out, bars)
     lines = [wall_summary(w) for w in sd.walls]
+    d = None
     if compare_dir is not None:
         from .exporters.diff import RunTables, diff_tables, read_run, write_diff
 
@@ -138,11 +137,17 @@ def write_design(site, sd, out: Path, *, drawings: bool = True, compare_dir=None
         d = diff_tables(read_run(compare_dir), new)
         write_diff(d, out / "diff.csv")
         lines += d.summary_lines()
+    if drawings:
+        write_drawings(site, sd, out, bars, diff=d)
+    from .exporters.report import write_report
+
+    write_report(site, sd, out / "report.pdf", diff=d)
     return lines
 
 
-def write_drawings(site, sd, out: Path, bars) -> None:
-    """The DXF elevation and the plots of every wall."""
+def write_drawings(site, sd, out: Path, bars, *, diff=None) -> None:
+    """The DXF elevation and the plots of every wall; with ``diff`` (a RunDiff against an
+    earlier run) each changed wall's DXF gets a revision cloud around every changed range."""
     from .engine.quantities import wall_quantities
     from .exporters.design_plots import write_design_plots
     from .exporters.dxf_elevation import write_elevation_dxf
@@ -155,6 +160,8 @@ def write_drawings(site, sd, out: Path, bars) -> None:
         if not w.segments:
             continue
         wb = bars[bars["wall"] == w.wall]
+        revisions = diff.changed_station_ranges(w.wall) if diff is not None else None
         write_elevation_dxf(w, out / f"{name}-elevation.dxf", input_hash=hash_text,
-                            site_name=site.name, bars=wb, quantities=wall_quantities(w, wb))
+                            site_name=site.name, bars=wb, quantities=wall_quantities(w, wb),
+                            revisions=revisions)
         write_design_plots(w, out)
