@@ -16,6 +16,8 @@ $(STAMP): pyproject.toml | $(BIN)/python
 
 demo: $(STAMP)
 	$(BIN)/wallsched design sample_site/site.toml --out sample_site/out --replace
+	$(BIN)/wallsched design sample_site/site-rev2.toml --out sample_site/out-rev2 --replace \
+		--compare sample_site/out
 
 test: $(STAMP)
 	$(BIN)/ruff check .
