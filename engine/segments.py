@@ -7,15 +7,17 @@ A segment runs from station ``i`` to station ``j`` (both ends are checked; stati
 assigned to the next segment). For each segment and each allowed bottom of footing ``BF`` the
 *envelope case* is
 
-    BF_top = min(front grade over i..j) - required embedment, rounded down to ``bf_round_ft``
-    BF     = BF_top - m * bf_lowering_ft          (m = 0..M-1: lowering only to meet step limits;
-                                                   M = 1 unless the ground is too steep for
-                                                   footings at their highest, then 5)
-    h_case = max(retained grade over i..j) - BF - required embedment
+    h_case = max(retained grade over i..j) - min(front grade over i..j) + m * bf_lowering_ft
+             + bf_round_ft
+    BF     = min(front grade over i..j) - embedment(h_case), rounded down to ``bf_round_ft``,
+             - m * bf_lowering_ft      (m = 0..M-1: lowering only to meet step limits; M = 1
+                                        unless the ground is too steep for footings at their
+                                        highest, then 5)
 
-The envelope case has the largest design height of the segment with the least embedment the
-criteria allow, so the section sized for it (the *design table*, a look-up by design height)
-holds every station of the segment; the pipeline then re-checks every station at its own grades.
+where embedment(h) is what the section of the design table for h needs (the least embedment,
+or deeper to keep its footing buried). The envelope case has the largest retained height of
+the segment at the least embedment its section allows, so that section holds every station;
+the pipeline then re-checks every station at its own grades.
 The segment costs ``length * cost_per_ft(h_case)`` plus a step cost where its footing or top
 differs from the previous segment's. Consecutive footings may differ by at most
 ``footing_step_max_ft`` (IBC 2021 1809.3: footings level, stepped where the top changes).
@@ -110,6 +112,7 @@ def plan_segments(
     front_grade_ft: np.ndarray,
     rules: SegmentRules,
     cost_per_ft: Callable[[np.ndarray], np.ndarray],
+    embedment_of: Callable[[np.ndarray], np.ndarray] | None = None,
 ) -> SegmentPlan:
     """Least-cost segments for one run of stations (see the module docstring).
 
@@ -118,6 +121,8 @@ def plan_segments(
         rules: segment criteria.
         cost_per_ft: design table look-up, design height (ft) array -> $/ft of wall (NaN or
             inf where no section holds that height).
+        embedment_of: design height -> the embedment its section needs (ft); by default
+            ``rules.embedment_ft`` everywhere.
     """
     s = np.asarray(station_ft, float)
     rg = np.asarray(retained_grade_ft, float)
@@ -140,10 +145,14 @@ def plan_segments(
     if total < rules.segment_min_ft + 1e-9:
         ok_len[n - 1, n - 1] = True  # a run shorter than the minimum is one segment
     ok_len[:, 0] = False
-    bf_top = _floor_to(fg_min - rules.embedment_ft, rules.bf_round_ft)  # [j, k]
     lower = rules.bf_lowering_ft * np.arange(M)
-    bf = bf_top[:, :, None] - lower[None, None, :]  # [j, k, m]
-    h_case = rg_max[:, :, None] - bf - rules.embedment_ft
+    # the envelope: the largest retained grade over the least front grade, plus the lowering
+    # and the rounding of the footing (so that every station's design height is covered)
+    h_case = (rg_max - fg_min)[:, :, None] + lower[None, None, :] + rules.bf_round_ft
+    emb = (np.full(h_case.shape, rules.embedment_ft) if embedment_of is None else
+           np.asarray(embedment_of(np.where(np.isfinite(h_case), h_case, 0.0)), float))
+    emb = np.where(np.isfinite(emb), np.maximum(emb, rules.embedment_ft), rules.embedment_ft)
+    bf = _floor_to(fg_min[:, :, None] - emb, rules.bf_round_ft) - lower[None, None, :]
     cpf = np.asarray(cost_per_ft(np.where(np.isfinite(h_case), h_case, 0.0)), float)
     cpf = np.where(np.isfinite(cpf), cpf, INFEASIBLE_COST_PER_FT)
     seg_cost = cpf * length[:, :, None]
@@ -192,9 +201,10 @@ def plan_segments(
 
         if rules.bf_lowerings < LOWERINGS_STEEP:  # steep ground: offer lowered footings
             return plan_segments(s, rg, fg, replace(rules, bf_lowerings=LOWERINGS_STEEP),
-                                 cost_per_ft)
+                                 cost_per_ft, embedment_of)
         if rules.segment_min_ft > 0:  # odd station spacing: relax the minimum length
-            return plan_segments(s, rg, fg, replace(rules, segment_min_ft=0.0), cost_per_ft)
+            return plan_segments(s, rg, fg, replace(rules, segment_min_ft=0.0), cost_per_ft,
+                                 embedment_of)
         raise ValueError("no segmentation meets the footing step limit")
     k, m = np.unravel_index(int(np.argmin(final)), final.shape)
     total_cost = float(final[k, m])

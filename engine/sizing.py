@@ -249,7 +249,18 @@ class Choice:
     cost_per_ft: float
 
 
+def with_embedment(g: dict, embedment_ft: float, footing_cover_ft: float) -> dict:
+    """Each geometry's embedment: at least ``embedment_ft``, and deep enough that the top of
+    footing lies ``footing_cover_ft`` below the front grade (the footing stays buried)."""
+    g = dict(g)
+    g["embedment_ft"] = np.maximum(embedment_ft, g["footing_thickness_in"] / 12.0
+                                   + footing_cover_ft)
+    return g
+
+
 def _geom(g: Mapping[str, np.ndarray], idx, h, emb, fb) -> SectionGeometry:
+    if "embedment_ft" in g:
+        emb = g["embedment_ft"][idx]
     return SectionGeometry(
         retained_height_ft=h, embedment_ft=emb, footing_thickness_in=g["footing_thickness_in"][idx],
         stem_top_in=g["stem_top_in"][idx], stem_base_in=g["stem_base_in"][idx],
@@ -266,12 +277,13 @@ def precompute(g, inputs: DesignInputs, rates: CostRates, emb: float) -> dict:
     w_h = 2.0 * 12.0 / horiz.spacing_in * bar_weight_plf(horiz.size)  # lb/ft per ft of stem
     w_l = 2.0 * 12.0 / longi.spacing_in * bar_weight_plf(longi.size)  # lb/ft per ft of width
     t_avg_ft = (geo.stem_top_in + geo.stem_base_in) / 24.0
-    exc = B * np.maximum(emb, T) / CY_FT3
+    exc = B * np.maximum(geo.embedment_ft, T) / CY_FT3
     cost0 = (rates.concrete_usd_per_cy * B * T / CY_FT3 + rates.formwork_usd_per_sf * 2.0 * T
              + rates.excavation_usd_per_cy * exc + rates.steel_usd_per_lb * w_l * B)
     per_hst = (rates.concrete_usd_per_cy * t_avg_ft / CY_FT3 + rates.formwork_usd_per_sf * 2.0
                + rates.steel_usd_per_lb * w_h)
     return {"T_ft": T, "B_ft": B, "cost0": cost0, "cost_per_hst": per_hst,
+            "emb_ft": np.broadcast_to(geo.embedment_ft, T.shape),
             "stem_anchor_ft": (geo.footing_thickness_in - inputs.cover_toe_in) / 12.0}
 
 
@@ -312,7 +324,8 @@ class StabilityScreen:
         # height H): compare two different sections at one height
         from .pressure import design_thrust
 
-        two = _geom(g, np.array([0, g["toe_ft"].size - 1]), 8.0, emb, fb)
+        same_T = np.nonzero(g["footing_thickness_in"] == g["footing_thickness_in"][0])[0]
+        two = _geom(g, np.array([0, same_T[-1]]), 8.0, emb, fb)
         th = design_thrust(two, inputs, self.p)
         same = all(np.allclose(np.broadcast_to(getattr(th, k), (2,))[0],
                                np.broadcast_to(getattr(th, k), (2,))[1], rtol=1e-12)
@@ -322,7 +335,10 @@ class StabilityScreen:
         self.v1, self.m1 = (vb - va) / d, (mb - ma) / d
         self.v0, self.m0 = va - self.v1 * hs[0], ma - self.m1 * hs[0]
         self.vq, self.mq = qa, qma
-        self.B = _geom(g, slice(None), 1.0, emb, fb).footing_width_ft
+        base = _geom(g, slice(None), 1.0, emb, fb)
+        self.B = base.footing_width_ft
+        e_all = np.broadcast_to(base.embedment_ft, self.B.shape)
+        self.e_vals, self.e_of = np.unique(e_all, return_inverse=True)
 
     def passes(self, h: float, idx=slice(None)) -> np.ndarray:
         """The screen at height ``h`` for the geometries ``idx`` (all by default)."""
@@ -331,15 +347,16 @@ class StabilityScreen:
         if not self.linear:
             return np.ones(self.B[idx].shape, bool)
         i = self.inputs
-        one = SectionGeometry(retained_height_ft=h, embedment_ft=self.emb,
+        one = SectionGeometry(retained_height_ft=h, embedment_ft=self.e_vals,
                               footing_thickness_in=12.0, stem_top_in=8.0, stem_base_in=8.0,
                               toe_ft=1.0, heel_ft=1.0, freeboard_ft=self.fb)
-        th = design_thrust(one, i, self.p)
-        m_o = float(th.moment_lbft)
-        h_d = float(th.horizontal_lb)
-        v_th = float(th.vertical_lb)
-        pp = (float(passive_resistance_lb(self.p.passive_efp_pcf, i.passive_neglect_ft,
-                                          self.emb)) if i.use_passive else 0.0)
+        th = design_thrust(one, i, self.p)  # one thrust per embedment (design height)
+        e_ix = self.e_of[idx]
+        m_o = np.broadcast_to(th.moment_lbft, self.e_vals.shape)[e_ix]
+        h_d = np.broadcast_to(th.horizontal_lb, self.e_vals.shape)[e_ix]
+        v_th = np.broadcast_to(th.vertical_lb, self.e_vals.shape)[e_ix]
+        pp = (passive_resistance_lb(self.p.passive_efp_pcf, i.passive_neglect_ft,
+                                    self.e_vals)[e_ix] if i.use_passive else 0.0)
         B = self.B[idx]
         v = self.v0[idx] + self.v1[idx] * h + v_th
         m = self.m0[idx] + self.m1[idx] * h + v_th * B
@@ -420,7 +437,7 @@ def _search_height(g, codes, pre, toe_tab, screen, h, emb, fb, inputs, rates, ba
         return None
     screened = np.zeros(cand.size, bool)  # the stability screen is applied lazily
     # cost of each candidate with its stem and heel bars (linear in the stem height)
-    hst = h + emb + fb - pre["T_ft"][cand]
+    hst = h + pre["emb_ft"][cand] + fb - pre["T_ft"][cand]
     B = pre["B_ft"][cand]
     sw = bars_w[s_b] * (hst + pre["stem_anchor_ft"][cand] + bars_db_ft[s_b])
     base = (pre["cost0"][cand] + pre["cost_per_hst"][cand] * hst
@@ -495,9 +512,10 @@ class DesignTable:
     """The optimum section for each design height ``increment * k`` (k = 1..K)."""
 
     increment_ft: float
-    embedment_ft: float
+    embedment_ft: float  # the least embedment (min_embedment_ft or frost depth)
     freeboard_ft: float
     choices: tuple[Choice, ...]
+    footing_cover_ft: float = 0.0
 
     @property
     def heights_ft(self) -> np.ndarray:
@@ -519,6 +537,14 @@ class DesignTable:
         costs = np.array([c.cost_per_ft for c in self.choices] + [np.nan])
         return costs[self.index(h_ft)]
 
+    def embedment_of(self, h_ft) -> np.ndarray:
+        """The embedment each height's section needs (ft): the least embedment, or deeper so
+        that the footing stays ``footing_cover_ft`` below the front grade."""
+        e = np.array([max(self.embedment_ft, c.section.footing_thickness_in / 12.0
+                          + self.footing_cover_ft) if c.section is not None
+                      else self.embedment_ft for c in self.choices] + [self.embedment_ft])
+        return e[self.index(h_ft)]
+
     def section(self, h_ft: float) -> SectionDims | None:
         i = int(self.index(h_ft))
         return None if i < 0 else self.choices[i].section
@@ -526,9 +552,11 @@ class DesignTable:
 
 def design_table(inputs: DesignInputs, grid: SizingGrid, rates: CostRates, *,
                  max_height_ft: float, increment_ft: float, embedment_ft: float,
-                 freeboard_ft: float) -> DesignTable:
-    """The least-cost section for every design height up to ``max_height_ft``."""
-    g = grid.geometries()
+                 freeboard_ft: float, footing_cover_ft: float = 0.0) -> DesignTable:
+    """The least-cost section for every retained height up to ``max_height_ft``; each
+    candidate's embedment is ``embedment_ft`` or deeper to bury its footing
+    (:func:`with_embedment`)."""
+    g = with_embedment(grid.geometries(), embedment_ft, footing_cover_ft)
     bars = grid.bar_options()
     screen = StabilityScreen(g, inputs, embedment_ft, freeboard_ft)
     toe_tab = toe_capacity_table(g, inputs, bars)
@@ -550,7 +578,8 @@ def design_table(inputs: DesignInputs, grid: SizingGrid, rates: CostRates, *,
         gi, si, hi, ti, cost = found
         choices.append(Choice(h, section_from(g, gi, bars, si, hi, ti, inputs, h, embedment_ft,
                                               freeboard_ft), cost))
-    return DesignTable(increment_ft, embedment_ft, freeboard_ft, tuple(choices))
+    return DesignTable(increment_ft, embedment_ft, freeboard_ft, tuple(choices),
+                       footing_cover_ft)
 
 
 def reinforcement_of(sec: SectionDims) -> Reinforcement:
@@ -564,12 +593,12 @@ def reinforcement_of(sec: SectionDims) -> Reinforcement:
 
 
 def exhaustive_optimum(inputs: DesignInputs, grid: SizingGrid, rates: CostRates, *, h: float,
-                       emb: float, fb: float):
+                       emb: float, fb: float, footing_cover_ft: float = 0.0):
     """Reference: every geometry x stem x heel x toe bar combination through check_section.
 
     Only for small grids (tests). Returns (cost, SectionDims) or (inf, None).
     """
-    g = grid.geometries()
+    g = with_embedment(grid.geometries(), emb, footing_cover_ft)
     bars = grid.bar_options()
     n_g, n_b = g["toe_ft"].size, bars.size.size
     gi, si, hi, ti = np.meshgrid(np.arange(n_g), np.arange(n_b), np.arange(n_b), np.arange(n_b),

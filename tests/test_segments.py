@@ -7,7 +7,12 @@ import numpy as np
 import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
-from wallsched.engine.segments import SegmentRules, place_joints, plan_segments
+from wallsched.engine.segments import (
+    INFEASIBLE_COST_PER_FT,
+    SegmentRules,
+    place_joints,
+    plan_segments,
+)
 
 
 def cost_table(h):
@@ -34,8 +39,9 @@ def brute_force(s, rg, fg, rules):
                 bf_top = math.floor((min(fg[i:j + 1]) - rules.embedment_ft)
                                     / rules.bf_round_ft + 1e-9) * rules.bf_round_ft
                 bf = bf_top - lowers[m]
-                h = max(rg[i:j + 1]) - bf - rules.embedment_ft
+                h = max(rg[i:j + 1]) - min(fg[i:j + 1]) + lowers[m] + rules.bf_round_ft
                 c = float(cost_table(h))
+                c = INFEASIBLE_COST_PER_FT if math.isnan(c) else c  # flagged, never hidden
                 step = rules.top_step_in / 12
                 tw = math.ceil((max(rg[i:j + 1]) + rules.freeboard_ft) / step - 1e-9) * step
                 if prev_bf is not None:
@@ -102,3 +108,13 @@ def test_joints_spacing_and_steps():
     assert max(np.diff(pts)) <= 30.0 + 1e-9  # contraction joints at most 30 ft (common practice)
     exp = [0.0] + [j for j, k in joints if k == "expansion"] + [200.0]
     assert max(np.diff(exp)) <= 90.0 + 1e-9  # expansion joints at most 90 ft (common practice)
+
+
+def test_reversed_stations_give_the_same_least_cost():
+    s = np.arange(0, 160.1, 5.0)
+    fg = 100 + 1.2 * np.sin(s / 25)
+    rg = fg + 3 + 4 * np.abs(np.sin(s / 40))
+    rules = SegmentRules(embedment_ft=1.5, freeboard_ft=0.5, step_cost_usd=400.0)
+    fwd = plan_segments(s, rg, fg, rules, cost_table)
+    rev = plan_segments(s, rg[::-1], fg[::-1], rules, cost_table)
+    assert fwd.total_cost_usd == pytest.approx(rev.total_cost_usd, rel=1e-12)

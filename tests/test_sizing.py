@@ -54,7 +54,9 @@ def test_fast_search_equals_exhaustive_search(soil, batter):
         assert choice.section is not None
         assert choice.cost_per_ft == pytest.approx(ref_cost, rel=1e-9)
         # the section found passes every check at its height
-        r = check_section(station_geometry(choice.section, choice.design_height_ft, emb, 0.5),
+        e = float(table.embedment_of(choice.design_height_ft))  # the footing stays buried
+        assert e == max(emb, choice.section.footing_thickness_in / 12.0)
+        r = check_section(station_geometry(choice.section, choice.design_height_ft, e, 0.5),
                           inputs, reinforcement(choice.section))
         assert bool(np.all(r.passes))
 

@@ -53,7 +53,7 @@ def wall_inputs(site: Site, wall: WallSpec) -> DesignInputs:
 
 
 def _table_key(inputs: DesignInputs, crit, emb, fb, top):
-    return (inputs, emb, fb, crit["design_height_increment_ft"], top)
+    return (inputs, emb, fb, crit["design_height_increment_ft"], top, crit["footing_cover_ft"])
 
 
 def segment_rules(crit, rates: CostRates) -> SegmentRules:
@@ -150,7 +150,7 @@ def design_wall(site: Site, wall: WallSpec, ws: WallStations, inputs: DesignInpu
     run = np.arange(first, last + 1)
     s = ws.station_ft[run]
     plan = plan_segments(s, ws.retained_grade_ft[run], ws.front_grade_ft[run], rules,
-                         table.cost_per_ft)
+                         table.cost_per_ft, table.embedment_of)
     segments: list[Segment] = []
     for q in range(len(plan)):
         i0, i1 = int(run[plan.start_index[q]]), int(run[plan.end_index[q]])
@@ -309,7 +309,7 @@ def design_site(site: Site, walls_stations: list[WallStations], *, audit: bool =
             tables[key] = design_table(
                 inputs, grid, rates, max_height_ft=c["max_retained_height_ft"] + 2.0,
                 increment_ft=c["design_height_increment_ft"], embedment_ft=emb,
-                freeboard_ft=c["freeboard_ft"])
+                freeboard_ft=c["freeboard_ft"], footing_cover_ft=c["footing_cover_ft"])
         inputs_by_wall[wall.id] = inputs
         tables_by_wall[wall.id] = tables[key]
         designs.append(design_wall(site, wall, ws, inputs, tables[key], audit=audit))
