@@ -62,6 +62,133 @@ def _polygon(pts):
     return abs(a2) / 2.0, cx / (3.0 * a2)
 
 
+def _polygon_y(pts):
+    """Area and centroid (x, y) of a simple polygon (shoelace); zeros when degenerate."""
+    a2 = cx = cy = 0.0
+    n = len(pts)
+    for k in range(n):
+        x1, y1 = pts[k]
+        x2, y2 = pts[(k + 1) % n]
+        cross = x1 * y2 - x2 * y1
+        a2 += cross
+        cx += (x1 + x2) * cross
+        cy += (y1 + y2) * cross
+    if abs(a2) < 1e-15:
+        return 0.0, 0.0, 0.0
+    return abs(a2) / 2.0, cx / (3.0 * a2), cy / (3.0 * a2)
+
+
+def _clip(pts, inside, cut):
+    """Sutherland-Hodgman clip of a polygon against one half-plane: ``inside(p)`` tells the
+    side, ``cut(p, q)`` the crossing point of the edge p-q."""
+    out = []
+    n = len(pts)
+    for k in range(n):
+        p, q = pts[k], pts[(k + 1) % n]
+        if inside(q):
+            if not inside(p):
+                out.append(cut(p, q))
+            out.append(q)
+        elif inside(p):
+            out.append(cut(p, q))
+    return out
+
+
+def _clip_y(pts, y0, below=True):
+    """The part of a polygon below (or above) the line y = y0."""
+    def inside(p):
+        return p[1] <= y0 if below else p[1] >= y0
+
+    def cut(p, q):
+        t = (y0 - p[1]) / (q[1] - p[1])
+        return (p[0] + t * (q[0] - p[0]), y0)
+    return _clip(pts, inside, cut)
+
+
+def _clip_x(pts, x0):
+    """The part of a polygon right of the line x = x0."""
+    def cut(p, q):
+        t = (x0 - p[0]) / (q[0] - p[0])
+        return (x0, p[1] + t * (q[1] - p[1]))
+    return _clip(pts, lambda p: p[0] >= x0, cut)
+
+
+def _simpson(fn, a, b, breaks=(), n=64):
+    """Composite Simpson integral of fn over [a, b], split at the break points inside it
+    (exact for piecewise cubics between the breaks)."""
+    if b <= a:
+        return 0.0
+    pts = sorted({a, b} | {x for x in breaks if a < x < b})
+    total = 0.0
+    for x1, x2 in zip(pts, pts[1:], strict=False):
+        h = (x2 - x1) / (2 * n)
+        acc = fn(x1) + fn(x2)
+        for k in range(1, 2 * n):
+            acc += (4 if k % 2 else 2) * fn(x1 + k * h)
+        total += acc * h / 3.0
+    return total
+
+
+def _wedge_k(phi_deg, delta_deg, beta_deg, kh=0.0):
+    """Active coefficient 2 max P / (gamma H^2) by trial wedges on a vertical back of unit
+    height: ground at beta, failure plane at rho from the horizontal, wall friction delta
+    (upward on the wedge), horizontal inertia kh W toward the wall; the maximum over rho by a
+    scan and golden-section refinement. Coulomb for kh = 0; Mononobe-Okabe with kh."""
+    tf = math.tan(math.radians(phi_deg))
+    d = math.radians(delta_deg)
+    tb = math.tan(math.radians(beta_deg))
+
+    def force(rho):
+        tr = math.tan(rho)
+        if tr <= tb:
+            return -math.inf
+        w = 0.5 / (tr - tb)
+        a1, b1, c1 = math.cos(d), tf * math.cos(rho) - math.sin(rho), kh * w
+        a2, b2, c2 = math.sin(d), math.cos(rho) + tf * math.sin(rho), w
+        return (c1 * b2 - c2 * b1) / (a1 * b2 - a2 * b1)
+
+    lo, hi = math.radians(beta_deg) + 1e-9, math.pi / 2 - 1e-9
+    n = 720
+    xs = [lo + (hi - lo) * k / n for k in range(n + 1)]
+    k = max(range(n + 1), key=lambda j: force(xs[j]))
+    a, b = xs[max(k - 1, 0)], xs[min(k + 1, n)]
+    r = (math.sqrt(5) - 1) / 2
+    c, e = b - r * (b - a), a + r * (b - a)
+    fc_, fe = force(c), force(e)
+    for _ in range(200):
+        if fc_ > fe:
+            b, e, fe = e, c, fc_
+            c = b - r * (b - a)
+            fc_ = force(c)
+        else:
+            a, c, fc_ = c, e, fe
+            e = a + r * (b - a)
+            fe = force(e)
+        if b - a < 1e-13:
+            break
+    return 2.0 * max(fc_, fe, force(xs[k]))
+
+
+def _strip_sigma(q, off, width, z):
+    """Rigid-wall strip-load pressure (2q/pi)(alpha - sin alpha cos 2 delta) at depth z."""
+    t1 = math.atan2(off, z)
+    t2 = math.atan2(off + width, z)
+    alpha, bis = t2 - t1, (t1 + t2) / 2.0
+    return 2.0 * q / math.pi * (alpha - math.sin(alpha) * math.cos(2.0 * bis))
+
+
+def _strip_breaks(strips, top):
+    out = set()
+    for off, width, _ in strips:
+        for x in (off, off + width):
+            for f in (0.125, 0.25, 0.5, 1.0, 2.0, 4.0):
+                out.add(x * f)
+    return [z for z in out if 0 < z < top]
+
+
+WATER = 62.4
+
+
 def _whitney_strength(As, d, fc, fy, b=12.0):
     """phi*Mn (lb-ft) by bisection on c: 0.85 f'c b beta1 c = As * min(fy, Es eps_s)."""
     if As <= 0 or d <= 0:
@@ -188,14 +315,29 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
     gam, gc, q = i.unit_weight_pcf, i.concrete_unit_weight_pcf, i.surcharge_psf
     fc, fy = i.fc_psi, i.fy_psi
 
-    # pressures
+    # pressures; the thrust's direction ``incl`` above the horizontal
+    beta = i.backslope_deg or 0.0
+    strips = list(i.strip)
+    wl = None if i.water is None else i.water.level_ft
+    sz = i.seismic
+    ext = beta > 0 or i.active_method == "coulomb" or bool(strips) or wl is not None
+    incl = 0.0
     if i.active_efp_pcf is not None:
         efp = i.active_efp_pcf
         ka = efp / gam
+    elif i.active_method == "coulomb":
+        incl = i.wall_friction_deg
+        ka = _wedge_k(i.friction_angle_deg, incl, beta)
+        efp = ka * gam
+    elif beta > 0:
+        incl = beta  # Rankine with a backslope = the wedge with delta = beta on a vertical back
+        ka = _wedge_k(i.friction_angle_deg, beta, beta)
+        efp = ka * gam
     else:
         sn = math.sin(math.radians(i.friction_angle_deg))
         ka = (1 - sn) / (1 + sn)
         efp = ka * gam
+    ci, si_ = math.cos(math.radians(incl)), math.sin(math.radians(incl))
     if not i.use_passive:
         efp_p = 0.0
     elif i.passive_from_friction_angle:
@@ -215,24 +357,63 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
     else:
         stem_poly = [(x_front, T), (x_back, T), (x_back, y_top), (x_back - tt, y_top)]
         x_face_at_grade = x_back
-    pieces = [(gc, stem_poly), (gc, [(0, 0), (B, 0), (B, T), (0, T)])]
+    Hv = H + (B - x_face_at_grade) * math.tan(math.radians(beta))  # ground at the heel edge
+    hw = 0.0 if wl is None else min(max(wl, 0.0), H)
+    concrete = [stem_poly, [(0, 0), (B, 0), (B, T), (0, T)]]
     if kw > 0 and kd > 0:
-        pieces.append((gc, [(ko, 0), (ko, -kd), (ko + kw, -kd), (ko + kw, 0)]))
+        concrete.append([(ko, 0), (ko, -kd), (ko + kw, -kd), (ko + kw, 0)])
+    pieces = [(gc, c) for c in concrete]
+    soil_region = [(x_back, T), (B, T), (B, Hv), (x_face_at_grade, H)]
     if H > T:
-        pieces.append((gam, [(x_back, T), (B, T), (B, H), (x_face_at_grade, H)]))
+        pieces.append((gam, soil_region))
+        if hw > T:  # buoyancy of the soil below the water level
+            pieces.append((-WATER, _clip_y(soil_region, hw)))
+    if hw > 0:  # uplift: the head at the heel edge falling to zero at the toe edge
+        pieces.append((-1.0, [(0, 0), (B, 0), (B, WATER * hw)]))
     if i.count_toe_soil and emb > T:
         pieces.append((gam, [(0, T), (toe, T), (toe, emb), (0, emb)]))
     V_dead = M_dead = 0.0
     for unit, poly in pieces:
-        area, xc = _polygon(poly)
+        area, xc = _polygon(poly) if len(poly) >= 3 else (0.0, 0.0)
         V_dead += unit * area
         M_dead += unit * area * xc
     Wq = q * heel  # the surcharge over the heel, from the stem's back face at its base
     Mq = Wq * (x_back + B) / 2
 
-    # lateral, on the heel plane over H
-    M_O = efp * H ** 3 / 6 + ka * q * H ** 2 / 2
-    H_drive = efp * H ** 2 / 2 + ka * q * H
+    # lateral, on the heel plane over H (H' with a backslope)
+    def heel_plane(live):
+        """(horizontal force, moment about the base, vertical force) on the heel plane."""
+        def p_soil(y):
+            return ka * (gam * (Hv - y) - WATER * max(hw - y, 0.0))
+
+        brk = [hw]
+        f = _simpson(p_soil, 0.0, Hv, brk)
+        m = _simpson(lambda y: p_soil(y) * y, 0.0, Hv, brk)
+        fw = _simpson(lambda y: WATER * max(hw - y, 0.0), 0.0, Hv, brk)
+        mw = _simpson(lambda y: WATER * max(hw - y, 0.0) * y, 0.0, Hv, brk)
+        fh, mh, fv = f * ci + fw, m * ci + mw, f * si_
+        if live:
+            fh += ka * q * Hv * ci
+            mh += ka * q * Hv * Hv / 2 * ci
+            fv += ka * q * Hv * si_
+            brs = _strip_breaks(strips, H)
+            for sl in strips:
+                fh += _simpson(lambda z, sl=sl: _strip_sigma(sl[2], sl[0], sl[1], z), 0.0, H,
+                               brs, 200)
+                mh += _simpson(lambda z, sl=sl: _strip_sigma(sl[2], sl[0], sl[1], z) * (H - z),
+                               0.0, H, brs, 200)
+        return fh, mh, fv
+
+    if ext:
+        H_drive, M_O, V_th = heel_plane(True)
+    else:
+        M_O = efp * H ** 3 / 6 + ka * q * H ** 2 / 2
+        H_drive = efp * H ** 2 / 2 + ka * q * H
+        V_th = 0.0
+    # the vertical component of the thrust acts down on the heel plane, x = B
+    V_perm, M_perm = V_dead, M_dead  # without the thrust (the seismic case adds its own)
+    V_dead += V_th
+    M_dead += V_th * B
     V_res, M_res = (V_dead + Wq, M_dead + Mq) if i.surcharge_resists else (V_dead, M_dead)
     fs_ot = M_res / M_O if M_O > 0 else math.inf
     z_bot = emb + (kd if (kw > 0 and kd > 0) else 0.0)
@@ -274,6 +455,49 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
     emb_req = max(i.min_embedment_ft, i.frost_depth_ft or 0.0)
     rows["embedment"] = AuditRow(emb_req, emb, emb >= emb_req)
 
+    # ---- seismic case: static soil and water thrust, no live loads, + lf (dPAE + kh Wc)
+    seis = {}
+    if sz is not None:
+        lf, kh = sz.load_factor, sz.kh
+        if sz.method == "seed-whitman":
+            dpae, dc, ds = 0.375 * kh * gam * Hv * Hv, 1.0, 0.0
+        else:
+            kae = _wedge_k(i.friction_angle_deg, incl, beta, kh)
+            dpae, dc, ds = (kae - ka) * gam * Hv * Hv / 2, ci, si_
+        if ext:
+            fh0, mh0, fv0 = heel_plane(False)
+        else:
+            fh0, mh0, fv0 = efp * H ** 2 / 2, efp * H ** 3 / 6, 0.0
+        fi = mi = 0.0
+        for poly in concrete:
+            a_c, _, y_c = _polygon_y(poly)
+            fi += kh * gc * a_c
+            mi += kh * gc * a_c * y_c
+        HE = fh0 + lf * dpae * dc + lf * fi
+        ME = mh0 + lf * dpae * dc * 0.6 * Hv + lf * mi
+        VE = V_perm + fv0 + lf * dpae * ds
+        MRE = M_perm + (fv0 + lf * dpae * ds) * B
+        fs_ot_e = MRE / ME if ME > 0 else math.inf
+        fs_sl_e = (i.friction_coefficient * VE + P_p) / HE if HE > 0 else math.inf
+        xb = (MRE - ME) / VE if VE > 0 else math.nan
+        if VE > 0 and 0 < xb < B:
+            if B / 3 <= xb <= 2 * B / 3:
+                q_e = max(VE * (4 * B - 6 * xb) / B ** 2, VE * (6 * xb - 2 * B) / B ** 2)
+            else:
+                q_e = 2 * VE / (3 * min(xb, B - xb))
+        else:
+            q_e = None
+        rows["seismic_overturning"] = AuditRow(sz.fs_overturning, fs_ot_e,
+                                               fs_ot_e >= sz.fs_overturning and q_e is not None)
+        rows["seismic_sliding"] = AuditRow(sz.fs_sliding, fs_sl_e, fs_sl_e >= sz.fs_sliding)
+        rows["seismic_bearing"] = AuditRow(
+            q_e if q_e is not None else math.nan, i.allowable_bearing_psf,
+            q_e is not None and q_e <= i.allowable_bearing_psf)
+        seis = {"seismic_delta_pae_lb": dpae, "seismic_fs_overturning": fs_ot_e,
+                "seismic_fs_sliding": fs_sl_e, "seismic_q_max_psf": q_e,
+                "seismic_h_driving_lb": HE, "seismic_m_overturning_lbft": ME,
+                "seismic_sum_v_lb": VE}
+
     # ---- stem
     s_size, s_sp = _bar(bars["stem"])
     db = A615[s_size][0]
@@ -282,10 +506,56 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
     d = g["stem_base_in"] - cov - db / 2
     hs = max(H - T, 0.0)
 
+    def stem_service(zc, live=True):
+        """Horizontal service (M, V) on the stem zc below the retained grade."""
+        zc = max(zc, 0.0)
+        if not ext:
+            lat = ka * q if live else 0.0
+            return efp * zc ** 3 / 6 + lat * zc * zc / 2, efp * zc * zc / 2 + lat * zc
+
+        def p(z):
+            y = H - z
+            sv = gam * z - WATER * max(hw - y, 0.0)
+            out = ka * ci * sv + WATER * max(hw - y, 0.0)
+            if live:
+                out += ka * q * ci + sum(_strip_sigma(qs, o, w, z) for o, w, qs in strips)
+            return out
+
+        brk = [H - hw] + (_strip_breaks(strips, zc) if live else [])
+        n = 200 if (live and strips) else 64
+        return (_simpson(lambda z: p(z) * (zc - z), 0.0, zc, brk, n),
+                _simpson(p, 0.0, zc, brk, n))
+
+    stem_poly_up = stem_poly
+
+    def stem_seismic(zc):
+        """Nominal seismic (M, V) at zc below the grade: the increment on h_s as a linear
+        diagram with its resultant at 0.6 h_s, plus kh x the stem above the cut."""
+        if hs <= 0:
+            return 0.0, 0.0
+        if sz.method == "seed-whitman":
+            tot = 0.375 * sz.kh * gam * hs * hs
+        else:
+            tot = (_wedge_k(i.friction_angle_deg, incl, beta, sz.kh) - ka) * gam * hs * hs / 2 * ci
+
+        def p(z):
+            return tot / hs * (1.6 - 1.2 * z / hs)
+
+        zc = min(max(zc, 0.0), hs)
+        m = _simpson(lambda z: p(z) * (zc - z), 0.0, zc)
+        v = _simpson(p, 0.0, zc)
+        y_cut = H - zc
+        a_c, _, y_c = _polygon_y(_clip_y(stem_poly_up, y_cut, below=False))
+        return m + sz.kh * gc * a_c * (y_c - y_cut), v + sz.kh * gc * a_c
+
     def stem_mv(z):
-        z = max(z, 0.0)
-        return (1.6 * (efp * z ** 3 / 6 + ka * q * z * z / 2),
-                1.6 * (efp * z * z / 2 + ka * q * z))
+        m, v = stem_service(z)
+        mu, vu = 1.6 * m, 1.6 * v
+        if sz is not None:
+            m0, v0 = stem_service(z, live=False)
+            me, ve = stem_seismic(z)
+            mu, vu = max(mu, 1.6 * m0 + me), max(vu, 1.6 * v0 + ve)
+        return mu, vu
 
     mu_s, _ = stem_mv(hs)
     _, vu_s = stem_mv(hs - d / 12)
@@ -312,7 +582,7 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
     rows["stem_min_steel"] = AuditRow(as_min, As, As >= as_min)
     s_lim = min(3 * g["stem_base_in"], 18.0)
     if i.crack_control:
-        ms = mu_s / 1.6
+        ms = stem_service(hs)[0]
         n = E_STEEL / (57000 * math.sqrt(fc))
         # transformed section: 12 kd^2 / 2 = n As (d - kd)
         aq, bq, cq = 6.0, n * As, -n * As * d
@@ -327,8 +597,17 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
 
     # ---- heel: cantilever from the back face, 1.2 D + 1.6 L, upward pressure neglected
     h_size, h_sp = _bar(bars["heel"])
-    w_heel = 1.2 * (gam * hs + gc * T) + 1.6 * q
-    mu_h, vu_h = w_heel * heel ** 2 / 2, w_heel * heel
+    if ext:
+        # soil region right of the stem's back face (full unit weight), footing, surcharge
+        # and the thrust's vertical component at the heel edge
+        a_h, x_h, _ = (_polygon_y(_clip_x(soil_region, x_back)) if H > T
+                       else (0.0, 0.0, 0.0))
+        mu_h = (1.2 * (gam * a_h * (x_h - x_back) + gc * T * heel ** 2 / 2)
+                + 1.6 * (q * heel ** 2 / 2 + V_th * heel))
+        vu_h = 1.2 * (gam * a_h + gc * T * heel) + 1.6 * (q * heel + V_th)
+    else:
+        w_heel = 1.2 * (gam * hs + gc * T) + 1.6 * q
+        mu_h, vu_h = w_heel * heel ** 2 / 2, w_heel * heel
     d_h = T_in - _cover(h_size, i.cover_heel_in) - A615[h_size][0] / 2
     As_h = A615[h_size][1] * 12 / h_sp
     pmn_h, _ = _whitney_strength(As_h, d_h, fc, fy)
@@ -343,6 +622,12 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
     w_toe = gc * T + (gam * max(emb - T, 0.0) if i.count_toe_soil else 0.0)
     if in_base:
         f_up, m_up = _toe_load(gov[1], gov[0], B, toe)  # the governing bearing case
+        if hw > 0:  # uplift under the toe
+
+            def u(x):
+                return WATER * hw * x / B
+            f_up += _simpson(u, 0.0, toe, n=4)
+            m_up += _simpson(lambda x: u(x) * (toe - x), 0.0, toe, n=4)
         mu_t = 1.6 * m_up - 0.9 * w_toe * toe ** 2 / 2
         vu_t = 1.6 * f_up - 0.9 * w_toe * toe
     else:
@@ -385,6 +670,7 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
         "heel_phi_vn_lb": pvn_h, "heel_d_in": d_h,
         "toe_mu_lbft": mu_t, "toe_phi_mn_lbft": pmn_t, "toe_vu_lb": vu_t,
         "toe_phi_vn_lb": pvn_t, "toe_d_in": d_t,
+        "virtual_back_height_ft": Hv, "ka": ka, "sum_v_lb": V_res, **seis,
     }
     return rows, values
 

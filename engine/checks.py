@@ -55,6 +55,12 @@ LOAD_FACTORS = (
 )
 
 
+SEISMIC_LOAD_FACTOR_NOTE = (
+    "Seismic case: stability with load_factor x E (IBC 2021 1807.2.3: 0.7) added to the "
+    "static soil thrust, live surcharge and strip loads left out, required FS from [seismic]; "
+    "stem strength also for 1.6 H + 1.0 E (ASCE 7 2.3.6); heel and toe for the static cases.")
+
+
 @dataclass(frozen=True)
 class CheckRow:
     """One check over all sections: ``ratio = demand / capacity``, passes where ratio <= 1."""
@@ -214,6 +220,30 @@ class SectionChecks:
         out["utilization_max"] = v(self.utilization_max)
         out["governing_check"] = str(np.broadcast_to(self.governing, shp)[index])
         out["load_factors"] = list(LOAD_FACTORS)
+        sz = st.seismic
+        if sz is not None:
+            lf = sz.thrust.component("seismic increment")
+            inertia = sum(c.horizontal_lb for c in sz.thrust.components
+                          if c.name.startswith("inertia"))
+            out["seismic"] = {
+                "delta_pae_lb": v(sz.delta_pae_lb),
+                "delta_pae_design_lb": v(np.hypot(lf.horizontal_lb, lf.vertical_lb)),
+                "inertia_lb": v(inertia),
+                "fs_overturning": v(sz.fs_overturning),
+                "fs_overturning_required": v(self.row("seismic_overturning").demand),
+                "m_overturning_lbft": v(sz.m_overturning_lbft),
+                "m_resisting_lbft": v(sz.m_resisting_lbft),
+                "fs_sliding": v(sz.fs_sliding),
+                "fs_sliding_required": v(self.row("seismic_sliding").demand),
+                "h_driving_lb": v(sz.h_driving_lb), "h_resisting_lb": v(sz.h_resisting_lb),
+                "sum_v_lb": v(sz.sum_v_lb),
+                "q_max_psf": v(sz.q_max_psf), "q_min_psf": v(sz.q_min_psf),
+                "eccentricity_ft": v(sz.eccentricity_ft),
+                "resultant_in_base": bool(np.broadcast_to(sz.resultant_in_base, shp)[index]),
+                "passes": all(bool(np.broadcast_to(self.row(n).passes, shp)[index]) for n in
+                              ("seismic_overturning", "seismic_sliding", "seismic_bearing")),
+            }
+            out["load_factors"].append(SEISMIC_LOAD_FACTOR_NOTE)
         return out
 
 
@@ -300,6 +330,22 @@ def check_section(geom: SectionGeometry, inputs: DesignInputs, bars: Reinforceme
         _row("toe_depth", "Footing depth above bottom bars", "in", f"{aci} 13.3.1.2",
              TOE_MIN_DEPTH_IN, toe.d_in, valid=valid),
     ]
+    sz = st.seismic
+    if sz is not None:
+        si = inputs.seismic
+        with np.errstate(divide="ignore", invalid="ignore"):
+            sot_ratio = si.fs_overturning / sz.fs_overturning
+            sbr_ratio = np.where(sz.resultant_in_base,
+                                 sz.q_max_psf / inputs.allowable_bearing_psf, np.inf)
+        clause = f"IBC 2021 1807.2.3 ({si.load_factor:g} E, {si.method})"
+        rows.append(_row("seismic_overturning", "Overturning with seismic (FS)", "-", clause,
+                         si.fs_overturning, sz.fs_overturning, ratio=sot_ratio,
+                         extra_ok=sz.resultant_in_base, valid=valid))
+        rows.append(_row("seismic_sliding", "Sliding with seismic (FS)", "-", clause,
+                         si.fs_sliding, sz.fs_sliding, valid=valid))
+        rows.append(_row("seismic_bearing", "Bearing pressure q_max with seismic", "psf",
+                         clause + "; allowable not increased", sz.q_max_psf,
+                         inputs.allowable_bearing_psf, ratio=sbr_ratio, valid=valid))
     if bars.horizontal is not None:
         hb = bars.horizontal
         t_avg = (geom.stem_top_in + geom.stem_base_in) / 2.0
@@ -337,6 +383,8 @@ CHECK_NAMES = (
 )
 OPTIONAL_CHECK_NAMES = ("stem_horizontal_steel", "stem_horizontal_spacing",
                         "footing_longitudinal_steel", "footing_longitudinal_spacing")
+SEISMIC_CHECK_NAMES = ("seismic_overturning", "seismic_sliding", "seismic_bearing")
 
-__all__ = ["CHECK_NAMES", "LOAD_FACTORS", "OPTIONAL_CHECK_NAMES", "CheckRow", "SectionChecks",
-           "check_section", "DesignInputs", "Reinforcement", "SectionGeometry"]
+__all__ = ["CHECK_NAMES", "LOAD_FACTORS", "OPTIONAL_CHECK_NAMES", "SEISMIC_CHECK_NAMES",
+           "CheckRow", "SectionChecks", "check_section", "DesignInputs", "Reinforcement",
+           "SectionGeometry"]

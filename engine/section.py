@@ -11,6 +11,7 @@ the footing to the top of wall = retained grade + freeboard.
 
 from __future__ import annotations
 
+import math
 from collections.abc import Mapping
 from dataclasses import dataclass, fields
 from typing import Any
@@ -146,6 +147,46 @@ class SectionGeometry:
 
 
 # ------------------------------------------------------------------------------------------
+SEISMIC_METHODS = ("seed-whitman", "mononobe-okabe")
+
+
+@dataclass(frozen=True)
+class SeismicLoad:
+    """The ``[seismic]`` table: horizontal coefficient, method, load factor, required FS."""
+
+    kh: float
+    method: str = "seed-whitman"
+    load_factor: float = 0.7  # IBC 2021 1807.2.3: 0.7 on nominal earthquake loads
+    fs_overturning: float = 1.1  # IBC 2021 1807.2.3
+    fs_sliding: float = 1.1  # IBC 2021 1807.2.3
+
+    def __post_init__(self):
+        if self.method not in SEISMIC_METHODS:
+            raise ValueError(f"seismic method must be one of {SEISMIC_METHODS}, "
+                             f"got {self.method!r}")
+        if not (0.0 <= self.kh < 1.0):
+            raise ValueError(f"seismic kh must be in 0 to 1, got {self.kh!r}")
+
+
+@dataclass(frozen=True)
+class WaterTable:
+    """The ``[water]`` table: water level behind the wall above the bottom of footing, ft."""
+
+    level_ft: float
+
+
+def _strip_tuple(items) -> tuple:
+    out = []
+    for it in items or ():
+        if isinstance(it, Mapping):
+            out.append((float(it["offset_ft"]), float(it["width_ft"]),
+                        float(it["pressure_psf"])))
+        else:
+            off, width, q = it
+            out.append((float(off), float(width), float(q)))
+    return tuple(out)
+
+
 @dataclass(frozen=True)
 class DesignInputs:
     """Soil, loads, materials and criteria shared by every section of one call (plain values).
@@ -163,8 +204,14 @@ class DesignInputs:
     friction_angle_deg: float | None = None
     passive_efp_pcf: float | None = None
     passive_from_friction_angle: bool = False
+    backslope_deg: float | None = None  # None or 0: level retained grade
+    active_method: str = "rankine"
+    wall_friction_deg: float | None = None
     # [loads]
     surcharge_psf: float = 0.0
+    strip: tuple = ()  # ((offset_ft, width_ft, pressure_psf), ...) from [[loads.strip]]
+    seismic: SeismicLoad | None = None  # from the [seismic] table; None: no seismic case
+    water: WaterTable | None = None  # from the [water] table; None: drained
     # [materials]
     fc_psi: float = 4000.0
     fy_psi: float = 60000.0
@@ -204,22 +251,96 @@ class DesignInputs:
             v = getattr(self, name)
             if not (isinstance(v, int | float) and np.isfinite(v) and v > 0):
                 raise ValueError(f"{name} must be a positive number, got {v!r}")
+        object.__setattr__(self, "strip", _strip_tuple(self.strip))
+        self._check_extended(has_phi)
+
+    def _check_extended(self, has_phi: bool):
+        """Cross-key rules of the backslope, Coulomb, seismic, water and strip inputs."""
+        beta = self.backslope_deg or 0.0
+        phi = self.friction_angle_deg
+        if not (0.0 <= beta < 90.0):
+            raise ValueError(f"backslope must be between 0 and 90 deg, got {beta:g}")
+        if has_phi and beta > phi:
+            raise ValueError(f"backslope {beta:.4g} deg is steeper than friction_angle_deg "
+                             f"{phi:g}; no active state exists (give a flatter slope or an "
+                             "active_efp_pcf from the geotechnical report)")
+        if self.active_method not in ("rankine", "coulomb"):
+            raise ValueError("active_method must be 'rankine' or 'coulomb', got "
+                             f"{self.active_method!r}")
+        if self.active_method == "coulomb":
+            if not has_phi:
+                raise ValueError("active_method = 'coulomb' needs friction_angle_deg (not "
+                                 "active_efp_pcf)")
+            if self.wall_friction_deg is None:
+                raise ValueError("active_method = 'coulomb' needs wall_friction_deg (the "
+                                 "wall friction angle from the geotechnical report)")
+            if not (0.0 <= self.wall_friction_deg <= phi):
+                raise ValueError(f"wall_friction_deg {self.wall_friction_deg:g} must be "
+                                 f"between 0 and friction_angle_deg {phi:g}")
+        elif self.wall_friction_deg is not None:
+            raise ValueError("wall_friction_deg is used only with active_method = 'coulomb'")
+        sz = self.seismic
+        if sz is not None and sz.method == "mononobe-okabe":
+            if not has_phi:
+                raise ValueError("seismic method 'mononobe-okabe' needs friction_angle_deg; "
+                                 "use 'seed-whitman' with active_efp_pcf")
+            psi = math.degrees(math.atan(sz.kh))
+            if phi - beta - psi < 0:
+                raise ValueError(f"Mononobe-Okabe has no solution: phi - backslope - "
+                                 f"atan(kh) = {phi - beta - psi:.3g} deg < 0 (lower kh or the "
+                                 "slope)")
+        if self.water is not None and self.unit_weight_pcf <= 62.4:
+            raise ValueError("with [water] the unit weight must exceed 62.4 pcf (the buoyant "
+                             "unit weight is gamma - 62.4)")
+        for off, width, q in self.strip:
+            if not (off >= 0 and width > 0 and q >= 0):
+                raise ValueError("a strip load needs offset_ft >= 0, width_ft > 0 and "
+                                 "pressure_psf >= 0")
+
+    @property
+    def water_level_ft(self) -> float | None:
+        """Water level above the bottom of footing, ft (None: drained)."""
+        return None if self.water is None else float(self.water.level_ft)
 
     @classmethod
     def from_tables(cls, soil: Mapping, loads: Mapping, materials: Mapping,
-                    criteria: Mapping) -> DesignInputs:
-        """From the validated ``[soil]``, ``[loads]``, ``[materials]``, ``[criteria]`` dicts.
+                    criteria: Mapping, seismic: Mapping | None = None,
+                    water: Mapping | None = None) -> DesignInputs:
+        """From the validated ``[soil]``, ``[loads]``, ``[materials]``, ``[criteria]`` dicts,
+        and the optional ``[seismic]`` and ``[water]`` tables (absent, empty or without
+        ``kh`` / ``level_ft``: no seismic case, drained).
 
         Keys this class does not know (e.g. ``station_interval_ft``) are ignored; a missing
-        non-soil key takes the class default (the same as ``wallsched/keys.py``).
+        non-soil key takes the class default (the same as ``wallsched/keys.py``). A
+        ``backslope = "H:V"`` soil key gives ``backslope_deg``.
         """
-        names = {f.name for f in fields(cls)}
+        from .pressure import backslope_from_ratio
+
+        names = {f.name for f in fields(cls)} - {"seismic", "water"}
         kw = {}
         for table in (soil, loads, materials, criteria):
             for k, v in table.items():
                 if k in names and v is not None:
                     kw[k] = v
+        if soil.get("backslope") is not None:
+            if soil.get("backslope_deg") is not None:
+                raise ValueError("give either backslope (\"H:V\") or backslope_deg, not both")
+            kw["backslope_deg"] = backslope_from_ratio(soil["backslope"])
+        seismic = seismic if seismic is not None else loads.get("seismic")
+        water = water if water is not None else loads.get("water")
+        if seismic and seismic.get("kh") is not None:
+            kw["seismic"] = SeismicLoad(**{k: v for k, v in seismic.items() if v is not None
+                                           and k in {f.name for f in fields(SeismicLoad)}})
+        if water and water.get("level_ft") is not None:
+            kw["water"] = WaterTable(float(water["level_ft"]))
         return cls(**kw)
+
+    @property
+    def extended(self) -> bool:
+        """Any of the backslope, Coulomb, water or strip-load models in use (the static
+        thrust then depends on more than the design height)."""
+        return bool(self.backslope_deg) or self.active_method != "rankine" or bool(
+            self.strip) or self.water is not None
 
 
 # ------------------------------------------------------------------------------------------
@@ -296,15 +417,95 @@ class Weights:
     soil_batter: Weight
     soil_toe: Weight  # zero when count_toe_soil is false
     surcharge: Weight  # live: resists only with surcharge_resists
+    uplift: Weight | None = None  # water pressure on the base (negative), with [water]
 
     DEAD = ("stem_rectangle", "stem_batter", "footing", "key", "soil_heel", "soil_batter",
-            "soil_toe")
+            "soil_toe", "uplift")
 
     def dead(self) -> tuple[np.ndarray, np.ndarray]:
-        """Sum of the permanent weights and of their moments about the toe."""
-        v = sum(getattr(self, n).lb for n in self.DEAD)
-        m = sum(getattr(self, n).moment_lbft for n in self.DEAD)
+        """Sum of the permanent weights (less the uplift) and of their moments about the toe."""
+        parts = [getattr(self, n) for n in self.DEAD if getattr(self, n) is not None]
+        v = sum(w.lb for w in parts)
+        m = sum(w.moment_lbft for w in parts)
         return v, m
+
+
+def polygon_area_centroid(xs, ys):
+    """Area (>= 0) and centroid (x, y) of simple polygons given by vertex arrays (shoelace);
+    each vertex coordinate broadcasts over sections. Zero area gives centroid (0, 0)."""
+    n = len(xs)
+    a2 = cx = cy = 0.0
+    for i in range(n):
+        x1, y1, x2, y2 = _arr(xs[i]), _arr(ys[i]), _arr(xs[(i + 1) % n]), _arr(ys[(i + 1) % n])
+        cr = x1 * y2 - x2 * y1
+        a2 = a2 + cr
+        cx = cx + (x1 + x2) * cr
+        cy = cy + (y1 + y2) * cr
+    ok = np.abs(a2) > 1e-14
+    with np.errstate(divide="ignore", invalid="ignore"):
+        xc = np.where(ok, cx / (3.0 * np.where(ok, a2, 1.0)), 0.0)
+        yc = np.where(ok, cy / (3.0 * np.where(ok, a2, 1.0)), 0.0)
+    return np.abs(a2) / 2.0, xc, yc
+
+
+def retained_soil_polygons(geom: SectionGeometry, inputs: DesignInputs, top_y=None):
+    """The soil over the heel as one region (stem back face, top of footing, heel plane,
+    ground rising at the backslope from where the retained grade meets the stem's back face),
+    split by the vertical through the stem's back face at its base into the part over the
+    heel and the part over a battered back face. ``top_y`` cuts the region at that height
+    (the submerged part below a water level); returns ((xs, ys) heel, (xs, ys) batter).
+    """
+    from .pressure import _stem_face_x_at_grade, virtual_back_height_ft
+
+    g = geom
+    T, B, H = g.footing_thickness_ft, g.footing_width_ft, g.design_height_ft
+    tt, tb = g.stem_top_in / 12.0, g.stem_base_in / 12.0
+    x_back = g.toe_ft + tb
+    x_gf = _stem_face_x_at_grade(g, inputs)
+    tanb = math.tan(math.radians(inputs.backslope_deg or 0.0))
+    y_back = H + (x_back - x_gf) * tanb  # ground above the stem's back face at its base
+    Hv = virtual_back_height_ft(g, inputs)
+    if top_y is None:
+        heel = ([x_back, B, B, x_back], [T, T, Hv, y_back])
+        batter = ([x_back, x_back, x_gf], [T, y_back, H])
+        return heel, batter
+    y = np.clip(top_y, T, H)
+    if inputs.batter_face == "back":
+        with np.errstate(divide="ignore", invalid="ignore"):
+            x_y = x_back - np.where(g.stem_height_ft > 0,
+                                    (tb - tt) * (y - T) / g.stem_height_ft, 0.0)
+    else:
+        x_y = x_back + 0.0 * y
+    heel = ([x_back, B, B, x_back], [T, T, y, y])
+    batter = ([x_back, x_back, x_y], [T, y, y])
+    return heel, batter
+
+
+def _polygon_soil_weights(geom, inputs):
+    """Soil over the heel and over a battered back face from the polygon, less the buoyancy
+    below the water level; and the uplift on the base (triangular, full head at the heel edge
+    to zero at the toe edge, no water in front)."""
+    from .pressure import WATER_PCF, water_height_ft
+
+    gs = inputs.unit_weight_pcf
+    heel, batter = retained_soil_polygons(geom, inputs)
+    ah, xh, _ = polygon_area_centroid(*heel)
+    ab, xb, _ = polygon_area_centroid(*batter)
+    wh, mh, wb, mb = gs * ah, gs * ah * xh, gs * ab, gs * ab * xb
+    B = geom.footing_width_ft
+    uplift = None
+    if inputs.water is not None:
+        hw = water_height_ft(geom, inputs)
+        sh, sb = retained_soil_polygons(geom, inputs, top_y=hw)
+        a1, x1, _ = polygon_area_centroid(*sh)
+        a2, x2, _ = polygon_area_centroid(*sb)
+        wh, mh = wh - WATER_PCF * a1, mh - WATER_PCF * a1 * x1
+        wb, mb = wb - WATER_PCF * a2, mb - WATER_PCF * a2 * x2
+        uplift = Weight(-WATER_PCF * hw * B / 2.0, 2.0 * B / 3.0 + 0.0 * hw)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        heel_w = Weight(wh, np.where(wh != 0, mh / np.where(wh != 0, wh, 1.0), 0.0))
+        bat_w = Weight(wb, np.where(wb != 0, mb / np.where(wb != 0, wb, 1.0), 0.0))
+    return heel_w, bat_w, uplift
 
 
 def section_weights(geom: SectionGeometry, inputs: DesignInputs) -> Weights:
@@ -317,6 +518,10 @@ def section_weights(geom: SectionGeometry, inputs: DesignInputs) -> Weights:
     its base to the heel edge (q * heel_ft, the span ``heel_ft`` is measured over; DESIGN.md
     section 7). Soil over the toe spans the toe only, from the top of footing to the front grade
     (0 if the front grade is lower).
+
+    With a backslope or a water level the soil over the heel and the battered face is the
+    polygon of :func:`retained_soil_polygons` (buoyant below the water), and the base carries
+    the uplift (a negative dead weight, see :func:`_polygon_soil_weights`).
     """
     g, gc, gs = geom, inputs.concrete_unit_weight_pcf, inputs.unit_weight_pcf
     T = g.footing_thickness_ft
@@ -341,14 +546,21 @@ def section_weights(geom: SectionGeometry, inputs: DesignInputs) -> Weights:
         w_top = np.zeros_like(bat)
     soil_toe_w = gs * toe * g.toe_soil_depth_ft * (1.0 if inputs.count_toe_soil else 0.0)
     q = inputs.surcharge_psf
+    if inputs.backslope_deg or inputs.water is not None:
+        soil_heel, soil_batter, uplift = _polygon_soil_weights(g, inputs)
+    else:  # level and drained: the closed forms (equal to the polygon; tested)
+        soil_heel = Weight(gs * g.heel_ft * hs, B - g.heel_ft / 2.0)
+        soil_batter = Weight(gs * 0.5 * w_top * hs, x_back - w_top / 3.0)
+        uplift = None
     return Weights(
         stem_rectangle=Weight(rect_w, rect_x),
         stem_batter=Weight(tri_w, tri_x),
         footing=Weight(gc * B * T, B / 2.0),
         key=Weight(np.where(g.has_key, gc * g.key_width_in * g.key_depth_in / 144.0, 0.0),
                    g.key_offset_ft + g.key_width_in / 24.0),
-        soil_heel=Weight(gs * g.heel_ft * hs, B - g.heel_ft / 2.0),
-        soil_batter=Weight(gs * 0.5 * w_top * hs, x_back - w_top / 3.0),
+        soil_heel=soil_heel,
+        soil_batter=soil_batter,
         soil_toe=Weight(soil_toe_w, toe / 2.0),
         surcharge=Weight(q * g.heel_ft, B - g.heel_ft / 2.0),
+        uplift=uplift,
     )

@@ -17,7 +17,15 @@ from dataclasses import dataclass, fields
 
 import numpy as np
 
-from .pressure import EarthPressure, Thrust, design_thrust, earth_pressure, passive_resistance_lb
+from .pressure import (
+    EarthPressure,
+    Thrust,
+    design_thrust,
+    earth_pressure,
+    passive_resistance_lb,
+    seismic_increment_lb,
+    seismic_thrust,
+)
 from .section import DesignInputs, SectionGeometry, Weights, section_weights
 
 
@@ -55,6 +63,31 @@ def bearing_pressure(sum_v_lb, eccentricity_ft, width_ft) -> BearingCase:
 
 
 @dataclass(frozen=True)
+class SeismicStability:
+    """The seismic case (IBC 2021 1807.2.3): static soil thrust without the live loads plus
+    load_factor x (Delta P_AE and the concrete inertia); dead weights only; required FS from
+    ``[seismic]``; bearing against the same allowable (no increase taken)."""
+
+    delta_pae_lb: np.ndarray  # nominal increment (before the load factor)
+    thrust: Thrust
+    h_driving_lb: np.ndarray
+    m_overturning_lbft: np.ndarray
+    sum_v_lb: np.ndarray
+    m_resisting_lbft: np.ndarray
+    fs_overturning: np.ndarray
+    h_resisting_lb: np.ndarray
+    fs_sliding: np.ndarray
+    q_max_psf: np.ndarray
+    q_min_psf: np.ndarray
+    eccentricity_ft: np.ndarray
+    resultant_in_base: np.ndarray
+    passes_overturning: np.ndarray
+    passes_sliding: np.ndarray
+    passes_bearing: np.ndarray
+    case: BearingCase
+
+
+@dataclass(frozen=True)
 class StabilityResult:
     """Service-load stability of each section (arrays, per foot of wall).
 
@@ -85,17 +118,19 @@ class StabilityResult:
     passes: np.ndarray
     case_dead: BearingCase
     case_surcharge: BearingCase
+    seismic: SeismicStability | None = None
 
     def to_frame(self):
         """One row per section, the array fields as columns."""
         import pandas as pd
 
         cols = {}
+        skip = (BearingCase, SeismicStability, type(None))
         shape = np.broadcast_shapes(*(np.shape(getattr(self, f.name)) for f in fields(self)
-                                      if not isinstance(getattr(self, f.name), BearingCase)))
+                                      if not isinstance(getattr(self, f.name), skip)))
         for f in fields(self):
             v = getattr(self, f.name)
-            if isinstance(v, BearingCase):
+            if isinstance(v, skip):
                 continue
             cols[f.name] = np.broadcast_to(v, shape).reshape(-1)
         return pd.DataFrame(cols)
@@ -158,6 +193,11 @@ def stability(geom: SectionGeometry, inputs: DesignInputs, *,
     ok_ot = (fs_ot >= inputs.fs_overturning) & in_base
     ok_sl = fs_sl >= inputs.fs_sliding
     ok_b = q_max <= inputs.allowable_bearing_psf
+    sz = None
+    passes = ok_ot & ok_sl & ok_b & geom.valid
+    if inputs.seismic is not None:
+        sz = seismic_stability(geom, inputs, p, w, pp)
+        passes = passes & sz.passes_overturning & sz.passes_sliding & sz.passes_bearing
     return StabilityResult(
         footing_width_ft=B, design_height_ft=geom.design_height_ft,
         sum_v_lb=v_r, m_resisting_lbft=m_r, m_overturning_lbft=m_o, fs_overturning=fs_ot,
@@ -165,6 +205,38 @@ def stability(geom: SectionGeometry, inputs: DesignInputs, *,
         q_max_psf=q_max, q_min_psf=q_min, eccentricity_ft=e,
         bearing_with_surcharge=with_q,
         resultant_in_base=in_base, passes_overturning=ok_ot, passes_sliding=ok_sl,
-        passes_bearing=ok_b, passes=ok_ot & ok_sl & ok_b & geom.valid,
-        case_dead=case0, case_surcharge=case1,
+        passes_bearing=ok_b, passes=passes,
+        case_dead=case0, case_surcharge=case1, seismic=sz,
     )
+
+
+def seismic_stability(geom: SectionGeometry, inputs: DesignInputs, pressure: EarthPressure,
+                      weights: Weights, passive_lb) -> SeismicStability:
+    """Overturning, sliding and bearing of the seismic case (see :class:`SeismicStability`).
+
+    The live surcharge (its weight and lateral pressure) and the strip loads are left out (IBC
+    2021 1807.2.3 permits one variable load at zero); vertical components of the thrust act on
+    the heel plane (x = B); passive resistance as in the static case.
+    """
+    sz = inputs.seismic
+    th = seismic_thrust(geom, inputs, pressure)
+    B = geom.footing_width_ft
+    v, m = weights.dead()
+    v = v + th.vertical_lb
+    m = m + th.vertical_lb * B
+    m_o = th.moment_lbft
+    h_d = th.horizontal_lb
+    with np.errstate(divide="ignore", invalid="ignore"):
+        fs_ot = m / m_o
+        case = bearing_pressure(v, B / 2.0 - (m - m_o) / v, B)
+        h_r = inputs.friction_coefficient * v + passive_lb
+        fs_sl = h_r / h_d
+    return SeismicStability(
+        delta_pae_lb=np.asarray(seismic_increment_lb(geom, inputs, pressure)), thrust=th,
+        h_driving_lb=h_d, m_overturning_lbft=m_o, sum_v_lb=v, m_resisting_lbft=m,
+        fs_overturning=fs_ot, h_resisting_lb=h_r, fs_sliding=fs_sl, q_max_psf=case.q_max_psf,
+        q_min_psf=case.q_min_psf, eccentricity_ft=case.eccentricity_ft,
+        resultant_in_base=case.in_base,
+        passes_overturning=(fs_ot >= sz.fs_overturning) & case.in_base,
+        passes_sliding=fs_sl >= sz.fs_sliding,
+        passes_bearing=case.q_max_psf <= inputs.allowable_bearing_psf, case=case)

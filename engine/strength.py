@@ -37,7 +37,13 @@ from dataclasses import dataclass, fields
 import numpy as np
 
 from .development import hook_psi_r, hooked_development_in
-from .pressure import EarthPressure, cantilever_shear_moment, earth_pressure
+from .pressure import (
+    EarthPressure,
+    design_thrust,
+    earth_pressure,
+    stem_seismic_shear_moment,
+    stem_shear_moment,
+)
 from .section import BarArrays, DesignInputs, SectionGeometry
 
 ES_PSI = 29_000_000.0  # 20.2.2.2
@@ -47,6 +53,7 @@ B_IN = 12.0  # one foot of wall
 LF_LATERAL = 1.6  # ASCE 7 2.3: H (lateral earth pressure) and L (live surcharge)
 LF_DEAD_ADDS = 1.2
 LF_DEAD_RESISTS = 0.9
+LF_SEISMIC = 1.0  # ASCE 7 2.3.6: E at 1.0 in strength design
 STEM_HEIGHT_FRACTIONS = (0.25, 0.5, 0.75)  # sections up a stem, fractions of h_s
 
 
@@ -266,7 +273,6 @@ def stem_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays, 
     cover. ``fractions`` of h_s give the sections checked up the stem (bars run full height).
     """
     p = pressure or earth_pressure(inputs)
-    lat = p.surcharge_lateral_psf
     fc, fy = inputs.fc_psi, inputs.fy_psi
     hs = geom.soil_height_ft
     tb = geom.stem_base_in
@@ -274,8 +280,21 @@ def stem_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays, 
     db = bars.diameter_in
     d = tb - cov - db / 2.0
     As = bars.area_in2_per_ft
-    _, ms = cantilever_shear_moment(p.active_efp_pcf, lat, hs)
-    vs_d, _ = cantilever_shear_moment(p.active_efp_pcf, lat, hs - d / 12.0)
+
+    def factored(z):
+        """Service and factored shear and moment at depth z below the retained grade: the
+        larger of 1.6 (H + L) and, with [seismic], 1.6 H + 1.0 E (live loads left out)."""
+        v, m = stem_shear_moment(geom, inputs, p, z)
+        vu, mu = LF_LATERAL * v, LF_LATERAL * m
+        if inputs.seismic is not None:
+            v0, m0 = stem_shear_moment(geom, inputs, p, z, live=False)
+            ve, me = stem_seismic_shear_moment(geom, inputs, p, z)
+            vu = np.maximum(vu, LF_LATERAL * v0 + LF_SEISMIC * ve)
+            mu = np.maximum(mu, LF_LATERAL * m0 + LF_SEISMIC * me)
+        return v, m, vu, mu
+
+    _, ms, _, mu_base = factored(hs)
+    _, _, vu_d, _ = factored(hs - d / 12.0)
     fl = flexural_strength(As, d, fc, fy)
     pvn = one_way_shear_strength(As, d, fc, size_effect=True)
     s_max = max_flexural_spacing_in(tb)
@@ -293,8 +312,7 @@ def stem_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays, 
     fr = np.asarray(fractions, dtype=float).reshape((-1,) + (1,) * nd)
     y = fr * hs
     d_y = geom.stem_thickness_in(y) - cov - db / 2.0
-    v_y, m_y = cantilever_shear_moment(p.active_efp_pcf, lat, hs - y)
-    mu_y, vu_y = LF_LATERAL * m_y, LF_LATERAL * v_y
+    _, _, vu_y, mu_y = factored(hs - y)
     pmn_y = flexural_strength(As, d_y, fc, fy).phi_mn_lbft
     pvn_y = one_way_shear_strength(As, d_y, fc, size_effect=True)
     with np.errstate(divide="ignore", invalid="ignore"):
@@ -307,7 +325,7 @@ def stem_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays, 
         return np.take_along_axis(arr, idx, axis=0)[0]
 
     return StemResult(
-        mu_lbft=LF_LATERAL * ms, phi_mn_lbft=fl.phi_mn_lbft, vu_lb=LF_LATERAL * vs_d,
+        mu_lbft=mu_base, phi_mn_lbft=fl.phi_mn_lbft, vu_lb=vu_d,
         phi_vn_lb=pvn, d_in=d, thickness_in=tb, as_in2=As,
         as_min_in2=min_flexural_steel_in2(tb), spacing_in=bars.spacing_in,
         s_max_in=np.minimum(s_max, s_cr), cover_in=cov, phi=fl.phi, eps_t=fl.eps_t,
@@ -348,9 +366,39 @@ def heel_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays) 
     ``cover_heel_in`` is given.
     """
     L = geom.heel_ft
-    wu = heel_loads_psf(geom, inputs)
     cov = cover_in(bars.size, inputs.cover_heel_in)
-    return _footing_member(geom, inputs, bars, wu * L * L / 2.0, wu * L, cov)
+    if not inputs.extended:
+        wu = heel_loads_psf(geom, inputs)
+        return _footing_member(geom, inputs, bars, wu * L * L / 2.0, wu * L, cov)
+    mu, vu = heel_demand(geom, inputs)
+    return _footing_member(geom, inputs, bars, mu, vu, cov)
+
+
+def heel_demand(geom: SectionGeometry, inputs: DesignInputs, pressure=None):
+    """Factored heel moment and shear at the stem's back face with a backslope, Coulomb,
+    water or strip loads: 1.2 (soil depth d0 at the face to d1 at the heel edge, full unit
+    weight: buoyancy and uplift neglected, conservative; footing) + 1.6 q + 1.6 x the
+    vertical component Pv of the static thrust, acting down on the heel plane at the edge:
+
+    Mu = 1.2 [gamma (d0 L^2/2 + (d1 - d0) L^2/3) + gamma_c T L^2/2] + 1.6 (q L^2/2 + Pv L).
+    """
+    from .pressure import _stem_face_x_at_grade, virtual_back_height_ft
+
+    p = pressure or earth_pressure(inputs)
+    L = geom.heel_ft
+    T = geom.footing_thickness_ft
+    x_back = geom.toe_ft + geom.stem_base_in / 12.0
+    tanb = np.tan(np.radians(inputs.backslope_deg or 0.0))
+    H = geom.design_height_ft
+    d0 = np.maximum(H + (x_back - _stem_face_x_at_grade(geom, inputs)) * tanb - T, 0.0)
+    d1 = np.maximum(virtual_back_height_ft(geom, inputs) - T, 0.0)
+    g, gc, q = inputs.unit_weight_pcf, inputs.concrete_unit_weight_pcf, inputs.surcharge_psf
+    pv = design_thrust(geom, inputs, p).vertical_lb
+    mu = (LF_DEAD_ADDS * (g * (d0 * L * L / 2.0 + (d1 - d0) * L * L / 3.0) + gc * T * L * L / 2.0)
+          + LF_LATERAL * (q * L * L / 2.0 + pv * L))
+    vu = (LF_DEAD_ADDS * (g * (d0 + d1) * L / 2.0 + gc * T * L)
+          + LF_LATERAL * (q * L + pv))
+    return mu, vu
 
 
 def pressure_line(case, width_ft):
@@ -408,6 +456,14 @@ def toe_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays,
     w = inputs.concrete_unit_weight_pcf * geom.footing_thickness_ft
     if inputs.count_toe_soil:
         w = w + inputs.unit_weight_pcf * geom.toe_soil_depth_ft
+    if inputs.water is not None:
+        # uplift under the toe (the triangle of the stability case: 0 at the toe edge to the
+        # full head at the heel edge), water pressure: 1.6 as H
+        from .pressure import WATER_PCF, water_height_ft
+
+        u_b = WATER_PCF * water_height_ft(geom, inputs)
+        f_up = f_up + u_b * L * L / (2.0 * B)
+        m_up = m_up + u_b * L ** 3 / (6.0 * B)
     mu = LF_LATERAL * m_up - LF_DEAD_RESISTS * w * L * L / 2.0
     vu = LF_LATERAL * f_up - LF_DEAD_RESISTS * w * L
     cov = cover_in(bars.size, inputs.cover_toe_in)

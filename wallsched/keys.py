@@ -31,11 +31,59 @@ SOIL_KEYS = {
     "allowable_bearing_psf": Key(float, REQUIRED, lo=0, hi=50000, lo_open=True,
                                  doc="allowable bearing pressure, psf"),
     "source": Key(str, None, doc="where these values come from (report, date)"),
+    # sloping backfill and the active-pressure method (engine/pressure.py)
+    "backslope": Key(str, None, doc="slope of the retained ground above the wall, \"H:V\" "
+                     "(horizontal:vertical), e.g. \"2:1\" (or backslope_deg)"),
+    "backslope_deg": Key(float, None, lo=0, hi=60, hi_open=True,
+                         doc="slope of the retained ground above the wall, degrees (or "
+                             "backslope); it rises from where the grade meets the stem"),
+    "active_method": Key(str, "rankine", choices=("rankine", "coulomb"),
+                         doc="active coefficient from friction_angle_deg: Rankine on the "
+                             "virtual back, or Coulomb with wall_friction_deg"),
+    "wall_friction_deg": Key(float, None, lo=0, hi=45,
+                             doc="wall friction angle delta for active_method = \"coulomb\", "
+                                 "degrees (from the geotechnical report)"),
 }
 
 LOADS_KEYS = {
     "surcharge_psf": Key(float, 0.0, lo=0, hi=5000,
                          doc="uniform live surcharge on the retained grade, psf"),
+    # table-valued: written as [[loads.strip]] entries, and the top-level [seismic] and
+    # [water] tables (the files' loaders fill these three; STRIP_KEYS, SEISMIC_KEYS, WATER_KEYS)
+    "strip": Key(list, (), doc="strip surcharges near the wall, [[loads.strip]] entries"),
+    "seismic": Key(dict, None, doc="the seismic case, from the [seismic] table"),
+    "water": Key(dict, None, doc="water behind the wall, from the [water] table (default "
+                 "drained)"),
+}
+
+# [[loads.strip]]: a strip load near the wall (a road, a footing), live
+STRIP_KEYS = {
+    "offset_ft": Key(float, REQUIRED, lo=0, hi=1000,
+                     doc="stem's back face (at the retained grade) to the strip's near edge, ft"),
+    "width_ft": Key(float, REQUIRED, lo=0, hi=1000, lo_open=True, doc="strip width, ft"),
+    "pressure_psf": Key(float, REQUIRED, lo=0, hi=20000, doc="strip pressure, psf"),
+    "name": Key(str, None, doc="what the load is"),
+}
+
+# [seismic]: present only where the site or section file has the table
+SEISMIC_KEYS = {
+    "kh": Key(float, REQUIRED, lo=0, hi=0.8, doc="horizontal seismic coefficient kh"),
+    "method": Key(str, "seed-whitman", choices=("seed-whitman", "mononobe-okabe"),
+                  doc="dynamic increment: Seed-Whitman 0.375 kh gamma H^2 or Mononobe-Okabe"),
+    "load_factor": Key(float, 0.7, lo=0, hi=1.0, lo_open=True,
+                       doc="factor on the nominal earthquake loads in the stability case "
+                           "(IBC 2021 1807.2.3: 0.7)"),
+    "fs_overturning": Key(float, 1.1, lo=1.0, hi=5.0,
+                          doc="required FS, overturning with seismic (IBC 2021 1807.2.3)"),
+    "fs_sliding": Key(float, 1.1, lo=1.0, hi=5.0,
+                      doc="required FS, sliding with seismic (IBC 2021 1807.2.3)"),
+}
+
+# [water]: an explicit option; without it the backfill is drained
+WATER_KEYS = {
+    "level_ft": Key(float, REQUIRED, lo=-100, hi=100,
+                    doc="water level behind the wall above the bottom of footing, ft (at or "
+                        "below 0: drained)"),
 }
 
 MATERIALS_KEYS = {
