@@ -93,10 +93,15 @@ def plot_design_elevation(design, path, *, vertical_exaggeration: float = 1.0) -
                        ls="-" if j.kind == "expansion" else ":", lw=0.8)
         ax.plot([], [], color="tab:olive", ls=":", lw=0.8, label="contraction joint")
         ax.plot([], [], color="tab:purple", lw=0.8, label="expansion joint")
-        for g in design.segments:
-            ax.text((g.station_start_ft + g.station_end_ft) / 2, 0.97,
-                    f"{g.segment}\nsection {g.mark}", transform=ax.get_xaxis_transform(),
-                    ha="center", va="top", fontsize=8)
+        span = max(st[-1] - st[0], 1.0)
+        for i, g in enumerate(design.segments):
+            # the section mark on every segment; the segment number where there is room,
+            # staggered in two rows so that short segments do not overprint
+            wide = (g.station_end_ft - g.station_start_ft) / span > 0.06
+            text = f"{g.segment}\n{g.mark}" if wide else g.mark
+            ax.text((g.station_start_ft + g.station_end_ft) / 2, 0.985 - 0.05 * (i % 2),
+                    text, transform=ax.get_xaxis_transform(), ha="center", va="top",
+                    fontsize=7)
         ax.set_ylabel("elevation (ft)" + (f", vertical x{vertical_exaggeration:g}"
                                           if vertical_exaggeration != 1 else ""))
         ax.set_xlabel("station")
