@@ -87,6 +87,17 @@ def stations_frame(walls) -> pd.DataFrame:
         marks = np.array([s.mark for s in w.segments] + [""], dtype=object)
         f["segment"] = seg_ids[idx]
         f["mark"] = marks[idx]
+        # the segment's footing and top of wall at each station, for re-checks by station
+        bf = np.array([s.bottom_of_footing_ft for s in w.segments] + [np.nan])[idx]
+        tw_seg = np.array([s.top_of_wall_ft for s in w.segments] + [np.nan])[idx]
+        fb = np.array([(s.top_of_wall_start_ft - w.stations.retained_grade_ft[
+            int(np.argmin(np.abs(w.stations.station_ft - s.station_start_ft)))])
+            if s.top_of_wall_ft != s.top_of_wall_ft else np.nan
+            for s in w.segments] + [np.nan])[idx]
+        tw = np.where(np.isfinite(tw_seg), tw_seg, w.stations.retained_grade_ft + fb)
+        f["top_of_wall_ft"] = np.where(idx >= 0, tw, np.nan)
+        f["bottom_of_footing_ft"] = np.where(idx >= 0, bf, np.nan)
+        f["embedment_ft"] = f["front_grade_ft"] - f["bottom_of_footing_ft"]
         f["utilization"] = w.station_utilization
         f["governing_check"] = list(w.station_governing)
         f["status"] = list(w.station_status)

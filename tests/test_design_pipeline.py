@@ -49,9 +49,11 @@ def recheck_from_tables(site_path: Path, out: Path) -> int:
                 rows.station_ft <= seg.station_end_ft + 1e-6)
             for r in rows[m].itertuples():
                 h = r.retained_grade_ft - r.front_grade_ft
+                tw = seg.top_of_wall_ft if math.isfinite(seg.top_of_wall_ft) else \
+                    r.retained_grade_ft + wall.criteria["freeboard_ft"]  # top follows grade
                 geo = {"retained_height_ft": max(h, 0.05),
                        "embedment_ft": r.front_grade_ft - seg.bottom_of_footing_ft,
-                       "freeboard_ft": seg.top_of_wall_ft - r.retained_grade_ft,
+                       "freeboard_ft": tw - r.retained_grade_ft,
                        "footing_thickness_in": seg.footing_thickness_in,
                        "stem_top_in": seg.stem_top_in, "stem_base_in": seg.stem_base_in,
                        "toe_ft": seg.toe_ft, "heel_ft": seg.heel_ft}
@@ -181,6 +183,19 @@ def test_local_grading_change_moves_only_nearby_segments(runner, tmp_path):
     moved = changed[changed["_merge"] == "left_only"]
     assert len(moved) >= 1
     assert (moved.station_end_ft > 140).all() and (moved.station_start_ft < 460).all()
+
+
+def test_top_following_the_grade(runner, tmp_path):
+    site = make_site(tmp_path, extra=SMALL_GRID + '[criteria]\ntop_of_wall = "follow_grade"\n')
+    out = tmp_path / "out"
+    res = design(runner, site, out)
+    assert res.exit_code == 0, res.output
+    sched = pd.read_csv(out / "schedule.csv")
+    assert sched.top_of_wall_ft.isna().all()  # no level top: it follows the grade
+    st = pd.read_csv(out / "stations.csv")
+    walled = st[st.segment.notna()]
+    np.testing.assert_allclose(walled.top_of_wall_ft - walled.retained_grade_ft, 0.5)
+    assert recheck_from_tables(site, out) >= len(walled)
 
 
 def test_over_the_limit_is_flagged_and_exit_3(runner, tmp_path):
