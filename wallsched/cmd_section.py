@@ -40,15 +40,18 @@ def _fmt(x) -> str:
     return f"{x:.3f}"
 
 
-def _conventions(sf, pressure) -> list[str]:
+def _conventions(sf, pressure, inputs=None) -> list[str]:
     c = sf.criteria
-    lines = [
-        f"active pressure: {pressure.basis}, EFP {pressure.active_efp_pcf:.1f} pcf "
-        f"(Ka = {pressure.ka:.4f}), on the vertical plane through the heel edge over the "
-        "design height H (retained grade to bottom of footing)",
-        f"surcharge {pressure.surcharge_psf:g} psf: lateral Ka*q = "
-        f"{pressure.surcharge_lateral_psf:.1f} psf over H",
-    ]
+    if inputs is None or not (inputs.extended or inputs.seismic is not None):
+        lines = [
+            f"active pressure: {pressure.basis}, EFP {pressure.active_efp_pcf:.1f} pcf "
+            f"(Ka = {pressure.ka:.4f}), on the vertical plane through the heel edge over the "
+            "design height H (retained grade to bottom of footing)",
+            f"surcharge {pressure.surcharge_psf:g} psf: lateral Ka*q = "
+            f"{pressure.surcharge_lateral_psf:.1f} psf over H",
+        ]
+    else:
+        lines = _extended_conventions(pressure, inputs)
     if c["use_passive"]:
         lines.append(f"passive EFP {pressure.passive_efp_pcf:.1f} pcf from "
                      f"{c['passive_neglect_ft']:g} ft below front grade to the bottom of "
@@ -68,17 +71,83 @@ def _conventions(sf, pressure) -> list[str]:
     return lines
 
 
+def _extended_conventions(p, i) -> list[str]:
+    """The stated conventions of the backslope, Coulomb, water, strip and seismic models."""
+    beta = p.backslope_deg
+    lines = [
+        f"active pressure: {p.basis}; Ka = {p.ka:.4f}, EFP {p.active_efp_pcf:.1f} pcf acting "
+        f"{p.inclination_deg:.4g} deg above the horizontal (horizontal part "
+        f"{p.horizontal_efp_pcf:.1f} pcf) on the virtual back: the vertical plane through the "
+        "heel edge, from the bottom of footing to the ground at the heel edge (H')",
+    ]
+    if beta > 0:
+        lines.append(f"backslope {beta:.4g} deg rising from where the retained grade meets "
+                     "the stem's back face; soil over the heel is the polygon stem back face - "
+                     "top of footing - heel plane - sloping ground; the thrust's vertical "
+                     "component acts on the heel plane and counts in the vertical load and "
+                     "the resisting moment")
+    lines.append(f"surcharge {p.surcharge_psf:g} psf per horizontal foot of the (sloping) "
+                 f"ground, as extra soil height: K*q = {p.surcharge_lateral_psf:.1f} psf over "
+                 "H' in the direction of the thrust")
+    lines.append("stem: the pressure on the stem itself, K*gamma*z (horizontal part) from the "
+                 "retained grade at the stem, plus K*q, water and strip loads; heel: 1.2 x "
+                 "soil polygon (full unit weight) and footing, 1.6 x surcharge and the "
+                 "thrust's vertical component at the heel edge")
+    if i.water is not None:
+        lines.append(f"water level {i.water.level_ft:g} ft above the bottom of footing (at "
+                     "most the retained grade): hydrostatic 62.4 pcf below it, buoyant soil "
+                     "(gamma - 62.4) below it in the pressure and the soil weight, uplift on "
+                     "the base from the full head at the heel edge to zero at the toe edge (no "
+                     "water in front)")
+    else:
+        lines.append("backfill drained (no water pressure, no uplift)")
+    for n, (off, width, q) in enumerate(i.strip, 1):
+        lines.append(f"strip load {n}: {q:g} psf, {width:g} ft wide, {off:g} ft behind the "
+                     "stem's back face: elastic strip solution doubled for a rigid wall, "
+                     "sigma_h = (2q/pi)(alpha - sin(alpha) cos(2 delta)) (AASHTO LRFD 3.11.6.2, "
+                     "NAVFAC DM-7.02; from memory), on the plane of the stem's back face over "
+                     "H; live: its weight never resists, left out of the seismic case")
+    sz = i.seismic
+    if sz is not None:
+        inc = ("Seed-Whitman 0.375 kh gamma H'^2 (limited by its authors to level backfill, a "
+               "vertical wall and no wall friction)" if sz.method == "seed-whitman" else
+               "Mononobe-Okabe (KAE - Ka) gamma H'^2/2, kv = 0, along the static thrust")
+        lines.append(f"seismic kh = {sz.kh:g}: increment {inc} at 0.6 H', plus kh x the weight "
+                     f"of stem, footing and key at their centroids, both x {sz.load_factor:g} "
+                     "(IBC 2021 1807.2.3); live surcharge and strip loads left out; required "
+                     f"FS {sz.fs_overturning:g} overturning, {sz.fs_sliding:g} sliding; bearing "
+                     "against the same allowable; stem also for 1.6 H + 1.0 E; heel and toe "
+                     "for the static cases only")
+    return lines
+
+
 def build_report(sf, result) -> dict:
     """The JSON object: the engine's result plus the inputs, conventions and cautions."""
     out = {"file": str(sf.path), "section": sf.name}
     out.update(result.to_dict())
+    inputs = sf.design_inputs()
+    p = result.pressure
     out["earth_pressure"] = {
-        "basis": result.pressure.basis, "active_efp_pcf": result.pressure.active_efp_pcf,
-        "ka": result.pressure.ka, "passive_efp_pcf": result.pressure.passive_efp_pcf,
-        "surcharge_psf": result.pressure.surcharge_psf,
-        "surcharge_lateral_psf": result.pressure.surcharge_lateral_psf,
+        "basis": p.basis, "active_efp_pcf": p.active_efp_pcf,
+        "ka": p.ka, "passive_efp_pcf": p.passive_efp_pcf,
+        "surcharge_psf": p.surcharge_psf,
+        "surcharge_lateral_psf": p.surcharge_lateral_psf,
     }
-    out["conventions"] = _conventions(sf, result.pressure)
+    if inputs.extended or inputs.seismic is not None:
+        from .engine.pressure import design_thrust, virtual_back_height_ft
+
+        geom = sf.section_geometry()
+        th = design_thrust(geom, inputs, p)
+        out["earth_pressure"].update(
+            inclination_deg=p.inclination_deg, backslope_deg=p.backslope_deg,
+            horizontal_efp_pcf=p.horizontal_efp_pcf,
+            virtual_back_height_ft=float(virtual_back_height_ft(geom, inputs)),
+            drained=inputs.water is None,
+            water_level_ft=inputs.water_level_ft,
+            thrust=[{"name": c.name, "horizontal_lb": float(c.horizontal_lb),
+                     "arm_ft": float(c.arm_ft), "vertical_lb": float(c.vertical_lb)}
+                    for c in th.components])
+    out["conventions"] = _conventions(sf, p, inputs)
     out["inputs"] = {t: dict(getattr(sf, t)) for t in
                      ("geometry", "soil", "loads", "materials", "criteria", "reinforcement")}
     out["units"] = "ft, in, lb, psf, pcf, psi; forces and moments per foot of wall"
@@ -118,6 +187,13 @@ def render_text(rep: dict) -> str:
         f"{_fmt(ot['m_overturning_lbft'])} lb-ft); sliding FS {_fmt(sl['fs'])} (resisting "
         f"{_fmt(sl['h_resisting_lb'])} / driving {_fmt(sl['h_driving_lb'])} lb); q_max "
         f"{_fmt(br['q_max_psf'])} psf at e = {_fmt(br['eccentricity_ft'])} ft ({br['case']})")
+    if rep.get("seismic"):
+        sz = rep["seismic"]
+        lines.append(
+            f"seismic: Delta P_AE {_fmt(sz['delta_pae_lb'])} lb (x load factor "
+            f"{_fmt(sz['delta_pae_design_lb'])} lb), inertia {_fmt(sz['inertia_lb'])} lb; "
+            f"overturning FS {_fmt(sz['fs_overturning'])}, sliding FS {_fmt(sz['fs_sliding'])}, "
+            f"q_max {_fmt(sz['q_max_psf'])} psf")
     lines.append("")
     head = ("check", "demand", "capacity", "unit", "ratio", "result", "clause")
     table = [head]

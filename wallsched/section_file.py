@@ -25,11 +25,12 @@ from .keys import (
     SOIL_KEYS,
 )
 from .schema import check_table, did_you_mean, load_toml, where_text
-from .site import resolve_soil
+from .site import OPTIONAL_TABLES, TABLE_VALUED_LOADS, check_strips, resolve_soil
 
 TABLES = {"section": SECTION_META_KEYS, "geometry": SECTION_GEOMETRY_KEYS, "soil": SOIL_KEYS,
           "loads": LOADS_KEYS, "materials": MATERIALS_KEYS, "criteria": CRITERIA_KEYS,
           "reinforcement": REINFORCEMENT_KEYS}
+# optional: [seismic] (the seismic case) and [water] (default drained)
 REQUIRED_TABLES = ("geometry", "soil", "reinforcement")
 BAR_KEYS = ("stem", "heel", "toe", "horizontal", "longitudinal")
 
@@ -79,10 +80,17 @@ def load_section(path: str | Path) -> SectionFile:
     path = Path(path)
     data, src = load_toml(path)
     file = str(path)
+    known = list(TABLES) + list(OPTIONAL_TABLES)
     for k in data:
-        if k not in TABLES:
-            raise InputError(f"unknown table or key '{k}'; {did_you_mean(k, list(TABLES))}",
+        if k not in known:
+            raise InputError(f"unknown table or key '{k}'; {did_you_mean(k, known)}",
                              file=file, where=where_text(src, None, k))
+    loads_raw = data.get("loads", {})
+    if isinstance(loads_raw, dict):
+        for k in TABLE_VALUED_LOADS:
+            if k in loads_raw:
+                raise InputError(f"give [{k}] as its own table, not inside [loads]",
+                                 file=file, where=where_text(src, "loads", k))
     for t in REQUIRED_TABLES:
         if t not in data:
             extra = ("; soil parameters must come from the geotechnical report and are never "
@@ -92,6 +100,11 @@ def load_section(path: str | Path) -> SectionFile:
               for t, keys in TABLES.items()}
     g, c, r = tables["geometry"], tables["criteria"], tables["reinforcement"]
     resolve_soil(tables["soil"], c, file=file, table="soil")
+    tables["loads"]["strip"] = check_strips(loads_raw.get("strip") if isinstance(
+        loads_raw, dict) else None, file=file, where="[loads] strip")
+    for t, keys in OPTIONAL_TABLES.items():
+        tables["loads"][t] = (check_table(data[t], keys, table=t, file=file, src=src)
+                              if t in data else None)
 
     # freeboard: [geometry] (the section's own) or [criteria] (the site-file default), not both
     if "freeboard_ft" in data.get("geometry", {}) and "freeboard_ft" in data.get("criteria", {}):

@@ -20,9 +20,12 @@ from .keys import (
     CRITERIA_KEYS,
     LOADS_KEYS,
     MATERIALS_KEYS,
+    SEISMIC_KEYS,
     SITE_KEYS,
     SIZING_KEYS,
     SOIL_KEYS,
+    STRIP_KEYS,
+    WATER_KEYS,
 )
 from .schema import REQUIRED, Key, SourceText, check_table, check_value, did_you_mean, load_toml
 from .schema import where_text as _where
@@ -31,7 +34,11 @@ from .schema import where_text as _where
 OVERRIDABLE = {"soil": SOIL_KEYS, "loads": LOADS_KEYS, "materials": MATERIALS_KEYS,
                "criteria": CRITERIA_KEYS}
 SITE_ONLY = {"costs": COSTS_KEYS, "sizing": SIZING_KEYS}  # site-wide tables
-TOP_LEVEL = ("site", "soil", "loads", "materials", "criteria", "costs", "sizing", "walls")
+# [seismic] and [water]: optional tables a wall may also override; present only where given
+OPTIONAL_TABLES = {"seismic": SEISMIC_KEYS, "water": WATER_KEYS}
+TABLE_VALUED_LOADS = ("seismic", "water")  # filled from OPTIONAL_TABLES, never in [loads]
+TOP_LEVEL = ("site", "soil", "loads", "materials", "criteria", "costs", "sizing", "seismic",
+             "water", "walls")
 SOURCE_KINDS = ("csv", "dxf", "gis")
 
 WALL_KEYS = {
@@ -143,6 +150,7 @@ def resolve_soil(soil: dict[str, Any], criteria: Mapping[str, Any], *, file, tab
     """Cross-key rules of [soil]: exactly one active-pressure basis; passive when used."""
     has_efp = soil.get("active_efp_pcf") is not None
     has_phi = soil.get("friction_angle_deg") is not None
+    check_backslope(soil, file=file, table=table)
     if has_efp and has_phi:
         raise InputError("give either active_efp_pcf or friction_angle_deg, not both",
                          file=file, where=f"[{table}]")
@@ -161,6 +169,62 @@ def resolve_soil(soil: dict[str, Any], criteria: Mapping[str, Any], *, file, tab
         raise InputError("missing passive_efp_pcf (or set passive_from_friction_angle = true, "
                          "or [criteria] use_passive = false)", file=file, where=f"[{table}]")
     return soil
+
+
+def check_strips(value: Any, *, file, where: str) -> tuple:
+    """Validate ``[[loads.strip]]`` entries (offset_ft, width_ft, pressure_psf, name)."""
+    if value in (None, ()):
+        return ()
+    if not isinstance(value, list | tuple):
+        raise InputError("must be an array of tables: write each strip load as "
+                         "[[loads.strip]] with offset_ft, width_ft and pressure_psf",
+                         file=file, where=where)
+    out = []
+    for n, item in enumerate(value, 1):
+        if not isinstance(item, dict):
+            raise InputError("each strip load must be a table with offset_ft, width_ft and "
+                             "pressure_psf", file=file, where=f"{where}[{n}]")
+        item = {k: v for k, v in item.items() if v is not None}
+        out.append(check_table(item, STRIP_KEYS, table=f"loads.strip[{n}]", file=file))
+    return tuple(out)
+
+
+def check_backslope(soil: dict, *, file, table: str) -> None:
+    """``backslope = "H:V"`` or ``backslope_deg``, not both; a well-formed ratio."""
+    from .engine.pressure import backslope_from_ratio
+
+    if soil.get("backslope") is None:
+        return
+    if soil.get("backslope_deg") is not None:
+        raise InputError("give either backslope (\"H:V\") or backslope_deg, not both",
+                         file=file, where=f"[{table}] backslope")
+    try:
+        deg = backslope_from_ratio(soil["backslope"])
+    except ValueError as exc:
+        raise InputError(f"{exc}; give horizontal:vertical, e.g. backslope = \"2:1\"",
+                         file=file, where=f"[{table}] backslope") from None
+    if deg >= 60.0:
+        raise InputError(f"{soil['backslope']!r} is {deg:.1f} deg; allowed: flatter than "
+                         "60 deg", file=file, where=f"[{table}] backslope")
+
+
+def optional_table(base: Mapping | None, over: Any, keys: Mapping, *, file, where: str,
+                   src: SourceText | None = None) -> dict | None:
+    """A ``[seismic]`` / ``[water]`` table: ``base`` (the site's, or None) updated with
+    ``over`` (a wall's); None where neither is given. Required keys must be present in the
+    result."""
+    if over is None:
+        return None if base is None else dict(base)
+    if not isinstance(over, dict):
+        raise InputError("must be a table", file=file, where=where)
+    for k in over:
+        if k not in keys:
+            raise InputError(f"unknown key '{k}'; {did_you_mean(k, list(keys))}", file=file,
+                             where=f"{where}.{k}")
+    merged = {k: v for k, v in (base or {}).items() if v is not None}
+    for k, v in over.items():
+        merged[k] = check_value(v, keys[k], file=file, where=f"{where}.{k}")
+    return check_table(merged, keys, table=where.strip("[]"), file=file, src=src)
 
 
 def _source(value: Any, *, folder: Path, file, key: str) -> Source:
@@ -193,10 +257,11 @@ def _wall(i: int, raw: Any, site: dict[str, dict], *, folder: Path, file, src: S
     flat_override = {}
     nested = {}
     own = {}
-    allowed = set(WALL_KEYS) | set(WALL_SOURCES) | set(OVERRIDABLE)
-    owner_of = {k: t for t, keys in OVERRIDABLE.items() for k in keys}
+    allowed = set(WALL_KEYS) | set(WALL_SOURCES) | set(OVERRIDABLE) | set(OPTIONAL_TABLES)
+    owner_of = {k: t for t, keys in OVERRIDABLE.items() for k in keys
+                if k not in TABLE_VALUED_LOADS}
     for k, v in raw.items():
-        if k in OVERRIDABLE:
+        if k in OVERRIDABLE or k in OPTIONAL_TABLES:
             nested[k] = v
         elif k in owner_of:
             flat_override.setdefault(owner_of[k], {})[k] = v
@@ -219,6 +284,9 @@ def _wall(i: int, raw: Any, site: dict[str, dict], *, folder: Path, file, src: S
             raise InputError(f"'{table}' must be a table", file=file, where=f"{label}.{table}")
         over.update(flat_override.get(table, {}))
         for k in over:
+            if table == "loads" and k in TABLE_VALUED_LOADS:
+                raise InputError(f"give [{k}] as its own table ([walls.{k}] for one wall), "
+                                 "not inside [loads]", file=file, where=f"{label}.loads.{k}")
             if k not in keys:
                 raise InputError(f"unknown key '{k}'; {did_you_mean(k, keys)}", file=file,
                                  where=f"{label}.{table}")
@@ -236,6 +304,12 @@ def _wall(i: int, raw: Any, site: dict[str, dict], *, folder: Path, file, src: S
                 merged[k] = None if spec.default is REQUIRED else spec.default
         resolved[table] = merged
     resolve_soil(resolved["soil"], resolved["criteria"], file=file, table=f"{label} soil")
+    loads = resolved["loads"]
+    loads["strip"] = check_strips(loads.get("strip"), file=file, where=f"{label}.loads.strip")
+    for t, keys in OPTIONAL_TABLES.items():
+        loads[t] = optional_table(site[t], nested.get(t), keys, file=file,
+                                  where=f"{label}.{t}")
+    _check_inputs(resolved, file=file, where=label)
     sources = {}
     for name in WALL_SOURCES:
         if name not in own:
@@ -251,6 +325,21 @@ def _wall(i: int, raw: Any, site: dict[str, dict], *, folder: Path, file, src: S
         materials=MappingProxyType(resolved["materials"]),
         criteria=MappingProxyType(resolved["criteria"]), **sources,
     )
+
+
+def _check_inputs(tables: Mapping[str, Mapping], *, file, where: str) -> None:
+    """The engine's cross-key rules (backslope against phi, Coulomb, seismic method, water)
+    as one InputError line."""
+    from .engine.section import DesignInputs
+
+    if any(spec.default is REQUIRED and tables["soil"].get(k) is None
+           for k, spec in SOIL_KEYS.items()):
+        return  # reported by the per-wall soil check with its own message
+    try:
+        DesignInputs.from_tables(tables["soil"], tables["loads"], tables["materials"],
+                                 tables["criteria"])
+    except ValueError as exc:
+        raise InputError(str(exc), file=file, where=where) from None
 
 
 def load_site(path: str | Path) -> Site:
@@ -274,6 +363,17 @@ def load_site(path: str | Path) -> Site:
     for t, keys in OVERRIDABLE.items():
         tables[t] = check_table(data.get(t, {}), keys, table=t, file=file, src=src,
                                 fill_defaults=True) if t != "soil" else None
+    loads_raw = data.get("loads", {})
+    if isinstance(loads_raw, dict):
+        for k in TABLE_VALUED_LOADS:
+            if k in loads_raw:
+                raise InputError(f"give [{k}] as its own table, not inside [loads]",
+                                 file=file, where=f"[loads] {k}")
+        tables["loads"]["strip"] = check_strips(loads_raw.get("strip"), file=file,
+                                                where="[loads] strip")
+    for t, keys in OPTIONAL_TABLES.items():
+        tables[t] = (check_table(data[t], keys, table=t, file=file, src=src)
+                     if t in data else None)
     soil_raw = data["soil"]
     soil = check_table(soil_raw, SOIL_KEYS, table="soil", file=file, src=src,
                        fill_defaults=False)
