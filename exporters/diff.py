@@ -495,6 +495,9 @@ def _merge(spans: list[tuple[float, float]]) -> list[tuple[float, float]]:
 # ---------------------------------------------------------------- retained height
 
 
+STATION_TOL_FT = 1e-3  # stations this close are one (tables round to 0.0001 ft)
+
+
 def height_change_ranges(old, new, wall: str, tol_ft: float) -> list[dict]:
     """Changed retained-height ranges of one wall from two stations tables (or None).
 
@@ -513,12 +516,13 @@ def height_change_ranges(old, new, wall: str, tol_ft: float) -> list[dict]:
     grid = np.union1d(so, sn)
     if grid.size == 0:
         return []
+    grid = grid[np.r_[True, np.diff(grid) > STATION_TOL_FT]]  # one station, written twice
 
     def on_grid(s, h):
         if s.size == 0:
             return np.full(grid.size, np.nan)
         v = np.interp(grid, s, h)
-        v[(grid < s[0]) | (grid > s[-1])] = np.nan
+        v[(grid < s[0] - STATION_TOL_FT) | (grid > s[-1] + STATION_TOL_FT)] = np.nan
         return v
 
     go, gn = on_grid(so, ho), on_grid(sn, hn)
