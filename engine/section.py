@@ -114,7 +114,7 @@ class SectionGeometry:
               & (self.heel_ft >= 0) & (self.freeboard_ft >= 0)
               & (self.key_width_in >= 0) & (self.key_depth_in >= 0)
               & (self.design_height_ft > self.footing_thickness_ft))
-        key_in = (~self.has_key) | ((self.key_offset_ft >= 0)
+        key_in = (~self.has_key) | ((self.key_offset_ft >= -1e-9)
                                     & (self.key_offset_ft + self.key_width_in / 12.0 <= B + 1e-9))
         return ok & key_in
 
