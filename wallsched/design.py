@@ -286,6 +286,28 @@ def segment_cost(seg: Segment, rates: CostRates, front_grade_avg_ft: float) -> f
             + rates.formwork_usd_per_sf * seg.formwork_sf + rates.excavation_usd_per_cy * exc)
 
 
+def needed_height_ft(ws: WallStations, c) -> float:
+    """The tallest design height any segment of the wall can ask the sizing for: the largest
+    retained grade less the least front grade over any stretch of ``segment_max_ft``, plus
+    the footing lowering and rounding the segments may add; at most the height limit plus 2 ft
+    (beyond it every station is flagged anyway)."""
+    from .engine.segments import LOWERINGS_STEEP, SegmentRules, window_extremes
+
+    s = ws.station_ft
+    if s.size < 2:
+        return c["design_height_increment_ft"]
+    first = np.searchsorted(s, s - c["segment_max_ft"] - 1e-9, side="left")
+    kmax = max(1, int(np.max(np.arange(s.size) - first)))
+    rg = window_extremes(ws.retained_grade_ft, kmax, np.maximum)
+    fg = window_extremes(ws.front_grade_ft, kmax, np.minimum)
+    k = np.arange(kmax + 1)[None, :]
+    ok = k <= (np.arange(s.size) - first)[:, None]
+    span = np.nanmax(np.where(ok, rg - fg, -np.inf))
+    margin = (LOWERINGS_STEEP - 1) * SegmentRules.bf_lowering_ft + c[
+        "bottom_of_footing_round_ft"] + c["design_height_increment_ft"]
+    return float(min(max(span, 0.0) + margin, c["max_retained_height_ft"] + 2.0))
+
+
 def design_site(site: Site, walls_stations: list[WallStations], *, audit: bool = True,
                 progress=None) -> SiteDesign:
     """Design every wall of the site."""
@@ -300,14 +322,20 @@ def design_site(site: Site, walls_stations: list[WallStations], *, audit: bool =
     inputs_by_wall: dict[str, DesignInputs] = {}
     tables_by_wall: dict[str, DesignTable] = {}
     designs = []
+    keys, need = {}, {}
     for wall, ws in zip(site.walls, walls_stations, strict=True):
         c = wall.criteria
         inputs = wall_inputs(site, wall)
         emb = max(c["min_embedment_ft"], c.get("frost_depth_ft") or 0.0)
         key = _table_key(inputs, c, emb, c["freeboard_ft"], c["top_of_wall"])
+        keys[wall.id] = (key, inputs, emb)
+        need[key] = max(need.get(key, 0.0), needed_height_ft(ws, c))
+    for wall, ws in zip(site.walls, walls_stations, strict=True):
+        c = wall.criteria
+        key, inputs, emb = keys[wall.id]
         if key not in tables:
             tables[key] = design_table(
-                inputs, grid, rates, max_height_ft=c["max_retained_height_ft"] + 2.0,
+                inputs, grid, rates, max_height_ft=need[key],
                 increment_ft=c["design_height_increment_ft"], embedment_ft=emb,
                 freeboard_ft=c["freeboard_ft"], footing_cover_ft=c["footing_cover_ft"])
         inputs_by_wall[wall.id] = inputs

@@ -65,7 +65,14 @@ def main(argv=None) -> int:
 
     # sizing: the design table for the heights the site needs, then every station's look-up
     t0 = time.perf_counter()
-    table = design_table(inputs, grid, rates, max_height_ft=crit["max_retained_height_ft"] + 2,
+    from wallsched.profile.sampling import WallStations
+
+    from wallsched.design import needed_height_ft
+
+    need = max(needed_height_ft(WallStations("B", s, s, s, rg, fg, np.full(s.size, np.nan),
+                                             np.zeros(s.size, bool)), crit)
+               for s, rg, fg in walls)
+    table = design_table(inputs, grid, rates, max_height_ft=need,
                          increment_ft=crit["design_height_increment_ft"], embedment_ft=2.0,
                          freeboard_ft=crit["freeboard_ft"])
     h_all = np.concatenate([rg - fg for _, rg, fg in walls])
