@@ -1,13 +1,19 @@
 """Readers for the two CSV forms: grade profiles (station, elevation) and alignments (x, y).
 
 Every problem names the file and the line. Blank lines and lines starting with ``#`` are
-skipped. A UTF-8 byte-order mark is accepted (spreadsheets write one).
+skipped. A UTF-8 byte-order mark is accepted (spreadsheets write one); UTF-16 text (what some
+spreadsheets call "Unicode text") is refused with a hint to save as UTF-8.
+
+Limits (stated in the README): a CSV file may hold at most ``MAX_CSV_BYTES`` bytes and
+``MAX_CSV_ROWS`` data rows; a profile or alignment at most ``MAX_PROFILE_POINTS`` points;
+plan coordinates, stations and elevations at most ``MAX_COORDINATE_FT`` in size; adjacent points
+of a grade may not differ by more than ``GRADE_JUMP_MAX_FT`` at a slope steeper than
+``GRADE_JUMP_SLOPE`` (a value typed in metres, or a missing value written as 0).
 """
 
 from __future__ import annotations
 
 import csv
-import io
 import math
 from dataclasses import dataclass
 from pathlib import Path
@@ -18,8 +24,13 @@ import shapely
 from ..errors import ProfileError
 from .stationing import parse_station
 
-MAX_CSV_BYTES = 200 * 1024 * 1024  # refuse larger files (stated in the README)
-MAX_CSV_ROWS = 2_000_000
+MAX_CSV_BYTES = 20 * 1024 * 1024  # refuse larger files (stated in the README)
+MAX_CSV_ROWS = 100_000  # data rows of one CSV (stated in the README)
+MAX_PROFILE_POINTS = 100_000  # points of one profile or alignment, from any reader
+MAX_COORDINATE_FT = 1e9  # |x|, |y|, |station|, |elevation|: larger is not a site in feet
+MAX_LINE_CHARS = 4000  # one CSV line
+GRADE_JUMP_MAX_FT = 10.0  # a grade may not jump more than this between adjacent points ...
+GRADE_JUMP_SLOPE = 2.0  # ... at a slope steeper than 2 vertical : 1 horizontal
 
 STATION_NAMES = ("station", "sta", "station_ft", "sta_ft", "stationing")
 ELEVATION_NAMES = ("elevation", "elev", "elevation_ft", "elev_ft", "z")
@@ -59,21 +70,30 @@ def _read_rows(path: Path, label: str):
     if size > MAX_CSV_BYTES:
         raise ProfileError(f"is {size / 2**20:.0f} MiB; the limit for a CSV is "
                            f"{MAX_CSV_BYTES // 2**20} MiB", file=label)
-    raw = path.read_bytes()
-    if b"\x00" in raw[:65536]:
-        raise ProfileError("is not a text CSV file (binary content)", file=label)
+    try:
+        raw = path.read_bytes()
+    except OSError as exc:
+        raise ProfileError(f"cannot be read ({exc.strerror})", file=label) from None
+    if raw.startswith((b"\xff\xfe", b"\xfe\xff")):
+        raise ProfileError("is UTF-16 text; save it as CSV UTF-8 (comma delimited)", file=label)
+    if b"\x00" in raw:
+        line = raw[:raw.index(b"\x00")].count(b"\n") + 1
+        raise ProfileError("is not a text CSV file (binary content: a NUL byte); save it as "
+                           "CSV UTF-8 text", file=label, where=f"line {line}")
     try:
         text = raw.decode("utf-8-sig")
     except UnicodeDecodeError as exc:
         raise ProfileError(f"is not UTF-8 text (byte {exc.start}); save it as UTF-8 CSV",
                            file=label) from None
-    lines = [(i, line) for i, line in enumerate(text.splitlines(), 1)
+    physical = text.replace("\r\n", "\n").replace("\r", "\n").split("\n")
+    lines = [(i, line) for i, line in enumerate(physical, 1)
              if line.strip() and not line.lstrip().startswith("#")]
     if not lines:
         raise ProfileError("is empty; it needs a header row and at least two data rows",
                            file=label)
-    if len(lines) > MAX_CSV_ROWS:
-        raise ProfileError(f"has {len(lines):,} rows; the limit is {MAX_CSV_ROWS:,}", file=label)
+    if len(lines) > MAX_CSV_ROWS + 1:
+        raise ProfileError(f"has {len(lines) - 1:,} data rows; the limit is {MAX_CSV_ROWS:,} - "
+                           "thin the profile (a vertex every few feet is plenty)", file=label)
     head_no, head = lines[0]
     if ";" in head and "," not in head:
         raise ProfileError("uses ';' between columns; save it with commas as separators "
@@ -81,8 +101,17 @@ def _read_rows(path: Path, label: str):
     if "\t" in head and "," not in head:
         raise ProfileError("uses tabs between columns; save it with commas as separators",
                            file=label, where=f"line {head_no}")
-    reader = csv.reader(io.StringIO("\n".join(line for _, line in lines)))
-    rows = list(reader)
+    for line_no, line in lines:
+        if len(line) > MAX_LINE_CHARS:
+            raise ProfileError(f"the line is {len(line):,} characters long; a profile row holds "
+                               "a few numbers", file=label, where=f"line {line_no}")
+        if line.count('"') % 2:
+            raise ProfileError("has an unclosed quote (\"); remove the quote mark", file=label,
+                               where=f"line {line_no}")
+    try:  # one row per line: no quoted field spans lines (checked above)
+        rows = list(csv.reader([line for _, line in lines]))
+    except csv.Error as exc:
+        raise ProfileError(f"is not a readable CSV file ({exc})", file=label) from None
     numbered = [(lines[k][0], row) for k, row in enumerate(rows)]
     return numbered
 
@@ -112,14 +141,23 @@ def _number(cell: str, *, label: str, line: int, column: str) -> float:
     if not math.isfinite(value):
         raise ProfileError(f"{column} {cell.strip()!r} is not a finite number", file=label,
                            where=f"line {line}")
+    if abs(value) > MAX_COORDINATE_FT:
+        raise ProfileError(f"{column} {cell.strip()!r} is out of range (more than "
+                           f"{MAX_COORDINATE_FT:.0e} ft); check the column and the units",
+                           file=label, where=f"line {line}")
     return value
 
 
 def _cells(numbered, cols: dict[str, int], label: str):
+    width = len(numbered[0][1])
     for line, row in numbered[1:]:
         if len(row) <= max(cols.values()):
             raise ProfileError(f"has {len(row)} value(s); expected at least "
                                f"{max(cols.values()) + 1}", file=label, where=f"line {line}")
+        if any(c.strip() for c in row[width:]):
+            raise ProfileError(f"has {len(row)} values but the header has {width} columns (a "
+                               "decimal comma?); use '.' as the decimal mark", file=label,
+                               where=f"line {line}")
         yield line, row
 
 
@@ -142,6 +180,9 @@ def read_grade_csv(path: Path, label: str | None = None) -> GradeProfile:
         except ValueError:
             raise ProfileError(f"station {cell.strip()!r} is not a station (use 1234.56 or "
                                "12+34.56)", file=label, where=f"line {line}") from None
+        if abs(s) > MAX_COORDINATE_FT:
+            raise ProfileError(f"station {cell.strip()!r} is out of range (more than "
+                               f"{MAX_COORDINATE_FT:.0e} ft)", file=label, where=f"line {line}")
         st.append(s)
         el.append(_number(row[cols["elevation"]], label=label, line=line, column="elevation"))
         ln.append(line)
@@ -173,10 +214,31 @@ def _profile(st: np.ndarray, el: np.ndarray, ln: np.ndarray, label: str) -> Grad
         keep = np.ones(st.size, bool)
         keep[dup + 1] = False
         st, el = st[keep], el[keep]
+        ln = ln[keep]
     if st.size < 2:
         raise ProfileError("has only one distinct station; a profile needs at least two",
                            file=label)
+    k = grade_jump(st, el)
+    if k is not None:
+        raise ProfileError(
+            f"the elevation jumps from {el[k]:g} (line {ln[k]}) to {el[k + 1]:g} over "
+            f"{st[k + 1] - st[k]:.2f} ft of station; {jump_limit_text()} - check for a value "
+            "in metres, a typing error or a missing value", file=label,
+            where=f"line {ln[k + 1]}")
     return GradeProfile(st.astype(float), el.astype(float), label)
+
+
+def jump_limit_text() -> str:
+    return (f"a grade may not change by more than {GRADE_JUMP_MAX_FT:g} ft between adjacent "
+            f"points at a slope steeper than {GRADE_JUMP_SLOPE:g}:1")
+
+
+def grade_jump(st: np.ndarray, el: np.ndarray) -> int | None:
+    """Index ``k`` of the first implausible jump from point ``k`` to ``k + 1``, or None."""
+    dz = np.abs(np.diff(el))
+    ds = np.diff(st)
+    bad = np.nonzero((dz > GRADE_JUMP_MAX_FT) & (dz > GRADE_JUMP_SLOPE * ds))[0]
+    return int(bad[0]) if bad.size else None
 
 
 def read_alignment_csv(path: Path, label: str | None = None) -> Alignment:
@@ -200,6 +262,13 @@ def alignment_from_xy(xy: np.ndarray, label: str) -> Alignment:
         xy = xy[np.r_[True, step > 1e-9]]
     if len(xy) < 2:
         raise ProfileError("the alignment has zero length (fewer than two distinct vertices)",
+                           file=label)
+    if len(xy) > MAX_PROFILE_POINTS:
+        raise ProfileError(f"the alignment has {len(xy):,} vertices; the limit is "
+                           f"{MAX_PROFILE_POINTS:,} - simplify the line", file=label)
+    if not np.isfinite(xy).all() or np.abs(xy).max() > MAX_COORDINATE_FT:
+        raise ProfileError(f"the alignment has a coordinate beyond {MAX_COORDINATE_FT:.0e} ft "
+                           "(or not a number); check the units and the coordinate columns",
                            file=label)
     line = shapely.LineString(xy)
     if line.length <= 0.01:

@@ -8,6 +8,12 @@ other units is refused unless its source declares them with ``units = "m"`` (or 
 ``"cm"``, ``"in"``, ``"ft"``, ``"us-ft"``); coordinates and elevations are then converted to
 feet. A declared unit that contradicts a set ``$INSUNITS`` is refused too.
 
+Limits (stated in the README): a drawing may be at most ``MAX_DXF_BYTES`` bytes with at most
+``MAX_DXF_ENTITIES`` entities in model space, and a profile read from it at most
+``MAX_PROFILE_POINTS`` points; larger drawings are refused before (or right after) parsing, so
+time and memory stay bounded. Grade lines on a layer must cover the wall without a gap wider
+than ``GRADE_GAP_MAX_FT`` (two lines are never bridged silently).
+
 Warnings (vertices far from the wall, labels that cannot be used, entities ignored) are
 issued with :func:`warnings.warn` as :class:`ProfileWarning` and also kept on the returned
 object's ``warnings`` tuple.
@@ -27,7 +33,14 @@ import numpy as np
 import shapely
 
 from ..errors import ProfileError
-from .csvread import Alignment, GradeProfile, alignment_from_xy
+from .csvread import (
+    MAX_PROFILE_POINTS,
+    Alignment,
+    GradeProfile,
+    alignment_from_xy,
+    grade_jump,
+    jump_limit_text,
+)
 
 # Arcs and bulges are flattened to this chord error (sagitta), finer than 0.01 ft so that
 # stations along long arcs stay within 0.01 ft too: a run of chords is shorter than its arc
@@ -39,6 +52,9 @@ DENSIFY_STEP_FT = 0.25  # a grade chord that leaves the band is cut at this reso
 SAME_STATION_FT = 1e-3  # projected points closer than this are one station
 SAME_ELEVATION_FT = 0.01  # ... and must agree within this
 EXTENSION_FT = 1000.0  # the alignment is extended straight past both ends for projection
+MAX_DXF_BYTES = 50 * 1024 * 1024  # larger drawings are refused unread (stated in the README)
+MAX_DXF_ENTITIES = 200_000  # entities in model space (stated in the README)
+GRADE_GAP_MAX_FT = 1.0  # grade lines on a layer may leave no wider gap along the wall
 
 FT_PER_UNIT = {  # exact definitions: 1 ft = 0.3048 m; 1 US survey ft = 1200/3937 m
     "ft": 1.0,
@@ -102,6 +118,11 @@ def _load(path: str, mtime_ns: int, size: int):
                            "again from the CAD program as DXF", file=Path(path).name) from None
     finally:
         log.setLevel(level)
+    count = len(doc.modelspace())
+    if count > MAX_DXF_ENTITIES:
+        raise ProfileError(f"has {count:,} entities in model space; the limit is "
+                           f"{MAX_DXF_ENTITIES:,} - export only the layers the walls need",
+                           file=Path(path).name)
     return doc, len(auditor.fixes) + len(auditor.errors)
 
 
@@ -116,8 +137,15 @@ def open_dxf(path: Path, label: str, messages: list[str] | None = None):
         st = path.stat()
     except OSError as exc:
         raise ProfileError(f"cannot be read ({exc.strerror})", file=label) from None
-    with open(path, "rb") as f:
-        head = f.read(4096)
+    if st.st_size > MAX_DXF_BYTES:
+        raise ProfileError(f"is {st.st_size / 2**20:.0f} MiB; the limit for a drawing is "
+                           f"{MAX_DXF_BYTES // 2**20} MiB - export only the layers the walls "
+                           "need (e.g. with a layer filter or a cleaned-up copy)", file=label)
+    try:
+        with open(path, "rb") as f:
+            head = f.read(4096)
+    except OSError as exc:
+        raise ProfileError(f"cannot be read ({exc.strerror})", file=label) from None
     if not _looks_like_dxf(head):
         raise ProfileError("is not a DXF drawing (no DXF section tags at its start); export "
                            "it from the CAD program as DXF", file=label)
@@ -410,11 +438,46 @@ def build_profile(st: np.ndarray, el: np.ndarray, tags: list[str], *, label: str
                 f"{el[j]:.2f} ({tags[j]}); a grade has one elevation per station - remove "
                 "one, or move the other line off the wall", file=label)
     st_u = st[keep]
-    el_u = np.array([el[group == g].mean() for g in range(int(group[-1]) + 1)])
+    el_u = np.bincount(group, weights=el) / np.bincount(group)
     if st_u.size < 2:
         raise ProfileError(f"only one station of {what} lies near the wall; a profile needs "
                            "at least two", file=label)
+    if st_u.size > MAX_PROFILE_POINTS:
+        raise ProfileError(f"{st_u.size:,} points of {what} lie near the wall; the limit is "
+                           f"{MAX_PROFILE_POINTS:,} - simplify the lines", file=label)
+    k = grade_jump(st_u, el_u)
+    if k is not None:
+        first = int(np.nonzero(group == k)[0][0])
+        nxt = int(np.nonzero(group == k + 1)[0][0])
+        raise ProfileError(
+            f"the elevation jumps from {el_u[k]:.2f} ({tags[first]}) to {el_u[k + 1]:.2f} "
+            f"({tags[nxt]}) between stations {st_u[k]:.2f} and {st_u[k + 1]:.2f}; "
+            f"{jump_limit_text()} - check for elevations in metres or a stray line",
+            file=label)
     return DrawingProfile(st_u, el_u, label, tuple(messages))
+
+
+def check_grade_gaps(spans: list[tuple[float, float, str]], start: float, end: float, *,
+                     label: str, what: str) -> None:
+    """Refuse a gap along the wall between the station spans of the lines of one grade.
+
+    ``spans`` holds (first station, last station, handle) of each line's points near the wall.
+    Lines that overlap or meet within ``GRADE_GAP_MAX_FT`` are one grade; a wider gap inside
+    the wall (``start`` to ``end``) is an error, never bridged by interpolation.
+    """
+    spans = sorted(sp for sp in spans if sp[1] >= sp[0])
+    if not spans:
+        return
+    reach, last = spans[0][1], spans[0][2]
+    for lo, hi, handle in spans[1:]:
+        gap_lo, gap_hi = max(reach, start), min(lo, end)
+        if lo - reach > GRADE_GAP_MAX_FT and gap_hi - gap_lo > GRADE_GAP_MAX_FT:
+            raise ProfileError(
+                f"the {what} has a gap from station {reach:.2f} ({last}) to {lo:.2f} "
+                f"({handle}), wider than {GRADE_GAP_MAX_FT:g} ft; draw the grade across the "
+                "gap (it is not bridged by interpolation)", file=label)
+        if hi > reach:
+            reach, last = hi, handle
 
 
 def read_plan_grade(path: Path, options: Mapping[str, Any], label: str, *,
@@ -429,6 +492,7 @@ def read_plan_grade(path: Path, options: Mapping[str, Any], label: str, *,
     max_off = float(options.get("max_offset_ft", MAX_OFFSET_FT))
     proj = Projector(alignment, start_station_ft)
     sts, els, tags = [], [], []
+    spans: list[tuple[float, float, str]] = []
     dropped = 0
     flat = []
     for e in found:
@@ -436,6 +500,8 @@ def read_plan_grade(path: Path, options: Mapping[str, Any], label: str, *,
         if np.all(pts[:, 2] == 0.0):
             flat.append(e.dxf.handle)
         s, z, n = project_polyline(proj, pts, max_off)
+        if s.size:
+            spans.append((float(s.min()), float(s.max()), _handle(e)))
         dropped += n
         sts.append(s)
         els.append(z)
@@ -446,6 +512,8 @@ def read_plan_grade(path: Path, options: Mapping[str, Any], label: str, *,
     if dropped:
         warn(messages, f"{lab}: {dropped} vertex(es) farther than {max_off:g} ft from the "
              "wall ignored")
+    check_grade_gaps(spans, start_station_ft, start_station_ft + alignment.length_ft,
+                     label=lab, what=f"grade on layer {layer}")
     return build_profile(np.concatenate(sts), np.concatenate(els), tags, label=lab,
                          what=f"line on layer {layer}", messages=messages)
 

@@ -18,6 +18,11 @@ from .csvread import Alignment, GradeProfile
 from .stationing import format_station, format_stations
 
 MERGE_TOL_FT = 1e-6  # stations closer than this are one station
+MAX_STATIONS_PER_WALL = 50_000  # stated in the README: bounded time and memory per wall
+# A retained height beyond this is a data error (a grade in metres, a file of another wall),
+# not a wall: twice the top of the max_retained_height_ft range (40 ft) would not be a
+# cantilever wall either.
+PLAUSIBLE_RETAINED_HEIGHT_FT = 60.0
 
 
 @dataclass(frozen=True)
@@ -125,6 +130,13 @@ def sample_wall(
                        (existing, "existing ground")):
         if prof is not None:
             check_coverage(prof, start, end, tolerance_ft, wall=wall, what=what)
+    count = (end - start) / interval_ft + retained.station_ft.size + front.station_ft.size
+    if not np.isfinite(count) or count > MAX_STATIONS_PER_WALL:
+        raise ProfileError(
+            f"wall {wall!r}: {end - start:,.1f} ft at {interval_ft:g} ft station spacing with "
+            f"{retained.station_ft.size + front.station_ft.size:,} grade points gives more than "
+            f"{MAX_STATIONS_PER_WALL:,} stations; raise [criteria] station_interval_ft or thin "
+            "the grade profiles", file=alignment.label)
     regular = regular_stations(start, end, interval_ft)
     breaks = np.concatenate([p.station_ft for p in (retained, front)])
     breaks = breaks[(breaks > start) & (breaks < end)]
@@ -148,6 +160,14 @@ def sample_wall(
     fg = front.at(st)
     eg = existing.at(st) if existing is not None else np.full(st.size, np.nan)
     h = rg - fg
+    k = int(np.argmax(np.abs(h)))
+    if abs(h[k]) > PLAUSIBLE_RETAINED_HEIGHT_FT:
+        raise ProfileError(
+            f"wall {wall!r}: retained grade {rg[k]:.2f} and front grade {fg[k]:.2f} at station "
+            f"{format_station(st[k])} differ by {abs(h[k]):.2f} ft, more than the plausible "
+            f"{PLAUSIBLE_RETAINED_HEIGHT_FT:g} ft for a cantilever wall; check that both grade "
+            "files are in feet (not metres), on the same datum and for this wall",
+            file=retained.label)
     if (h < 0).all():
         raise ProfileError(
             f"wall {wall!r}: the front grade is above the retained grade at every station "

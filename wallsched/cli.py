@@ -49,14 +49,19 @@ def echo(text: str, quiet: bool) -> None:
 @click.option("-q", "--quiet", is_flag=True, help="Print nothing but errors.")
 def stations(site_file: Path, out_dir: Path, replace: bool, no_plots: bool, quiet: bool):
     """Sample every wall of SITE_FILE into stations: stations.csv and a plot per wall."""
+    from .guardrails import site_warnings
     from .outdir import staged_output
-    from .pipeline import site_stations, write_stations
+    from .pipeline import collect_warnings, site_stations, write_stations
     from .site import load_site
 
     site = load_site(site_file)
-    walls = site_stations(site)
-    with staged_output(out_dir, replace=replace) as tmp:
+    with collect_warnings() as warns:
+        walls = site_stations(site)
+    warns += site_warnings(site, walls)
+    with staged_output(out_dir, replace=replace, protect=site.input_files()) as tmp:
         write_stations(walls, tmp, plots=not no_plots)
+    for line in warns:
+        echo(f"warning: {line}", quiet)
     for w in walls:
         echo(w.summary(), quiet)
     echo(f"wrote {out_dir}/stations.csv ({sum(len(w) for w in walls)} stations)", quiet)

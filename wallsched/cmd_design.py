@@ -33,6 +33,7 @@ def design(ctx, site_file: Path, out_dir: Path, compare_dir: Path | None, replac
     stretch could not be designed within the limits (see the status column).
     """
     from .design import design_site
+    from .guardrails import site_warnings
     from .outdir import staged_output
     from .pipeline import collect_warnings, site_stations, write_design
     from .site import load_site
@@ -52,7 +53,8 @@ def design(ctx, site_file: Path, out_dir: Path, compare_dir: Path | None, replac
     else:
         sd = design_site(site, walls)
     sd.warnings.extend(warns)
-    with staged_output(out_dir, replace=replace) as tmp:
+    sd.warnings.extend(site_warnings(site, walls))
+    with staged_output(out_dir, replace=replace, protect=site.input_files()) as tmp:
         summary = write_design(site, sd, tmp, drawings=not no_drawings, compare_dir=compare_dir)
     if not quiet:
         for line in sd.warnings:

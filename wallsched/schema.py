@@ -19,6 +19,7 @@ from typing import Any
 from .errors import InputError
 
 REQUIRED = object()  # sentinel: the key must be given
+MAX_TOML_BYTES = 1024 * 1024  # a site or section file larger than this is refused unread
 
 
 @dataclass(frozen=True)
@@ -81,6 +82,13 @@ class SourceText:
 def load_toml(path: Path) -> tuple[dict, SourceText]:
     """Read a TOML file with ``tomllib`` only; a syntax error is an InputError with its line."""
     try:
+        if path.exists() and not path.is_dir() and not path.is_file():
+            raise InputError("is not a regular file (a device or pipe); give a TOML file",
+                             file=path)
+        if path.is_file() and path.stat().st_size > MAX_TOML_BYTES:
+            raise InputError(f"is {path.stat().st_size:,} bytes; a site or section file is a "
+                             f"few kB (the limit is {MAX_TOML_BYTES // 1024} KiB) - put "
+                             "profiles in CSV files", file=path)
         raw = path.read_bytes()
     except FileNotFoundError:
         raise InputError("file not found; check the path", file=path) from None
@@ -88,12 +96,18 @@ def load_toml(path: Path) -> tuple[dict, SourceText]:
         raise InputError("is a folder, not a TOML file", file=path) from None
     except OSError as exc:
         raise InputError(f"cannot be read ({exc.strerror})", file=path) from None
+    if raw.startswith((b"\xff\xfe", b"\xfe\xff")) or b"\x00" in raw:
+        raise InputError("is not UTF-8 text (UTF-16 or binary); save it as UTF-8 TOML",
+                         file=path)
     try:
         text = raw.decode("utf-8-sig")
     except UnicodeDecodeError:
         raise InputError("is not UTF-8 text; save it as UTF-8 TOML", file=path) from None
     try:
         data = tomllib.loads(text)
+    except RecursionError:
+        raise InputError("nests arrays or tables too deeply to be a site file", file=path) \
+            from None
     except tomllib.TOMLDecodeError as exc:
         msg = str(exc)
         m = re.search(r"\(at line (\d+), column (\d+)\)", msg)

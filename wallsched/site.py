@@ -279,9 +279,10 @@ def _wall(i: int, raw: Any, site: dict[str, dict], *, folder: Path, file, src: S
     label = f"walls[{i + 1}] (id {wid!r})"
     resolved = {}
     for table, keys in OVERRIDABLE.items():
-        over = dict(nested.get(table, {}) or {})
         if not isinstance(nested.get(table, {}), dict):
-            raise InputError(f"'{table}' must be a table", file=file, where=f"{label}.{table}")
+            raise InputError(f"'{table}' must be a table of keys, e.g. {table} = {{ ... }}, "
+                             f"got {nested[table]!r}", file=file, where=f"{label}.{table}")
+        over = dict(nested.get(table, {}))
         over.update(flat_override.get(table, {}))
         for k in over:
             if table == "loads" and k in TABLE_VALUED_LOADS:

@@ -1,0 +1,89 @@
+"""Engineering guard rails: warnings for inputs that are legal but suspicious.
+
+Nothing here stops a run; each function returns plain warning lines (no prefix) that the
+commands print with the other warnings. The limits are trade judgement, stated here once:
+
+- a retained height that changes by more than ``HEIGHT_JUMP_FT`` between adjacent stations
+  (a grading error, or a grade of another wall, is more likely than a wall that does that);
+- a base friction coefficient above ``FRICTION_COEFFICIENT_HIGH`` (the highest presumptive
+  value of IBC 2021 Table 1806.2, for crystalline bedrock);
+- an allowable bearing above ``BEARING_HIGH_PSF`` without a ``[soil] source`` note (above the
+  presumptive values of IBC 2021 Table 1806.2 for any soil class, 12,000 psf being the
+  crystalline-bedrock value);
+- a wall longer than ``WALL_LENGTH_LONG_FT`` (one mile; more likely two walls or a unit error).
+"""
+
+from __future__ import annotations
+
+from collections.abc import Iterable, Sequence
+
+import numpy as np
+
+from .profile.stationing import format_station
+
+HEIGHT_JUMP_FT = 3.0
+FRICTION_COEFFICIENT_HIGH = 0.7  # IBC 2021 Table 1806.2, class 1 (crystalline bedrock)
+BEARING_HIGH_PSF = 12000.0  # IBC 2021 Table 1806.2, class 1 (crystalline bedrock)
+WALL_LENGTH_LONG_FT = 5280.0  # one mile
+
+
+def height_jumps(wall: str, station_ft: np.ndarray, retained_height_ft: np.ndarray,
+                 limit_ft: float = HEIGHT_JUMP_FT) -> list[str]:
+    """One line for a wall whose retained height jumps more than ``limit_ft`` between
+    adjacent stations (the largest jump and how many there are)."""
+    h = np.asarray(retained_height_ft, dtype=float)
+    st = np.asarray(station_ft, dtype=float)
+    if h.size < 2:
+        return []
+    dh = np.abs(np.diff(h))
+    bad = np.nonzero(dh > limit_ft)[0]
+    if not bad.size:
+        return []
+    k = int(bad[np.argmax(dh[bad])])
+    more = f" ({bad.size} places)" if bad.size > 1 else ""
+    return [f"wall {wall!r}: the retained height changes by {dh[k]:.2f} ft between stations "
+            f"{format_station(st[k])} and {format_station(st[k + 1])}{more}, more than "
+            f"{limit_ft:g} ft between adjacent stations; check the grades there"]
+
+
+def soil_warnings(walls: Iterable[tuple[str, dict]]) -> list[str]:
+    """Lines for suspicious soil values; ``walls`` holds (wall id, resolved [soil]) pairs.
+
+    Walls sharing one message are named together on one line."""
+    found: dict[str, list[str]] = {}
+    for wall, soil in walls:
+        mu = soil.get("friction_coefficient")
+        if mu is not None and mu > FRICTION_COEFFICIENT_HIGH:
+            found.setdefault(
+                f"[soil] friction_coefficient {mu:g} is above {FRICTION_COEFFICIENT_HIGH:g}; "
+                "confirm it with the geotechnical report", []).append(wall)
+        q = soil.get("allowable_bearing_psf")
+        if q is not None and q > BEARING_HIGH_PSF and not (soil.get("source") or "").strip():
+            found.setdefault(
+                f"[soil] allowable_bearing_psf {q:,.0f} is above {BEARING_HIGH_PSF:,.0f} psf "
+                "with no [soil] source note; add source = \"...\" naming the report that "
+                "gives it", []).append(wall)
+    return [f"{_walls(ws)}: {text}" for text, ws in found.items()]
+
+
+def length_warning(wall: str, length_ft: float,
+                   limit_ft: float = WALL_LENGTH_LONG_FT) -> list[str]:
+    """One line for a wall longer than ``limit_ft``."""
+    if length_ft > limit_ft:
+        return [f"wall {wall!r} is {length_ft:,.0f} ft long, more than a mile "
+                f"({limit_ft:,.0f} ft); check the alignment's units, or split it into walls"]
+    return []
+
+
+def _walls(ids: Sequence[str]) -> str:
+    return ("wall " if len(ids) == 1 else "walls ") + ", ".join(repr(w) for w in ids)
+
+
+def site_warnings(site, walls) -> list[str]:
+    """Every guard-rail line for a loaded site and its sampled walls (``WallStations``,
+    in site-file order)."""
+    lines = soil_warnings((spec.id, dict(spec.soil)) for spec in site.walls)
+    for ws in walls:
+        lines += length_warning(ws.wall, ws.length_ft)
+        lines += height_jumps(ws.wall, ws.station_ft, ws.retained_height_ft)
+    return lines
