@@ -560,6 +560,12 @@ def design_table(inputs: DesignInputs, grid: SizingGrid, rates: CostRates, *,
     bars = grid.bar_options()
     screen = StabilityScreen(g, inputs, embedment_ft, freeboard_ft)
     toe_tab = toe_capacity_table(g, inputs, bars)
+    if (inputs.backslope_deg or 0.0) != 0.0 and grid.stem_batter:
+        # on a slope the ground over the heel starts where the battered back face meets the
+        # retained grade, so the heel's load depends on the stem too: pair it with the stem
+        n_s = grid.stem_base_in.size
+        g = dict(g, heel_code=g["heel_code"] * n_s + np.searchsorted(grid.stem_base_in,
+                                                                     g["stem_base_in"]))
     codes = {}
     for name in ("stem", "heel"):
         uniq, first, inverse = np.unique(g[f"{name}_code"], return_index=True,
