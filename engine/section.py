@@ -120,7 +120,8 @@ class SectionGeometry:
 
     def stem_thickness_in(self, y_ft) -> np.ndarray:
         """Stem thickness at ``y_ft`` above the top of footing (linear taper)."""
-        frac = np.clip(_arr(y_ft) / self.stem_height_ft, 0.0, 1.0)
+        with np.errstate(divide="ignore", invalid="ignore"):  # no stem: the base thickness
+            frac = np.nan_to_num(np.clip(_arr(y_ft) / self.stem_height_ft, 0.0, 1.0))
         return self.stem_base_in - (self.stem_base_in - self.stem_top_in) * frac
 
     def broadcast(self) -> SectionGeometry:
