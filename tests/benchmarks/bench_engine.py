@@ -94,7 +94,7 @@ def main(argv=None) -> int:
         sp = np.array([getattr(sec, attr).spacing_in for sec in secs])[pick]
         return BarArrays(size, sp)
 
-    geo = SectionGeometry(retained_height_ft=h_all, embedment_ft=2.0,
+    geo = SectionGeometry(retained_height_ft=h_all, embedment_ft=table.embedment_of(h_all),
                           footing_thickness_in=col("footing_thickness_in"),
                           stem_top_in=col("stem_top_in"), stem_base_in=col("stem_base_in"),
                           toe_ft=col("toe_ft"), heel_ft=col("heel_ft"),
