@@ -337,8 +337,12 @@ class StabilityScreen:
         self.vq, self.mq = qa, qma
         base = _geom(g, slice(None), 1.0, emb, fb)
         self.B = base.footing_width_ft
+        # the embedment depends on the footing thickness alone: one value per thickness
+        T_vals, T_of = np.unique(g["footing_thickness_in"], return_inverse=True)
+        first = np.zeros(T_vals.size, int)
+        first[T_of[::-1]] = np.arange(T_of.size)[::-1]
         e_all = np.broadcast_to(base.embedment_ft, self.B.shape)
-        self.e_vals, self.e_of = np.unique(e_all, return_inverse=True)
+        self.e_vals, self.e_of = e_all[first], T_of
 
     def passes(self, h: float, idx=slice(None)) -> np.ndarray:
         """The screen at height ``h`` for the geometries ``idx`` (all by default)."""
