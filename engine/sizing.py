@@ -131,7 +131,13 @@ class SizingGrid:
         i_heel, i_T, i_S = np.meshgrid(np.arange(self.toe_ft.size), np.arange(self.heel_ft.size),
                                        np.arange(nT), np.arange(nS), indexing="ij")[1:]
         tt = np.full(tb.shape, self.stem_top_min_in) if self.stem_batter else tb
-        return {
+        axes = {"toe_ft": self.toe_ft[:, None, None, None],
+                "heel_ft": self.heel_ft[None, :, None, None],
+                "footing_thickness_in": self.footing_thickness_in[None, None, :, None],
+                "stem_base_in": self.stem_base_in[None, None, None, :],
+                "stem_top_in": (np.full((1, 1, 1, 1), self.stem_top_min_in) if self.stem_batter
+                                else self.stem_base_in[None, None, None, :])}
+        return {"axes": axes, "shape": toe.shape,
             "toe_ft": toe.ravel(), "heel_ft": heel.ravel(), "footing_thickness_in": T.ravel(),
             "stem_base_in": tb.ravel(), "stem_top_in": tt.ravel(),
             "stem_code": (i_T * nS + i_S).ravel(), "heel_code": (i_heel * nT + i_T).ravel(),
@@ -255,7 +261,25 @@ def with_embedment(g: dict, embedment_ft: float, footing_cover_ft: float) -> dic
     g = dict(g)
     g["embedment_ft"] = np.maximum(embedment_ft, g["footing_thickness_in"] / 12.0
                                    + footing_cover_ft)
+    if "axes" in g:
+        g["axes"] = dict(g["axes"], embedment_ft=np.maximum(
+            embedment_ft, g["axes"]["footing_thickness_in"] / 12.0 + footing_cover_ft))
     return g
+
+
+def _axes_geom(g, h, emb, fb) -> SectionGeometry:
+    """The whole grid as broadcasting axes (toe, heel, footing, stem): the engine's functions
+    then compute each term on the axes it depends on (much less work than on every element)."""
+    a = g["axes"]
+    return SectionGeometry(
+        retained_height_ft=h, embedment_ft=a.get("embedment_ft", emb),
+        footing_thickness_in=a["footing_thickness_in"], stem_top_in=a["stem_top_in"],
+        stem_base_in=a["stem_base_in"], toe_ft=a["toe_ft"], heel_ft=a["heel_ft"],
+        freeboard_ft=fb)
+
+
+def _flat(x, shape) -> np.ndarray:
+    return np.broadcast_to(x, shape).reshape(-1)
 
 
 def _geom(g: Mapping[str, np.ndarray], idx, h, emb, fb) -> SectionGeometry:
@@ -299,6 +323,7 @@ class StabilityScreen:
     """
 
     SLACK = 1e-9
+    DH = 0.01  # ft, the backward difference of the certificate
 
     def __init__(self, g, inputs: DesignInputs, emb: float, fb: float):
         from .pressure import earth_pressure
@@ -311,8 +336,14 @@ class StabilityScreen:
         n = g["toe_ft"].size
         probe = np.unique(np.linspace(0, n - 1, min(n, 4096)).astype(int))
         parts = []
-        for h, idx in ((hs[0], slice(None)), (hs[1], slice(None)), (hs[2], probe)):
-            w = section_weights(_geom(g, idx, h, emb, fb), inputs)
+        for h, idx in ((hs[0], None), (hs[1], None), (hs[2], probe)):
+            if idx is None and "axes" in g:
+                w = section_weights(_axes_geom(g, h, emb, fb), inputs)
+                parts.append(tuple(_flat(x, g["shape"]) for x in (
+                    *w.dead(), w.surcharge.lb, w.surcharge.moment_lbft)))
+                continue
+            w = section_weights(_geom(g, slice(None) if idx is None else idx, h, emb, fb),
+                                inputs)
             v, m = w.dead()
             parts.append((v, m, w.surcharge.lb, w.surcharge.moment_lbft))
         (va, ma, qa, qma), (vb, mb, qb, qmb), (vc, mc, qc, qmc) = parts
@@ -331,6 +362,9 @@ class StabilityScreen:
                                np.broadcast_to(getattr(th, k), (2,))[1], rtol=1e-12)
                    for k in ("horizontal_lb", "moment_lbft", "vertical_lb"))
         self.linear = bool(lin and same)
+        # failures that hold at every greater height can be certified only where the thrust
+        # is the level-backfill one (no vertical part, convex in the height)
+        self.certify = self.linear and not inputs.extended
         d = hs[1] - hs[0]
         self.v1, self.m1 = (vb - va) / d, (mb - ma) / d
         self.v0, self.m0 = va - self.v1 * hs[0], ma - self.m1 * hs[0]
@@ -344,23 +378,29 @@ class StabilityScreen:
         e_all = np.broadcast_to(base.embedment_ft, self.B.shape)
         self.e_vals, self.e_of = e_all[first], T_of
 
-    def passes(self, h: float, idx=slice(None)) -> np.ndarray:
-        """The screen at height ``h`` for the geometries ``idx`` (all by default)."""
+    def _forces(self, h: float):
+        """Per embedment value: overturning moment, driving force, vertical thrust, passive."""
         from .pressure import design_thrust, passive_resistance_lb
 
-        if not self.linear:
-            return np.ones(self.B[idx].shape, bool)
         i = self.inputs
         one = SectionGeometry(retained_height_ft=h, embedment_ft=self.e_vals,
                               footing_thickness_in=12.0, stem_top_in=8.0, stem_base_in=8.0,
                               toe_ft=1.0, heel_ft=1.0, freeboard_ft=self.fb)
         th = design_thrust(one, i, self.p)  # one thrust per embedment (design height)
+        shape = self.e_vals.shape
+        pp = (passive_resistance_lb(self.p.passive_efp_pcf, i.passive_neglect_ft, self.e_vals)
+              if i.use_passive else np.zeros(shape))
+        return (np.broadcast_to(th.moment_lbft, shape), np.broadcast_to(th.horizontal_lb, shape),
+                np.broadcast_to(th.vertical_lb, shape), np.broadcast_to(pp, shape))
+
+    def passes(self, h: float, idx=slice(None)) -> np.ndarray:
+        """The screen at height ``h`` for the geometries ``idx`` (all by default)."""
+        if not self.linear:
+            return np.ones(self.B[idx].shape, bool)
+        i = self.inputs
+        m_o, h_d, v_th, pp = self._forces(h)
         e_ix = self.e_of[idx]
-        m_o = np.broadcast_to(th.moment_lbft, self.e_vals.shape)[e_ix]
-        h_d = np.broadcast_to(th.horizontal_lb, self.e_vals.shape)[e_ix]
-        v_th = np.broadcast_to(th.vertical_lb, self.e_vals.shape)[e_ix]
-        pp = (passive_resistance_lb(self.p.passive_efp_pcf, i.passive_neglect_ft,
-                                    self.e_vals)[e_ix] if i.use_passive else 0.0)
+        m_o, h_d, v_th, pp = m_o[e_ix], h_d[e_ix], v_th[e_ix], pp[e_ix]
         B = self.B[idx]
         v = self.v0[idx] + self.v1[idx] * h + v_th
         m = self.m0[idx] + self.m1[idx] * h + v_th * B
@@ -378,6 +418,31 @@ class StabilityScreen:
                 q = np.where(e <= B / 6.0, vv / B * (1.0 + 6.0 * e / B), 2.0 * vv / (3.0 * a))
             ok &= (a > 0) & (vv > 0) & (q * k <= i.allowable_bearing_psf)
         return ok
+
+    def doomed(self, h: float, idx) -> np.ndarray:
+        """Geometries ``idx`` that fail overturning or sliding at ``h`` and at every greater
+        height. The margins M_R - FS M_O and mu V + P_p - FS H are concave in the height (the
+        resisting side is linear, the driving side convex), so a negative margin whose slope is
+        not positive stays negative; the slope of the driving side is taken by a backward
+        difference, which is no more than its true slope."""
+        out = np.zeros(np.shape(idx), bool)
+        if not self.certify or h <= 2 * self.DH:
+            return out
+        i = self.inputs
+        m_o, h_d, _, pp = self._forces(h)
+        m_o0, h_d0, _, _ = self._forces(h - self.DH)
+        e_ix = self.e_of[idx]
+        sm = (m_o - m_o0)[e_ix] / self.DH
+        sh = (h_d - h_d0)[e_ix] / self.DH
+        v = self.v0[idx] + self.v1[idx] * h
+        m = self.m0[idx] + self.m1[idx] * h
+        v1, m1 = self.v1[idx], self.m1[idx]
+        if i.surcharge_resists:
+            v, m = v + self.vq[idx], m + self.mq[idx]
+        ot = (m < i.fs_overturning * m_o[e_ix] * (1 - 1e-6)) & (m1 <= i.fs_overturning * sm)
+        sl = ((i.friction_coefficient * v + pp[e_ix] < i.fs_sliding * h_d[e_ix] * (1 - 1e-6))
+              & (i.friction_coefficient * v1 <= i.fs_sliding * sh))
+        return ot | sl
 
 
 def toe_capacity_table(g, inputs: DesignInputs, bars: BarArrays) -> dict:
@@ -424,7 +489,8 @@ def _pair_table(g, first, h, emb, fb, inputs, bars: BarArrays, member: str) -> n
     return np.where(np.isfinite(cost[np.arange(first.size), best]), best, -1)
 
 
-def _search_height(g, codes, pre, toe_tab, screen, h, emb, fb, inputs, rates, bars):
+def _search_height(g, codes, pre, toe_tab, screen, h, emb, fb, inputs, rates, bars,
+                   alive=None):
     """Exact optimum at one height over the whole grid.
 
     Returns (geometry, stem bars, heel bars, toe bars, cost), or None where nothing holds.
@@ -435,7 +501,10 @@ def _search_height(g, codes, pre, toe_tab, screen, h, emb, fb, inputs, rates, ba
     heel_pick = _pair_table(g, codes["heel_first"], h, emb, fb, inputs, bars, "heel")
     s_all = stem_pick[codes["stem_of"]]
     h_all = heel_pick[codes["heel_of"]]
-    cand = np.nonzero((s_all >= 0) & (h_all >= 0))[0]
+    keep = (s_all >= 0) & (h_all >= 0)
+    if alive is not None:
+        keep &= alive
+    cand = np.nonzero(keep)[0]
     s_b, h_b = s_all[cand], h_all[cand]
     if cand.size == 0:
         return None
@@ -460,7 +529,11 @@ def _search_height(g, codes, pre, toe_tab, screen, h, emb, fb, inputs, rates, ba
             # after the first block: screen what could still beat the best, drop what fails
             todo = idx[~screened[idx]]
             screened[todo] = True
-            done[todo[~screen.passes(h, cand[todo])]] = True
+            fail = ~screen.passes(h, cand[todo])
+            done[todo[fail]] = True
+            if alive is not None and fail.any():  # certified failures leave for good
+                gone = cand[todo[fail]]
+                alive[gone[screen.doomed(h, gone)]] = False
             idx = idx[~done[idx]]
             if idx.size == 0:
                 break
@@ -563,6 +636,7 @@ def design_table(inputs: DesignInputs, grid: SizingGrid, rates: CostRates, *,
     g = with_embedment(grid.geometries(), embedment_ft, footing_cover_ft)
     bars = grid.bar_options()
     screen = StabilityScreen(g, inputs, embedment_ft, freeboard_ft)
+    alive = np.ones(g["toe_ft"].size, bool)  # not yet certified to fail at greater heights
     toe_tab = toe_capacity_table(g, inputs, bars)
     if (inputs.backslope_deg or 0.0) != 0.0 and grid.stem_batter:
         # on a slope the ground over the heel starts where the battered back face meets the
@@ -581,7 +655,7 @@ def design_table(inputs: DesignInputs, grid: SizingGrid, rates: CostRates, *,
     for k in range(1, k_max + 1):
         h = k * increment_ft
         found = _search_height(g, codes, pre, toe_tab, screen, h, embedment_ft, freeboard_ft,
-                               inputs, rates, bars)
+                               inputs, rates, bars, alive)
         if found is None:
             choices.append(Choice(h, None, math.nan))
             continue
