@@ -127,6 +127,28 @@ def _audit(inputs, sec: SectionDims, h, emb, fb, res, wall, station_ft):
                         f"{a.capacity:.6g} ({'pass' if a.passes else 'fail'})")
 
 
+def merge_identical(plan, run, station_ft, table: DesignTable, segment_max_ft: float):
+    """The plan's segments as (first station, last station, BF, TW, design height), with
+    neighbours that came out identical (same section, footing and top: a boundary without a
+    step or a change costs nothing, so the optimum may split anywhere) joined again while the
+    joined length stays within ``segment_max_ft``."""
+    out: list[list] = []
+    for q in range(len(plan)):
+        i0, i1 = int(run[plan.start_index[q]]), int(run[plan.end_index[q]])
+        bf, tw = float(plan.bottom_of_footing_ft[q]), float(plan.top_of_wall_ft[q])
+        hc = float(plan.design_height_ft[q])
+        if out:
+            p = out[-1]
+            same_top = (math.isnan(tw) and math.isnan(p[3])) or abs(tw - p[3]) < 1e-9
+            if (abs(bf - p[2]) < 1e-9 and same_top
+                    and int(table.index(hc)) == int(table.index(p[4]))
+                    and station_ft[i1] - station_ft[p[0]] <= segment_max_ft + 1e-9):
+                p[1], p[4] = i1, max(p[4], hc)
+                continue
+        out.append([i0, i1, bf, tw, hc])
+    return [tuple(p) for p in out]
+
+
 def design_wall(site: Site, wall: WallSpec, ws: WallStations, inputs: DesignInputs,
                 table: DesignTable, *, audit: bool = True) -> WallDesign:
     """Segments, sections and per-station checks of one wall."""
@@ -152,13 +174,10 @@ def design_wall(site: Site, wall: WallSpec, ws: WallStations, inputs: DesignInpu
     plan = plan_segments(s, ws.retained_grade_ft[run], ws.front_grade_ft[run], rules,
                          table.cost_per_ft, table.embedment_of)
     segments: list[Segment] = []
-    for q in range(len(plan)):
-        i0, i1 = int(run[plan.start_index[q]]), int(run[plan.end_index[q]])
+    pieces = merge_identical(plan, run, ws.station_ft, table, c["segment_max_ft"])
+    for q, (i0, i1, bf, tw, hc) in enumerate(pieces):
         idx = np.arange(i0, i1 + 1)  # both ends are checked
-        own = idx if q == len(plan) - 1 else idx[:-1]  # the end station goes to the next
-        bf = float(plan.bottom_of_footing_ft[q])
-        tw = float(plan.top_of_wall_ft[q])
-        hc = float(plan.design_height_ft[q])
+        own = idx if q == len(pieces) - 1 else idx[:-1]  # the end station goes to the next
         seg_id = f"{wall.id}-{q + 1:02d}"
         hs, emb, fb = _station_cases(ws, idx, bf, tw, c["freeboard_ft"], c["top_of_wall"])
         sec, res, reason = None, None, ""
