@@ -30,7 +30,7 @@ MAX_PROFILE_POINTS = 100_000  # points of one profile or alignment, from any rea
 MAX_COORDINATE_FT = 1e9  # |x|, |y|, |station|, |elevation|: larger is not a site in feet
 MAX_LINE_CHARS = 4000  # one CSV line
 GRADE_JUMP_MAX_FT = 10.0  # a grade may not jump more than this between adjacent points ...
-GRADE_JUMP_SLOPE = 2.0  # ... at a slope steeper than 2 vertical : 1 horizontal
+GRADE_JUMP_SLOPE = 1.0  # ... at a slope steeper than 1 vertical : 1 horizontal
 
 STATION_NAMES = ("station", "sta", "station_ft", "sta_ft", "stationing")
 ELEVATION_NAMES = ("elevation", "elev", "elevation_ft", "elev_ft", "z")
@@ -230,7 +230,7 @@ def _profile(st: np.ndarray, el: np.ndarray, ln: np.ndarray, label: str) -> Grad
 
 def jump_limit_text() -> str:
     return (f"a grade may not change by more than {GRADE_JUMP_MAX_FT:g} ft between adjacent "
-            f"points at a slope steeper than {GRADE_JUMP_SLOPE:g}:1")
+            f"points at a slope steeper than {GRADE_JUMP_SLOPE:g}:1 (vertical:horizontal)")
 
 
 def grade_jump(st: np.ndarray, el: np.ndarray) -> int | None:

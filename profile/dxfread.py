@@ -9,10 +9,10 @@ other units is refused unless its source declares them with ``units = "m"`` (or 
 feet. A declared unit that contradicts a set ``$INSUNITS`` is refused too.
 
 Limits (stated in the README): a drawing may be at most ``MAX_DXF_BYTES`` bytes with at most
-``MAX_DXF_ENTITIES`` entities in model space, and a profile read from it at most
-``MAX_PROFILE_POINTS`` points; larger drawings are refused before (or right after) parsing, so
-time and memory stay bounded. Grade lines on a layer must cover the wall without a gap wider
-than ``GRADE_GAP_MAX_FT`` (two lines are never bridged silently).
+``MAX_DXF_ENTITIES`` entities in model space and about ``MAX_DXF_POINTS`` points, and a
+profile read from it at most ``MAX_PROFILE_POINTS`` points; larger drawings are refused
+before (or right after) parsing, so time and memory stay bounded. Grade lines on a layer must
+cover the wall without a gap wider than ``GRADE_GAP_MAX_FT`` (never bridged silently).
 
 Warnings (vertices far from the wall, labels that cannot be used, entities ignored) are
 issued with :func:`warnings.warn` as :class:`ProfileWarning` and also kept on the returned
@@ -22,6 +22,7 @@ object's ``warnings`` tuple.
 from __future__ import annotations
 
 import math
+import re
 import warnings as _warnings
 from collections.abc import Mapping
 from dataclasses import dataclass
@@ -54,6 +55,7 @@ SAME_ELEVATION_FT = 0.01  # ... and must agree within this
 EXTENSION_FT = 1000.0  # the alignment is extended straight past both ends for projection
 MAX_DXF_BYTES = 50 * 1024 * 1024  # larger drawings are refused unread (stated in the README)
 MAX_DXF_ENTITIES = 200_000  # entities in model space (stated in the README)
+MAX_DXF_POINTS = 500_000  # point tags (group code 10) in a text DXF, counted before parsing
 GRADE_GAP_MAX_FT = 1.0  # grade lines on a layer may leave no wider gap along the wall
 
 FT_PER_UNIT = {  # exact definitions: 1 ft = 0.3048 m; 1 US survey ft = 1200/3937 m
@@ -142,13 +144,18 @@ def open_dxf(path: Path, label: str, messages: list[str] | None = None):
                            f"{MAX_DXF_BYTES // 2**20} MiB - export only the layers the walls "
                            "need (e.g. with a layer filter or a cleaned-up copy)", file=label)
     try:
-        with open(path, "rb") as f:
-            head = f.read(4096)
+        raw = path.read_bytes()
     except OSError as exc:
         raise ProfileError(f"cannot be read ({exc.strerror})", file=label) from None
-    if not _looks_like_dxf(head):
+    if not _looks_like_dxf(raw[:4096]):
         raise ProfileError("is not a DXF drawing (no DXF section tags at its start); export "
                            "it from the CAD program as DXF", file=label)
+    points = len(_POINT_TAG.findall(raw)) if not raw.startswith(b"AutoCAD Binary") else 0
+    del raw
+    if points > MAX_DXF_POINTS:
+        raise ProfileError(f"holds about {points:,} points; the limit is {MAX_DXF_POINTS:,} - "
+                           "export only the layers the walls need, or simplify the lines",
+                           file=label)
     try:
         doc, repairs = _load(str(path), st.st_mtime_ns, st.st_size)
     except ProfileError as exc:
@@ -159,6 +166,9 @@ def open_dxf(path: Path, label: str, messages: list[str] | None = None):
         warn(messages, f"{label}: the drawing was damaged; {repairs} problem(s) were "
              "repaired while reading it - check the result, or save the drawing again")
     return doc
+
+
+_POINT_TAG = re.compile(rb"\n[ \t]*10[ \t]*\r?\n")  # group code 10: the x of a point
 
 
 def _looks_like_dxf(head: bytes) -> bool:

@@ -19,13 +19,18 @@ EPILOG = "\b\nCAUTIONS\n" + "\n".join(f"- {c}" for c in CAUTIONS)
 
 
 class WallGroup(click.Group):
-    """Maps InputError to one line on stderr and exit code 2."""
+    """Maps InputError (and a command's usage error) to one line on stderr and exit code 2."""
 
     def invoke(self, ctx):
         try:
             return super().invoke(ctx)
         except InputError as exc:
             click.echo(f"error: {exc.one_line()}", err=True)
+            ctx.exit(2)
+        except click.UsageError as exc:
+            sub = exc.ctx.command_path if exc.ctx is not None else ctx.command_path
+            text = " ".join(exc.format_message().split())
+            click.echo(f"error: {text} (see '{sub} --help')", err=True)
             ctx.exit(2)
 
 

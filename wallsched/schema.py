@@ -67,7 +67,10 @@ class SourceText:
             rf"^\s*\[+\s*{re.escape(table.split('[')[0].strip())}\s*\]+"
         )
         inside = header is None
+        table_head = re.compile(rf"^\s*\[+\s*{re.escape(key)}\s*\]+")
         for i, line in enumerate(self.lines, 1):
+            if header is None and table_head.match(line):  # a top-level table [key]
+                return i
             if header is not None and header.match(line):
                 inside = True
                 continue

@@ -304,7 +304,9 @@ def _wall(i: int, raw: Any, site: dict[str, dict], *, folder: Path, file, src: S
             if k not in merged:
                 merged[k] = None if spec.default is REQUIRED else spec.default
         resolved[table] = merged
-    resolve_soil(resolved["soil"], resolved["criteria"], file=file, table=f"{label} soil")
+    own_soil = bool(nested.get("soil")) or bool(flat_override.get("soil"))
+    resolve_soil(resolved["soil"], resolved["criteria"], file=file,
+                 table=f"{label}.soil" if own_soil else "soil")
     loads = resolved["loads"]
     loads["strip"] = check_strips(loads.get("strip"), file=file, where=f"{label}.loads.strip")
     for t, keys in OPTIONAL_TABLES.items():
