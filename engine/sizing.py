@@ -629,14 +629,16 @@ class DesignTable:
 
 def design_table(inputs: DesignInputs, grid: SizingGrid, rates: CostRates, *,
                  max_height_ft: float, increment_ft: float, embedment_ft: float,
-                 freeboard_ft: float, footing_cover_ft: float = 0.0) -> DesignTable:
+                 freeboard_ft: float, footing_cover_ft: float = 0.0,
+                 footing_width_max_ft: float | None = None) -> DesignTable:
     """The least-cost section for every retained height up to ``max_height_ft``; each
     candidate's embedment is ``embedment_ft`` or deeper to bury its footing
     (:func:`with_embedment`)."""
     g = with_embedment(grid.geometries(), embedment_ft, footing_cover_ft)
     bars = grid.bar_options()
     screen = StabilityScreen(g, inputs, embedment_ft, freeboard_ft)
-    alive = np.ones(g["toe_ft"].size, bool)  # not yet certified to fail at greater heights
+    # not yet certified to fail at greater heights, and within the room given for the footing
+    alive = np.ones(g["toe_ft"].size, bool)
     toe_tab = toe_capacity_table(g, inputs, bars)
     if (inputs.backslope_deg or 0.0) != 0.0 and grid.stem_batter:
         # on a slope the ground over the heel starts where the battered back face meets the
@@ -650,6 +652,8 @@ def design_table(inputs: DesignInputs, grid: SizingGrid, rates: CostRates, *,
                                          return_inverse=True)
         codes[f"{name}_first"], codes[f"{name}_of"] = first, inverse
     pre = precompute(g, inputs, rates, embedment_ft)
+    if footing_width_max_ft is not None:
+        alive &= pre["B_ft"] <= footing_width_max_ft + 1e-9
     choices = []
     k_max = int(math.ceil(max_height_ft / increment_ft - 1e-9))
     for k in range(1, k_max + 1):
@@ -677,7 +681,8 @@ def reinforcement_of(sec: SectionDims) -> Reinforcement:
 
 
 def exhaustive_optimum(inputs: DesignInputs, grid: SizingGrid, rates: CostRates, *, h: float,
-                       emb: float, fb: float, footing_cover_ft: float = 0.0):
+                       emb: float, fb: float, footing_cover_ft: float = 0.0,
+                       footing_width_max_ft: float | None = None):
     """Reference: every geometry x stem x heel x toe bar combination through check_section.
 
     Only for small grids (tests). Returns (cost, SectionDims) or (inf, None).
@@ -698,6 +703,8 @@ def exhaustive_optimum(inputs: DesignInputs, grid: SizingGrid, rates: CostRates,
                                                    horizontal=horiz, longitudinal=longi))
     cost = candidate_cost(geo, inputs, rates, sel(si), sel(hi), sel(ti), horiz, longi)
     cost = np.where(res.passes, cost, np.inf)
+    if footing_width_max_ft is not None:
+        cost = np.where(geo.footing_width_ft <= footing_width_max_ft + 1e-9, cost, np.inf)
     k = int(np.argmin(cost))
     if not np.isfinite(cost[k]):
         return math.inf, None

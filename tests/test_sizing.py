@@ -84,3 +84,23 @@ def test_bar_size_lists():
     assert parse_sizes("4,6,8").tolist() == [4, 6, 8]
     with pytest.raises(ValueError):
         parse_sizes("1-2")
+
+
+def test_footing_width_limit_is_honoured_and_exact():
+    inputs = DesignInputs(unit_weight_pcf=120, friction_coefficient=0.4,
+                          allowable_bearing_psf=3000, active_efp_pcf=40, passive_efp_pcf=250,
+                          surcharge_psf=100, min_embedment_ft=1.5)
+    grid = small_grid()
+    rates = CostRates()
+    limit = 5.0  # ft of room for the footing (e.g. a property line), an invented case
+    table = design_table(inputs, grid, rates, max_height_ft=8.0, increment_ft=1.0,
+                         embedment_ft=1.5, freeboard_ft=0.5, footing_width_max_ft=limit)
+    held = [c for c in table.choices if c.section is not None]
+    assert held and all(c.section.footing_width_ft <= limit + 1e-9 for c in held)
+    assert any(c.section is None for c in table.choices)  # tall ones need more room
+    for c in table.choices:
+        ref_cost, ref = exhaustive_optimum(inputs, grid, rates, h=c.design_height_ft, emb=1.5,
+                                           fb=0.5, footing_width_max_ft=limit)
+        assert (ref is None) == (c.section is None)
+        if ref is not None:
+            assert c.cost_per_ft == pytest.approx(ref_cost, rel=1e-9)

@@ -53,7 +53,8 @@ def wall_inputs(site: Site, wall: WallSpec) -> DesignInputs:
 
 
 def _table_key(inputs: DesignInputs, crit, emb, fb, top):
-    return (inputs, emb, fb, crit["design_height_increment_ft"], top, crit["footing_cover_ft"])
+    return (inputs, emb, fb, crit["design_height_increment_ft"], top, crit["footing_cover_ft"],
+            crit.get("footing_width_max_ft"))
 
 
 def segment_rules(crit, rates: CostRates) -> SegmentRules:
@@ -356,7 +357,8 @@ def design_site(site: Site, walls_stations: list[WallStations], *, audit: bool =
             tables[key] = design_table(
                 inputs, grid, rates, max_height_ft=need[key],
                 increment_ft=c["design_height_increment_ft"], embedment_ft=emb,
-                freeboard_ft=c["freeboard_ft"], footing_cover_ft=c["footing_cover_ft"])
+                freeboard_ft=c["freeboard_ft"], footing_cover_ft=c["footing_cover_ft"],
+                footing_width_max_ft=c.get("footing_width_max_ft"))
         inputs_by_wall[wall.id] = inputs
         tables_by_wall[wall.id] = tables[key]
         designs.append(design_wall(site, wall, ws, inputs, tables[key], audit=audit))

@@ -108,6 +108,8 @@ CRITERIA_KEYS = {
     "min_embedment_ft": Key(float, 1.0, lo=0, hi=20,
                             doc="front grade to bottom of footing, ft (IBC 2021 1809.4: 12 in)"),
     "frost_depth_ft": Key(float, None, lo=0, hi=15, doc="frost depth below front grade, ft"),
+    "footing_width_max_ft": Key(float, None, lo=1, hi=100,
+                                doc="widest footing the site has room for, ft (no limit)"),
     "footing_cover_ft": Key(float, 0.0, lo=0, hi=5,
                             doc="front grade to top of footing, least, ft (common practice: the "
                                 "footing is buried)"),
