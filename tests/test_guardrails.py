@@ -1,0 +1,48 @@
+"""Guard rails: legal but suspicious inputs give warnings, in the functions and on the CLI."""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+import numpy as np
+from sitekit import SOIL, make_site
+
+from wallsched.cli import main
+from wallsched.guardrails import height_jumps, length_warning, soil_warnings
+
+
+def test_height_jump_between_adjacent_stations():
+    st = np.array([0.0, 5.0, 10.0, 15.0])
+    assert height_jumps("A", st, np.array([2.0, 4.9, 7.8, 8.0])) == []  # 2.9 ft: below 3
+    lines = height_jumps("A", st, np.array([2.0, 6.5, 6.0, 2.0]))
+    assert len(lines) == 1
+    assert "changes by 4.50 ft between stations 0+00.00 and 0+05.00 (2 places)" in lines[0]
+
+
+def test_friction_and_bearing_limits():
+    base = {"friction_coefficient": 0.7, "allowable_bearing_psf": 12000.0, "source": None}
+    assert soil_warnings([("A", base)]) == []  # IBC 2021 Table 1806.2 class 1: 0.70, 12,000
+    high = dict(base, friction_coefficient=0.75, allowable_bearing_psf=15000.0)
+    lines = soil_warnings([("A", high), ("B", high)])
+    assert len(lines) == 2 and all(ln.startswith("walls 'A', 'B': ") for ln in lines)
+    assert "friction_coefficient 0.75 is above 0.7" in lines[0]
+    assert "allowable_bearing_psf 15,000 is above 12,000 psf" in lines[1]
+    noted = dict(high, source="geotechnical report, invented example")
+    assert soil_warnings([("A", noted)]) == [lines[0].replace("walls 'A', 'B'", "wall 'A'")]
+
+
+def test_wall_longer_than_a_mile():
+    assert length_warning("A", 5280.0) == []  # 5,280 ft in a mile (exact definition)
+    assert "more than a mile" in length_warning("A", 5280.5)[0]
+
+
+def test_stations_prints_the_warnings(runner, tmp_path: Path):
+    soil = SOIL.replace("friction_coefficient = 0.40", "friction_coefficient = 0.8")
+    site = make_site(tmp_path, soil=soil, top=((0, 100.0), (40, 100.5), (45, 106.0),
+                                               (100, 103.0)))
+    res = runner.invoke(main, ["stations", str(site), "--out", str(tmp_path / "o"),
+                               "--no-plots"])
+    assert res.exit_code == 0, res.output
+    warns = [ln for ln in res.stdout.splitlines() if ln.startswith("warning: ")]
+    assert any("friction_coefficient 0.8 is above 0.7" in w for w in warns)
+    assert any("retained height changes by" in w and "0+40.00 and 0+45.00" in w for w in warns)
