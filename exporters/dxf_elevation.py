@@ -252,6 +252,10 @@ def _write(design, path: Path, *, input_hash, site_name, ve, bars, quantities,
                  input_hash=input_hash, site_name=site_name, ve=vertical_exaggeration,
                  describe=describe)
     path.parent.mkdir(parents=True, exist_ok=True)
+    # ezdxf adds the CLASSES entries of the entity types in use from a set, whose order
+    # changes with the process's hash seed: add them now, in a fixed order
+    doc.classes.add_required_classes(doc.dxfversion)
+    doc.classes.classes = dict(sorted(doc.classes.classes.items()))
     doc.saveas(path)
     return path
 
