@@ -646,6 +646,11 @@ def write_report(site, sd, path, *, diff=None, date: _dt.date | None = None) -> 
     pdf.set_draw_color(0)
     pdf.set_line_width(0.2)
     pdf.ln(6)
+    if sd.warnings:
+        wr.h2("Warnings (legal but suspicious inputs; check them)")
+        for line in sd.warnings:
+            wr.para("- " + line, size=8.5)
+        pdf.ln(2)
     wr.h2("Input files (SHA-256)")
     for name, digest in site.input_hashes().items():
         wr.para(name, size=8)

@@ -24,7 +24,7 @@ SCHEDULE_COLUMNS = [  # DESIGN.md section 5, in this order
 ]
 EXTRA_COLUMNS = ["station_start", "station_end", "mark", "design_height_ft", "governing_check",
                  "governing_station", "footing_long_bars", "formwork_sf", "excavation_cy",
-                 "backfill_cy", "cost_usd"]
+                 "backfill_cy", "cost_usd", "warnings"]
 UNITS = {
     "station_start_ft": "ft", "station_end_ft": "ft", "length_ft": "ft",
     "retained_height_max_ft": "ft", "top_of_wall_ft": "ft (elev.)",
@@ -40,10 +40,21 @@ def _bar(b) -> str:
     return "" if b is None else str(b)
 
 
-def schedule_frame(walls) -> pd.DataFrame:
-    """One row per segment of every wall."""
+def wall_warnings(wall: str, warnings) -> str:
+    """The warning lines that name ``wall`` (the guard rails name walls as ``wall 'W1'``)."""
+    import re
+
+    pat = re.compile(rf"(?<![\w-]){re.escape(repr(wall))}(?![\w-])")
+    return "; ".join(w for w in warnings if pat.search(w))
+
+
+def schedule_frame(walls, warnings=()) -> pd.DataFrame:
+    """One row per segment of every wall; ``warnings`` (guard rails, readers) go to the
+    ``warnings`` column of the wall they name (the status stays ``ok`` for a passing
+    segment)."""
     rows = []
     for w in walls:
+        wall_warn = wall_warnings(w.wall, warnings)
         for s in w.segments:
             sec = s.section
             dims = {k: (getattr(sec, k) if sec is not None else math.nan) for k in (
@@ -71,7 +82,7 @@ def schedule_frame(walls) -> pd.DataFrame:
                                       if math.isfinite(s.governing_station_ft) else ""),
                 "footing_long_bars": _bar(sec and sec.footing_long_bars),
                 "formwork_sf": s.formwork_sf, "excavation_cy": s.excavation_cy,
-                "backfill_cy": s.backfill_cy, "cost_usd": s.cost_usd,
+                "backfill_cy": s.backfill_cy, "cost_usd": s.cost_usd, "warnings": wall_warn,
             })
     return pd.DataFrame(rows, columns=SCHEDULE_COLUMNS + EXTRA_COLUMNS)
 
@@ -105,8 +116,8 @@ def stations_frame(walls) -> pd.DataFrame:
     return pd.concat(frames, ignore_index=True)
 
 
-def write_schedule(walls, out: Path) -> pd.DataFrame:
-    frame = schedule_frame(walls)
+def write_schedule(walls, out: Path, warnings=()) -> pd.DataFrame:
+    frame = schedule_frame(walls, warnings)
     write_csv(frame, out / "schedule.csv")
     return frame
 
@@ -208,7 +219,7 @@ def run_record(site, sd, schedule: pd.DataFrame) -> dict:
         "site": dict(site.meta), "cautions": list(CAUTIONS),
         "inputs": site.input_hashes(), "versions": versions,
         "costs": dict(site.costs), "sizing": dict(site.sizing),
-        "passes": bool(sd.ok), "walls": walls,
+        "passes": bool(sd.ok), "warnings": list(sd.warnings), "walls": walls,
     }
 
 

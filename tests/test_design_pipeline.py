@@ -210,3 +210,20 @@ def test_over_the_limit_is_flagged_and_exit_3(runner, tmp_path):
     assert len(bad) >= 1 and bad.status.str.startswith("over_limit").all()
     assert (sched.loc[sched.status == "ok", "retained_height_max_ft"] <= 5.0 + 1e-9).all()
     assert not math.isnan(sched.fs_overturning.iloc[0])
+
+
+def test_guard_rail_warnings_reach_the_schedule_and_run_record(runner, tmp_path):
+    from sitekit import SOIL
+
+    soil = SOIL.replace("friction_coefficient = 0.40", "friction_coefficient = 0.75")
+    site = make_site(tmp_path, extra=SMALL_GRID, soil=soil)
+    out = tmp_path / "out"
+    res = runner.invoke(main, ["design", str(site), "--out", str(out), "--no-drawings"])
+    assert res.exit_code == 0, res.output
+    assert "warning:" in res.output and "0.7" in res.output
+    sched = pd.read_csv(out / "schedule.csv")
+    assert (sched.status == "ok").all()  # a warning is not a failure
+    assert sched.warnings.str.contains("friction").all()
+    import json
+
+    assert any("friction" in w for w in json.loads((out / "run.json").read_text())["warnings"])

@@ -112,7 +112,7 @@ def write_design(site, sd, out: Path, *, drawings: bool = True, compare_dir=None
     from .exporters.tables import write_csv
 
     write_csv(stations_frame(sd.walls), out / "stations.csv")
-    schedule = write_schedule(sd.walls, out)
+    schedule = write_schedule(sd.walls, out, sd.warnings)
     bars = pd.concat([w.extra["bars"] for w in sd.walls if len(w.extra["bars"])],
                      ignore_index=True) if any(len(w.extra["bars"]) for w in sd.walls) else None
     from .engine.detailing import REBAR_COLUMNS
