@@ -89,7 +89,7 @@ def init(folder: Path):
         (folder / f.name).write_bytes(f.read_bytes())
     click.echo(f"wrote a starter site in {folder}: edit {folder}/site.toml (the soil values "
                "are placeholders that MUST be replaced from the geotechnical report), then run\n"
-               f"  wallsched stations {folder}/site.toml --out {folder}/out")
+               f"  wallsched design {folder}/site.toml --out {folder}/out")
 
 
 if __name__ == "__main__":  # pragma: no cover
