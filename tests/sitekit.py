@@ -5,6 +5,15 @@ from __future__ import annotations
 import textwrap
 from pathlib import Path
 
+# a small candidate grid, so that designs in tests run in a second or two
+SMALL_GRID = """
+[sizing]
+toe_max_ft = 4.0
+heel_max_ft = 8.0
+footing_thickness_max_in = 24.0
+stem_max_in = 14.0
+"""
+
 SOIL = """
 [soil]
 unit_weight_pcf = 120

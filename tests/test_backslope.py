@@ -8,7 +8,7 @@ import numpy as np
 import pytest
 from groundhog.excavations.basic import earthpressurecoefficients_rankine
 from test_audit import _close, random_batch
-from test_sizing import small_grid
+from test_sizing import assert_matches_exhaustive, small_grid
 from wallsched.engine.audit import audit_details
 from wallsched.engine.checks import check_section
 from wallsched.engine.pressure import (
@@ -27,7 +27,6 @@ from wallsched.engine.section import (
     retained_soil_polygons,
     section_weights,
 )
-from wallsched.engine.sizing import CostRates, design_table, exhaustive_optimum
 
 from wallsched.errors import InputError
 from wallsched.section_file import load_section
@@ -205,37 +204,12 @@ def test_sizing_equals_exhaustive_with_backslope():
     inputs = DesignInputs(unit_weight_pcf=115.0, friction_coefficient=0.5,
                           allowable_bearing_psf=3500.0, friction_angle_deg=32.0,
                           passive_efp_pcf=300.0, surcharge_psf=100.0, backslope_deg=18.0)
-    grid = small_grid(False)
-    rates = CostRates()
-    table = design_table(inputs, grid, rates, max_height_ft=6.0, increment_ft=1.0,
-                         embedment_ft=1.0, freeboard_ft=0.5)
-    found = 0
-    for choice in table.choices:
-        ref_cost, ref = exhaustive_optimum(inputs, grid, rates, h=choice.design_height_ft,
-                                           emb=1.0, fb=0.5)
-        if ref is None:
-            assert choice.section is None
-            continue
-        found += 1
-        assert choice.cost_per_ft == pytest.approx(ref_cost, rel=1e-9)
-    assert found >= 3
+    assert_matches_exhaustive(inputs, small_grid(False))
 
 
 def test_sizing_equals_exhaustive_with_backslope_and_battered_stem():
     inputs = DesignInputs(unit_weight_pcf=115.0, friction_coefficient=0.5,
                           allowable_bearing_psf=3500.0, friction_angle_deg=32.0,
                           passive_efp_pcf=300.0, surcharge_psf=100.0, backslope_deg=18.0)
-    grid = small_grid(True)  # back face battered: the heel's load depends on the stem
-    rates = CostRates()
-    table = design_table(inputs, grid, rates, max_height_ft=6.0, increment_ft=1.0,
-                         embedment_ft=1.0, freeboard_ft=0.5)
-    found = 0
-    for choice in table.choices:
-        ref_cost, ref = exhaustive_optimum(inputs, grid, rates, h=choice.design_height_ft,
-                                           emb=1.0, fb=0.5)
-        if ref is None:
-            assert choice.section is None
-            continue
-        found += 1
-        assert choice.cost_per_ft == pytest.approx(ref_cost, rel=1e-9)
-    assert found >= 3
+    # back face battered: the heel's load depends on the stem
+    assert_matches_exhaustive(inputs, small_grid(True))

@@ -10,21 +10,13 @@ import pandas as pd
 import pytest
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
-from sitekit import make_site
+from sitekit import SMALL_GRID, make_site
 from wallsched.engine.audit import audit_section
 from wallsched.engine.section import DesignInputs
 from wallsched.exporters.schedule import SCHEDULE_COLUMNS
 
 from wallsched.cli import main
 from wallsched.site import load_site
-
-SMALL_GRID = """
-[sizing]
-toe_max_ft = 4.0
-heel_max_ft = 8.0
-footing_thickness_max_in = 24.0
-stem_max_in = 14.0
-"""
 
 
 def design(runner, site: Path, out: Path):

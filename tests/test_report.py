@@ -8,7 +8,7 @@ import re
 
 import pytest
 from pypdf import PdfReader
-from sitekit import make_site
+from sitekit import SMALL_GRID, make_site
 from wallsched.engine.checks import check_section
 from wallsched.exporters import report as rp
 from wallsched.exporters.schedule import schedule_frame
@@ -17,14 +17,6 @@ from wallsched.cautions import CAUTIONS
 from wallsched.design import design_site
 from wallsched.pipeline import site_stations
 from wallsched.site import load_site
-
-SMALL_GRID = """
-[sizing]
-toe_max_ft = 4.0
-heel_max_ft = 8.0
-footing_thickness_max_in = 24.0
-stem_max_in = 14.0
-"""
 
 
 def _design(folder, extra=SMALL_GRID, **kw):

@@ -10,20 +10,13 @@ import numpy as np
 import pandas as pd
 import pytest
 from click.testing import CliRunner
-from sitekit import make_site
+from sitekit import SMALL_GRID, make_site
 from wallsched.exporters import dxf_elevation as de
 from wallsched.exporters.diff import DIFF_COLUMNS, LENGTH_TOL_FT, diff_runs
 from wallsched.exporters.dxf_render import render_dxf_png
 
 from wallsched.cli import main
 
-SMALL_GRID = """
-[sizing]
-toe_max_ft = 4.0
-heel_max_ft = 8.0
-footing_thickness_max_in = 24.0
-stem_max_in = 14.0
-"""
 TOP_1 = ((0, 100.0), (40, 106.0), (100, 103.0))
 # revision 2 (invented): the retained grade raised by 1.2 ft from station 60 to 80
 RAISE_FROM_FT, RAISE_TO_FT, RAISE_FT = 60.0, 80.0, 1.2

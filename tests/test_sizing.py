@@ -27,6 +27,25 @@ def small_grid(batter=False):
         bar_spacings_in=np.array([8.0, 12.0]))
 
 
+def assert_matches_exhaustive(inputs, grid, *, max_height_ft=6.0, emb=1.0, fb=0.5,
+                              at_least=3):
+    """The fast design table equals the exhaustive reference at every height; returns it."""
+    rates = CostRates()
+    table = design_table(inputs, grid, rates, max_height_ft=max_height_ft, increment_ft=1.0,
+                         embedment_ft=emb, freeboard_ft=fb)
+    found = 0
+    for choice in table.choices:
+        ref_cost, ref = exhaustive_optimum(inputs, grid, rates, h=choice.design_height_ft,
+                                           emb=emb, fb=fb)
+        if ref is None:
+            assert choice.section is None
+            continue
+        found += 1
+        assert choice.cost_per_ft == pytest.approx(ref_cost, rel=1e-9)
+    assert found >= at_least
+    return table
+
+
 soils = st.fixed_dictionaries({
     "unit_weight_pcf": st.floats(100, 130), "friction_coefficient": st.floats(0.3, 0.55),
     "allowable_bearing_psf": st.floats(1500, 4000), "active_efp_pcf": st.floats(30, 50),
