@@ -294,7 +294,8 @@ def _geom(g: Mapping[str, np.ndarray], idx, h, emb, fb) -> SectionGeometry:
 def precompute(g, inputs: DesignInputs, rates: CostRates, emb: float) -> dict:
     """The height-independent parts of every geometry's cost: the cost is
     ``cost0 + cost_per_hst * stem height`` plus the stem, heel and toe bars."""
-    geo = _geom(g, slice(None), 1.0, emb, 0.0)
+    # on the grid's broadcasting axes where it has them (each term on the axes it needs)
+    geo = _axes_geom(g, 1.0, emb, 0.0) if "axes" in g else _geom(g, slice(None), 1.0, emb, 0.0)
     T = geo.footing_thickness_ft
     B = geo.footing_width_ft
     horiz, longi = fixed_bars(geo, inputs)
@@ -306,9 +307,11 @@ def precompute(g, inputs: DesignInputs, rates: CostRates, emb: float) -> dict:
              + rates.excavation_usd_per_cy * exc + rates.steel_usd_per_lb * w_l * B)
     per_hst = (rates.concrete_usd_per_cy * t_avg_ft / CY_FT3 + rates.formwork_usd_per_sf * 2.0
                + rates.steel_usd_per_lb * w_h)
-    return {"T_ft": T, "B_ft": B, "cost0": cost0, "cost_per_hst": per_hst,
-            "emb_ft": np.broadcast_to(geo.embedment_ft, T.shape),
-            "stem_anchor_ft": (geo.footing_thickness_in - inputs.cover_toe_in) / 12.0}
+    shape = (g["toe_ft"].size,) if "shape" not in g else g["shape"]
+    out = {"T_ft": T, "B_ft": B, "cost0": cost0, "cost_per_hst": per_hst,
+           "emb_ft": geo.embedment_ft,
+           "stem_anchor_ft": (geo.footing_thickness_in - inputs.cover_toe_in) / 12.0}
+    return {k: _flat(v, shape).copy() for k, v in out.items()}
 
 
 class StabilityScreen:
@@ -648,9 +651,10 @@ def design_table(inputs: DesignInputs, grid: SizingGrid, rates: CostRates, *,
                                                                      g["stem_base_in"]))
     codes = {}
     for name in ("stem", "heel"):
-        uniq, first, inverse = np.unique(g[f"{name}_code"], return_index=True,
-                                         return_inverse=True)
-        codes[f"{name}_first"], codes[f"{name}_of"] = first, inverse
+        code = g[f"{name}_code"]  # dense: 0 .. number of pairs - 1
+        first = np.zeros(int(code.max()) + 1, int)
+        first[code[::-1]] = np.arange(code.size)[::-1]  # the first geometry of each pair
+        codes[f"{name}_first"], codes[f"{name}_of"] = first, code
     pre = precompute(g, inputs, rates, embedment_ft)
     if footing_width_max_ft is not None:
         alive &= pre["B_ft"] <= footing_width_max_ft + 1e-9
