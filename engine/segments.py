@@ -92,6 +92,23 @@ def _ceil_to(x, step):
     return np.where(out < x, np.round(out + step, 9), out)
 
 
+def _recurse_flat(value, back, ii, pen, first, cost, start: int, block: int) -> None:
+    """The recursion with one footing level (``value[j, k]``, ``back[j, k]`` = k' of the
+    previous segment) for the end stations ``start ..`` of a prepared chunk, in place.
+
+    ``first`` is 0 where the segment starts the run (no predecessor) and inf elsewhere;
+    ``pen`` the step penalty (inf where the step is too high); ``cost`` the segment costs.
+    """
+    n_c = ii.shape[0]
+    for b0 in range(0, n_c, block):
+        b1 = min(b0 + block, n_c)
+        tot = value[ii[b0:b1]] + pen[b0:b1]  # [b, k, k']
+        best = tot.argmin(axis=-1)
+        bv = np.take_along_axis(tot, best[..., None], axis=-1)[..., 0]
+        value[start + b0:start + b1, 1:] = cost[b0:b1] + np.minimum(bv, first[b0:b1])
+        back[start + b0:start + b1, 1:] = best
+
+
 def window_extremes(values: np.ndarray, kmax: int, fn) -> np.ndarray:
     """``out[j, k] = fn(values[j-k .. j])`` for k = 0..kmax (NaN where j-k < 0)."""
     n = values.size
@@ -184,6 +201,11 @@ def plan_segments(
         pen = np.where(diff <= step_max, rules.step_cost_usd * stepped, np.inf)
         first = (ii == 0)[..., None]
         cost_c = np.where(valid[..., None], seg_cost[jj, kk], np.inf)
+        if M == 1:  # one footing level per segment: the same recursion on flat arrays
+            back[jc, :, 0, 1] = 0
+            _recurse_flat(value[:, :, 0], back[:, :, 0, 0], ii, pen[:, :, 0, :, 0],
+                          np.where(first[..., 0], 0.0, np.inf), cost_c[..., 0], C, block)
+            continue
         for b0 in range(0, jc.size, block):  # the recursion, a block of stations at a time
             sl = slice(b0, b0 + block)
             i_b = ii[sl]
