@@ -63,6 +63,14 @@ def main(argv=None) -> int:
     rates = CostRates()
     grid = SizingGrid.from_table({})
 
+    # warm-up (imports and first calls), not timed
+    tiny = SizingGrid.from_table({"toe_max_ft": 1.0, "heel_max_ft": 2.0,
+                                  "footing_thickness_max_in": 14.0, "stem_max_in": 9.0})
+    design_table(inputs, tiny, rates, max_height_ft=2.0, increment_ft=1.0, embedment_ft=2.0,
+                 freeboard_ft=crit["freeboard_ft"])
+    plan_segments(walls[0][0][:50], walls[0][1][:50], walls[0][2][:50], segment_rules(crit, rates),
+                  lambda h: np.full(np.shape(h), 100.0))
+
     # sizing: the design table for the heights the site needs, then every station's look-up
     t0 = time.perf_counter()
     from wallsched.profile.sampling import WallStations
