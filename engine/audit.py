@@ -26,9 +26,9 @@ from typing import NamedTuple
 
 from .bars import A615, parse_bars
 
-E_STEEL = 29.0e6
-STRAIN_CU = 0.003
-UP_FRACTIONS = (0.25, 0.5, 0.75)
+E_STEEL = 29.0e6  # psi, ACI 318-19 20.2.2.2
+STRAIN_CU = 0.003  # ACI 318-19 22.2.2.1
+UP_FRACTIONS = (0.25, 0.5, 0.75)  # sections up a tapered stem, ACI 318-19 13.3.6.3 (from memory)
 
 
 class AuditRow(NamedTuple):
