@@ -287,6 +287,20 @@ def _toe_load(x_bar, V, B, L):
     return force, moment
 
 
+def _footing_audit(rows, name, mu, vu, size, sp, cover, T_in, fc, fy, i):
+    """Flexure, shear, minimum steel (0.0018 Ag, 7.6.1.1) and spacing (3h, 18 in, 7.7.2.3)
+    of a footing cantilever into ``rows``; returns (d, phi Mn, phi Vn)."""
+    d = T_in - cover - A615[size][0] / 2
+    As = A615[size][1] * 12 / sp
+    pmn, _ = _whitney_strength(As, d, fc, fy)
+    pvn = _shear_strength(As, d, fc, i.footing_shear_size_effect)
+    rows[f"{name}_flexure"] = AuditRow(mu, pmn, mu <= pmn)
+    rows[f"{name}_shear"] = AuditRow(vu, pvn, vu <= pvn)
+    rows[f"{name}_min_steel"] = AuditRow(0.0018 * 12 * T_in, As, As >= 0.0018 * 12 * T_in)
+    rows[f"{name}_spacing"] = AuditRow(sp, min(3 * T_in, 18.0), sp <= min(3 * T_in, 18.0))
+    return d, pmn, pvn
+
+
 def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, object]):
     """The checks of one section and its headline values, independently of the engine.
 
@@ -608,14 +622,8 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
     else:
         w_heel = 1.2 * (gam * hs + gc * T) + 1.6 * q
         mu_h, vu_h = w_heel * heel ** 2 / 2, w_heel * heel
-    d_h = T_in - _cover(h_size, i.cover_heel_in) - A615[h_size][0] / 2
-    As_h = A615[h_size][1] * 12 / h_sp
-    pmn_h, _ = _whitney_strength(As_h, d_h, fc, fy)
-    pvn_h = _shear_strength(As_h, d_h, fc, i.footing_shear_size_effect)
-    rows["heel_flexure"] = AuditRow(mu_h, pmn_h, mu_h <= pmn_h)
-    rows["heel_shear"] = AuditRow(vu_h, pvn_h, vu_h <= pvn_h)
-    rows["heel_min_steel"] = AuditRow(0.0018 * 12 * T_in, As_h, As_h >= 0.0018 * 12 * T_in)
-    rows["heel_spacing"] = AuditRow(h_sp, min(3 * T_in, 18.0), h_sp <= min(3 * T_in, 18.0))
+    d_h, pmn_h, pvn_h = _footing_audit(rows, "heel", mu_h, vu_h, h_size, h_sp,
+                                       _cover(h_size, i.cover_heel_in), T_in, fc, fy, i)
 
     # ---- toe: 1.6 x service bearing pressure - 0.9 x weight over the toe, at the front face
     t_size, t_sp = _bar(bars["toe"])
@@ -632,14 +640,8 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
         vu_t = 1.6 * f_up - 0.9 * w_toe * toe
     else:
         mu_t = vu_t = math.nan
-    d_t = T_in - _cover(t_size, i.cover_toe_in) - A615[t_size][0] / 2
-    As_t = A615[t_size][1] * 12 / t_sp
-    pmn_t, _ = _whitney_strength(As_t, d_t, fc, fy)
-    pvn_t = _shear_strength(As_t, d_t, fc, i.footing_shear_size_effect)
-    rows["toe_flexure"] = AuditRow(mu_t, pmn_t, mu_t <= pmn_t)
-    rows["toe_shear"] = AuditRow(vu_t, pvn_t, vu_t <= pvn_t)
-    rows["toe_min_steel"] = AuditRow(0.0018 * 12 * T_in, As_t, As_t >= 0.0018 * 12 * T_in)
-    rows["toe_spacing"] = AuditRow(t_sp, min(3 * T_in, 18.0), t_sp <= min(3 * T_in, 18.0))
+    d_t, pmn_t, pvn_t = _footing_audit(rows, "toe", mu_t, vu_t, t_size, t_sp,
+                                       _cover(t_size, i.cover_toe_in), T_in, fc, fy, i)
     rows["toe_depth"] = AuditRow(6.0, d_t, d_t >= 6.0)
 
     hz = _bar(bars.get("horizontal"))

@@ -252,6 +252,24 @@ def _val(a, shape, index):
     return x if math.isfinite(x) else None
 
 
+def _footing_rows(name, face, mat, m, inputs, valid):
+    """Flexure, shear, minimum steel and spacing of a footing cantilever (heel or toe)."""
+    aci = "ACI 318-19"
+    shear = f"{aci} Table 22.5.5.1(c), " + ("lambda_s applied" if inputs.footing_shear_size_effect
+                                           else "lambda_s neglected per 13.2.6.2")
+    title = name.capitalize()
+    return (
+        _row(f"{name}_flexure", f"{title} flexure at {face}", "lb-ft",
+             f"{aci} 22.2, Table 21.2.2", m.mu_lbft, m.phi_mn_lbft, valid=valid),
+        _row(f"{name}_shear", f"{title} shear at {face}", "lb", shear, m.vu_lb, m.phi_vn_lb,
+             valid=valid),
+        _row(f"{name}_min_steel", f"{title} minimum steel ({mat})", "in2/ft",
+             f"{aci} 7.6.1.1, 13.3.2.1", m.as_min_in2, m.as_in2, valid=valid),
+        _row(f"{name}_spacing", f"{title} bar spacing", "in", f"{aci} 7.7.2.3", m.spacing_in,
+             m.s_max_in, valid=valid),
+    )
+
+
 def check_section(geom: SectionGeometry, inputs: DesignInputs, bars: Reinforcement, *,
                   pressure: EarthPressure | None = None) -> SectionChecks:
     """Every check of every section: stability, stem, heel, toe, detailing.
@@ -305,28 +323,8 @@ def check_section(geom: SectionGeometry, inputs: DesignInputs, bars: Reinforceme
              stem.spacing_in, stem.s_max_in, valid=valid),
         _row("stem_hook", "Stem bar hook development into footing", "in",
              f"{aci} 25.4.3.1, Table 25.3.1", stem.ldh_in, stem.ldh_available_in, valid=valid),
-        _row("heel_flexure", "Heel flexure at back face of stem", "lb-ft",
-             f"{aci} 22.2, Table 21.2.2", heel.mu_lbft, heel.phi_mn_lbft, valid=valid),
-        _row("heel_shear", "Heel shear at back face of stem", "lb",
-             f"{aci} Table 22.5.5.1(c), " + ("lambda_s applied" if
-                                           inputs.footing_shear_size_effect else
-                                           "lambda_s neglected per 13.2.6.2"),
-             heel.vu_lb, heel.phi_vn_lb, valid=valid),
-        _row("heel_min_steel", "Heel minimum steel (top)", "in2/ft", f"{aci} 7.6.1.1, 13.3.2.1",
-             heel.as_min_in2, heel.as_in2, valid=valid),
-        _row("heel_spacing", "Heel bar spacing", "in", f"{aci} 7.7.2.3", heel.spacing_in,
-             heel.s_max_in, valid=valid),
-        _row("toe_flexure", "Toe flexure at front face of stem", "lb-ft",
-             f"{aci} 22.2, Table 21.2.2", toe.mu_lbft, toe.phi_mn_lbft, valid=valid),
-        _row("toe_shear", "Toe shear at front face of stem", "lb",
-             f"{aci} Table 22.5.5.1(c), " + ("lambda_s applied" if
-                                           inputs.footing_shear_size_effect else
-                                           "lambda_s neglected per 13.2.6.2"),
-             toe.vu_lb, toe.phi_vn_lb, valid=valid),
-        _row("toe_min_steel", "Toe minimum steel (bottom)", "in2/ft", f"{aci} 7.6.1.1, 13.3.2.1",
-             toe.as_min_in2, toe.as_in2, valid=valid),
-        _row("toe_spacing", "Toe bar spacing", "in", f"{aci} 7.7.2.3", toe.spacing_in,
-             toe.s_max_in, valid=valid),
+        *_footing_rows("heel", "back face of stem", "top", heel, inputs, valid),
+        *_footing_rows("toe", "front face of stem", "bottom", toe, inputs, valid),
         _row("toe_depth", "Footing depth above bottom bars", "in", f"{aci} 13.3.1.2",
              TOE_MIN_DEPTH_IN, toe.d_in, valid=valid),
     ]
