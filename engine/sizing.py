@@ -21,7 +21,9 @@ over the whole grid:
    geometries are evaluated cheapest bound first, in blocks, until no bound is below the best
    full candidate found;
 3. heights are processed in increasing order, and a geometry that fails stability at one
-   height fails at every greater height (loads grow with height), so it is dropped for good.
+   height fails at every greater height (loads grow with height), so it is dropped for good;
+4. where the stability screen holds and grows with the toe, the same branch and bound runs
+   column by column (:mod:`.column_search`), over far fewer candidates.
 
 :func:`exhaustive_optimum` is the plain reference (every combination through
 :func:`~.checks.check_section`), which the tests hold the fast search to on small grids.
@@ -37,6 +39,7 @@ import numpy as np
 
 from .bars import SIZES, bar_area_in2, bar_weight_plf
 from .checks import check_section
+from .column_search import ColumnSearch
 from .model import SectionDims
 from .section import BarArrays, DesignInputs, Reinforcement, SectionGeometry
 from .stability import stability
@@ -123,29 +126,82 @@ class SizingGrid:
                                    float(t.get("bar_spacing_step_in", 1.0))),
         )
 
-    def geometries(self) -> dict[str, np.ndarray]:
-        """Every (toe, heel, footing, stem) combination, flattened, with pair codes."""
-        toe, heel, T, tb = np.meshgrid(self.toe_ft, self.heel_ft, self.footing_thickness_in,
-                                       self.stem_base_in, indexing="ij")
-        nT, nS = self.footing_thickness_in.size, self.stem_base_in.size
-        i_heel, i_T, i_S = np.meshgrid(np.arange(self.toe_ft.size), np.arange(self.heel_ft.size),
-                                       np.arange(nT), np.arange(nS), indexing="ij")[1:]
-        tt = np.full(tb.shape, self.stem_top_min_in) if self.stem_batter else tb
-        axes = {"toe_ft": self.toe_ft[:, None, None, None],
-                "heel_ft": self.heel_ft[None, :, None, None],
-                "footing_thickness_in": self.footing_thickness_in[None, None, :, None],
-                "stem_base_in": self.stem_base_in[None, None, None, :],
-                "stem_top_in": (np.full((1, 1, 1, 1), self.stem_top_min_in) if self.stem_batter
-                                else self.stem_base_in[None, None, None, :])}
-        return {"axes": axes, "shape": toe.shape,
-            "toe_ft": toe.ravel(), "heel_ft": heel.ravel(), "footing_thickness_in": T.ravel(),
-            "stem_base_in": tb.ravel(), "stem_top_in": tt.ravel(),
-            "stem_code": (i_T * nS + i_S).ravel(), "heel_code": (i_heel * nT + i_T).ravel(),
-        }
+    def geometries(self) -> Geometries:
+        """Every (toe, heel, footing, stem) combination (:class:`Geometries`)."""
+        return Geometries(self)
 
     def bar_options(self) -> BarArrays:
         size, sp = np.meshgrid(self.bar_sizes, self.bar_spacings_in, indexing="ij")
         return BarArrays(size.ravel(), sp.ravel())
+
+
+class Geometries:
+    """The grid's geometries, flattened with the toe as the slowest axis: geometry
+    ``i = toe_index * ncol + column``, a *column* being one (heel, footing, stem) combination.
+
+    Only the toe varies along a column's flat indices, so every value but the toe is held once
+    per column (``col``); :meth:`take` reads any value at flat indices, ``g[name]`` gives the
+    whole flat array (built on first use). ``axes`` are the broadcasting axes of the grid.
+    """
+
+    COLUMN_KEYS = ("heel_ft", "footing_thickness_in", "stem_base_in", "stem_top_in",
+                   "embedment_ft", "stem_code", "heel_code", "T_index")
+
+    def __init__(self, grid: SizingGrid):
+        nt, nh = grid.toe_ft.size, grid.heel_ft.size
+        nT, nS = grid.footing_thickness_in.size, grid.stem_base_in.size
+        self.shape = (nt, nh, nT, nS)
+        self.nt, self.ncol, self.size = nt, nh * nT * nS, nt * nh * nT * nS
+        self.toe_axis = np.asarray(grid.toe_ft, float)
+        i_h, i_T, i_S = (a.ravel() for a in np.meshgrid(np.arange(nh), np.arange(nT),
+                                                         np.arange(nS), indexing="ij"))
+        tb = grid.stem_base_in[i_S]
+        self.col = {
+            "heel_ft": grid.heel_ft[i_h], "footing_thickness_in": grid.footing_thickness_in[i_T],
+            "stem_base_in": tb,
+            "stem_top_in": np.full(tb.shape, grid.stem_top_min_in) if grid.stem_batter else tb,
+            "stem_code": i_T * nS + i_S, "heel_code": i_h * nT + i_T, "T_index": i_T,
+        }
+        self.axes = {"toe_ft": self.toe_axis[:, None, None, None],
+                     "heel_ft": grid.heel_ft[None, :, None, None],
+                     "footing_thickness_in": grid.footing_thickness_in[None, None, :, None],
+                     "stem_base_in": grid.stem_base_in[None, None, None, :],
+                     "stem_top_in": (np.full((1, 1, 1, 1), grid.stem_top_min_in)
+                                     if grid.stem_batter
+                                     else grid.stem_base_in[None, None, None, :])}
+        self._full: dict[str, np.ndarray] = {}
+
+    def copy(self) -> Geometries:
+        out = object.__new__(Geometries)
+        out.__dict__.update(self.__dict__)
+        out.col, out.axes, out._full = dict(self.col), dict(self.axes), {}
+        return out
+
+    def __contains__(self, name) -> bool:
+        return name == "toe_ft" or name in self.col
+
+    def column_of(self, idx):
+        return np.asarray(idx) % self.ncol
+
+    def take(self, name: str, idx):
+        """Values of ``name`` at flat indices ``idx`` (an array, an int or ``slice(None)``)."""
+        if isinstance(idx, slice):
+            return self[name][idx]
+        if name == "toe_ft":
+            return self.toe_axis[np.asarray(idx) // self.ncol]
+        return self.col[name][np.asarray(idx) % self.ncol]
+
+    def __getitem__(self, name: str) -> np.ndarray:
+        if name not in self._full:
+            self._full[name] = (np.repeat(self.toe_axis, self.ncol) if name == "toe_ft"
+                                else np.tile(self.col[name], self.nt))
+        return self._full[name]
+
+    def toe_chunks(self, n_toes: int = 4):
+        """(toe slice, flat slice) pieces covering the grid, ``n_toes`` toes at a time."""
+        for a in range(0, self.nt, n_toes):
+            b = min(a + n_toes, self.nt)
+            yield slice(a, b), slice(a * self.ncol, b * self.ncol)
 
 
 # ------------------------------------------------------------------------------ costs --
@@ -255,26 +311,26 @@ class Choice:
     cost_per_ft: float
 
 
-def with_embedment(g: dict, embedment_ft: float, footing_cover_ft: float) -> dict:
+def with_embedment(g: Geometries, embedment_ft: float, footing_cover_ft: float) -> Geometries:
     """Each geometry's embedment: at least ``embedment_ft``, and deep enough that the top of
     footing lies ``footing_cover_ft`` below the front grade (the footing stays buried)."""
-    g = dict(g)
-    g["embedment_ft"] = np.maximum(embedment_ft, g["footing_thickness_in"] / 12.0
-                                   + footing_cover_ft)
-    if "axes" in g:
-        g["axes"] = dict(g["axes"], embedment_ft=np.maximum(
-            embedment_ft, g["axes"]["footing_thickness_in"] / 12.0 + footing_cover_ft))
+    g = g.copy()
+    g.col["embedment_ft"] = np.maximum(embedment_ft, g.col["footing_thickness_in"] / 12.0
+                                       + footing_cover_ft)
+    g.axes["embedment_ft"] = np.maximum(
+        embedment_ft, g.axes["footing_thickness_in"] / 12.0 + footing_cover_ft)
     return g
 
 
-def _axes_geom(g, h, emb, fb) -> SectionGeometry:
-    """The whole grid as broadcasting axes (toe, heel, footing, stem): the engine's functions
-    then compute each term on the axes it depends on (much less work than on every element)."""
-    a = g["axes"]
+def _axes_geom(g: Geometries, h, emb, fb, toes=slice(None)) -> SectionGeometry:
+    """The grid (or the toes ``toes`` of it) as broadcasting axes (toe, heel, footing, stem):
+    the engine's functions then compute each term on the axes it depends on (much less work
+    than on every element)."""
+    a = g.axes
     return SectionGeometry(
         retained_height_ft=h, embedment_ft=a.get("embedment_ft", emb),
         footing_thickness_in=a["footing_thickness_in"], stem_top_in=a["stem_top_in"],
-        stem_base_in=a["stem_base_in"], toe_ft=a["toe_ft"], heel_ft=a["heel_ft"],
+        stem_base_in=a["stem_base_in"], toe_ft=a["toe_ft"][toes], heel_ft=a["heel_ft"],
         freeboard_ft=fb)
 
 
@@ -282,36 +338,51 @@ def _flat(x, shape) -> np.ndarray:
     return np.broadcast_to(x, shape).reshape(-1)
 
 
-def _geom(g: Mapping[str, np.ndarray], idx, h, emb, fb) -> SectionGeometry:
+def _geom(g: Geometries, idx, h, emb, fb) -> SectionGeometry:
     if "embedment_ft" in g:
-        emb = g["embedment_ft"][idx]
+        emb = g.take("embedment_ft", idx)
     return SectionGeometry(
-        retained_height_ft=h, embedment_ft=emb, footing_thickness_in=g["footing_thickness_in"][idx],
-        stem_top_in=g["stem_top_in"][idx], stem_base_in=g["stem_base_in"][idx],
-        toe_ft=g["toe_ft"][idx], heel_ft=g["heel_ft"][idx], freeboard_ft=fb)
+        retained_height_ft=h, embedment_ft=emb,
+        footing_thickness_in=g.take("footing_thickness_in", idx),
+        stem_top_in=g.take("stem_top_in", idx), stem_base_in=g.take("stem_base_in", idx),
+        toe_ft=g.take("toe_ft", idx), heel_ft=g.take("heel_ft", idx), freeboard_ft=fb)
 
 
-def precompute(g, inputs: DesignInputs, rates: CostRates, emb: float) -> dict:
+def precompute(g: Geometries, inputs: DesignInputs, rates: CostRates, emb: float) -> dict:
     """The height-independent parts of every geometry's cost: the cost is
-    ``cost0 + cost_per_hst * stem height`` plus the stem, heel and toe bars."""
-    # on the grid's broadcasting axes where it has them (each term on the axes it needs)
-    geo = _axes_geom(g, 1.0, emb, 0.0) if "axes" in g else _geom(g, slice(None), 1.0, emb, 0.0)
-    T = geo.footing_thickness_ft
-    B = geo.footing_width_ft
-    horiz, longi = fixed_bars(geo, inputs)
-    w_h = 2.0 * 12.0 / horiz.spacing_in * bar_weight_plf(horiz.size)  # lb/ft per ft of stem
-    w_l = 2.0 * 12.0 / longi.spacing_in * bar_weight_plf(longi.size)  # lb/ft per ft of width
-    t_avg_ft = (geo.stem_top_in + geo.stem_base_in) / 24.0
-    exc = B * np.maximum(geo.embedment_ft, T) / CY_FT3
-    cost0 = (rates.concrete_usd_per_cy * B * T / CY_FT3 + rates.formwork_usd_per_sf * 2.0 * T
-             + rates.excavation_usd_per_cy * exc + rates.steel_usd_per_lb * w_l * B)
-    per_hst = (rates.concrete_usd_per_cy * t_avg_ft / CY_FT3 + rates.formwork_usd_per_sf * 2.0
-               + rates.steel_usd_per_lb * w_h)
-    shape = (g["toe_ft"].size,) if "shape" not in g else g["shape"]
-    out = {"T_ft": T, "B_ft": B, "cost0": cost0, "cost_per_hst": per_hst,
-           "emb_ft": geo.embedment_ft,
+    ``cost0 + cost_per_hst * stem height`` plus the stem, heel and toe bars.
+
+    ``cost0`` and ``B_ft`` are per geometry (flat); ``T_ft``, ``cost_per_hst``, ``emb_ft`` and
+    ``stem_anchor_ft`` do not depend on the toe and are per column (index with
+    ``g.column_of``)."""
+    def parts(toes):
+        # on the grid's broadcasting axes (each term on the axes it needs)
+        geo = _axes_geom(g, 1.0, emb, 0.0, toes)
+        T = geo.footing_thickness_ft
+        B = geo.footing_width_ft
+        horiz, longi = fixed_bars(geo, inputs)
+        w_h = 2.0 * 12.0 / horiz.spacing_in * bar_weight_plf(horiz.size)  # lb/ft per ft of stem
+        w_l = 2.0 * 12.0 / longi.spacing_in * bar_weight_plf(longi.size)  # lb/ft per ft of width
+        t_avg_ft = (geo.stem_top_in + geo.stem_base_in) / 24.0
+        exc = B * np.maximum(geo.embedment_ft, T) / CY_FT3
+        cost0 = (rates.concrete_usd_per_cy * B * T / CY_FT3 + rates.formwork_usd_per_sf * 2.0 * T
+                 + rates.excavation_usd_per_cy * exc + rates.steel_usd_per_lb * w_l * B)
+        per_hst = (rates.concrete_usd_per_cy * t_avg_ft / CY_FT3
+                   + rates.formwork_usd_per_sf * 2.0 + rates.steel_usd_per_lb * w_h)
+        return geo, T, B, cost0, per_hst
+
+    col_shape = (1, *g.shape[1:])
+    geo, T, _, _, per_hst = parts(slice(0, 1))
+    out = {"T_ft": T, "cost_per_hst": per_hst, "emb_ft": geo.embedment_ft,
            "stem_anchor_ft": (geo.footing_thickness_in - inputs.cover_toe_in) / 12.0}
-    return {k: _flat(v, shape).copy() for k, v in out.items()}
+    out = {k: _flat(v, col_shape).copy() for k, v in out.items()}
+    out["cost0"], out["B_ft"] = np.empty(g.size), np.empty(g.size)
+    for toes, flat in g.toe_chunks():
+        _, _, B, cost0, _ = parts(toes)
+        n = toes.stop - toes.start
+        out["cost0"][flat] = _flat(cost0, (n, *g.shape[1:]))
+        out["B_ft"][flat] = _flat(B, (n, *g.shape[1:]))
+    return out
 
 
 class StabilityScreen:
@@ -336,30 +407,42 @@ class StabilityScreen:
         self.emb, self.fb = emb, fb
         self.p = earth_pressure(inputs)
         hs = (4.0, 12.0, 7.0)
-        n = g["toe_ft"].size
-        probe = np.unique(np.linspace(0, n - 1, min(n, 4096)).astype(int))
-        parts = []
-        for h, idx in ((hs[0], None), (hs[1], None), (hs[2], probe)):
-            if idx is None and "axes" in g:
-                w = section_weights(_axes_geom(g, h, emb, fb), inputs)
-                parts.append(tuple(_flat(x, g["shape"]) for x in (
-                    *w.dead(), w.surcharge.lb, w.surcharge.moment_lbft)))
-                continue
-            w = section_weights(_geom(g, slice(None) if idx is None else idx, h, emb, fb),
-                                inputs)
-            v, m = w.dead()
-            parts.append((v, m, w.surcharge.lb, w.surcharge.moment_lbft))
-        (va, ma, qa, qma), (vb, mb, qb, qmb), (vc, mc, qc, qmc) = parts
-        t = (hs[2] - hs[0]) / (hs[1] - hs[0])
+        d = hs[1] - hs[0]
+        n = g.size
+        self.ncol = g.ncol
+        self.v0, self.v1, self.m0, self.m1, self.vq, self.mq, self.B = (
+            np.empty(n) for _ in range(7))
+        lin = True
+        # toe by toe (a few at a time): the weights on the grid's axes, slopes and intercepts
+        for toes, flat in g.toe_chunks():
+            sh = (toes.stop - toes.start, *g.shape[1:])
+            geo_a = _axes_geom(g, hs[0], emb, fb, toes)
+            wa = section_weights(geo_a, inputs)
+            wb = section_weights(_axes_geom(g, hs[1], emb, fb, toes), inputs)
+            va, ma = (_flat(x, sh) for x in wa.dead())
+            vb, mb = (_flat(x, sh) for x in wb.dead())
+            v1, m1 = (vb - va) / d, (mb - ma) / d
+            self.v1[flat], self.m1[flat] = v1, m1
+            self.v0[flat], self.m0[flat] = va - v1 * hs[0], ma - m1 * hs[0]
+            qa, qma = _flat(wa.surcharge.lb, sh), _flat(wa.surcharge.moment_lbft, sh)
+            # the surcharge's weight does not change with the height
+            lin = lin and np.allclose(qa, _flat(wb.surcharge.lb, sh), rtol=1e-12) and \
+                np.allclose(qma, _flat(wb.surcharge.moment_lbft, sh), rtol=1e-12)
+            self.vq[flat], self.mq[flat] = qa, qma
+            self.B[flat] = _flat(geo_a.footing_width_ft, sh)
         # linearity verified at a third height on a spread of the grid
-        lin = all(np.allclose(c, (a + t * (b - a))[probe], rtol=1e-9, atol=1e-6)
-                  for a, b, c in ((va, vb, vc), (ma, mb, mc), (qa, qb, qc), (qma, qmb, qmc)))
+        probe = np.unique(np.linspace(0, n - 1, min(n, 4096)).astype(int))
+        wc = section_weights(_geom(g, probe, hs[2], emb, fb), inputs)
+        vc, mc = wc.dead()
+        lin = lin and all(np.allclose(c, x0[probe] + x1[probe] * hs[2], rtol=1e-9, atol=1e-6)
+                          for c, x0, x1 in ((vc, self.v0, self.v1), (mc, self.m0, self.m1)))
         # the thrust must not depend on the geometry (level backfill on the heel plane of
         # height H): compare two different sections at one height
         from .pressure import design_thrust
 
-        same_T = np.nonzero(g["footing_thickness_in"] == g["footing_thickness_in"][0])[0]
-        two = _geom(g, np.array([0, same_T[-1]]), 8.0, emb, fb)
+        T_index = g.col["T_index"]
+        last = int(np.nonzero(T_index == T_index[0])[0][-1]) + (g.nt - 1) * g.ncol
+        two = _geom(g, np.array([0, last]), 8.0, emb, fb)
         th = design_thrust(two, inputs, self.p)
         same = all(np.allclose(np.broadcast_to(getattr(th, k), (2,))[0],
                                np.broadcast_to(getattr(th, k), (2,))[1], rtol=1e-12)
@@ -368,18 +451,20 @@ class StabilityScreen:
         # failures that hold at every greater height can be certified only where the thrust
         # is the level-backfill one (no vertical part, convex in the height)
         self.certify = self.linear and not inputs.extended
-        d = hs[1] - hs[0]
-        self.v1, self.m1 = (vb - va) / d, (mb - ma) / d
-        self.v0, self.m0 = va - self.v1 * hs[0], ma - self.m1 * hs[0]
-        self.vq, self.mq = qa, qma
-        base = _geom(g, slice(None), 1.0, emb, fb)
-        self.B = base.footing_width_ft
-        # the embedment depends on the footing thickness alone: one value per thickness
-        T_vals, T_of = np.unique(g["footing_thickness_in"], return_inverse=True)
-        first = np.zeros(T_vals.size, int)
-        first[T_of[::-1]] = np.arange(T_of.size)[::-1]
-        e_all = np.broadcast_to(base.embedment_ft, self.B.shape)
-        self.e_vals, self.e_of = e_all[first], T_of
+        # the embedment depends on the footing thickness alone: one value per thickness,
+        # and one thickness per column
+        n_T = int(T_index.max()) + 1
+        first = np.zeros(n_T, int)
+        first[T_index[::-1]] = np.arange(T_index.size)[::-1]
+        self.e_vals = np.broadcast_to(g.take("embedment_ft", first) if "embedment_ft" in g
+                                      else np.full(n_T, emb), (n_T,))
+        self.e_col = T_index
+
+    def e_of(self, idx):
+        """The embedment value (index into ``e_vals``) of the geometries ``idx``."""
+        if isinstance(idx, slice):
+            idx = np.arange(self.B.size)[idx]
+        return self.e_col[np.asarray(idx) % self.ncol]
 
     def _forces(self, h: float):
         """Per embedment value: overturning moment, driving force, vertical thrust, passive."""
@@ -402,7 +487,7 @@ class StabilityScreen:
             return np.ones(self.B[idx].shape, bool)
         i = self.inputs
         m_o, h_d, v_th, pp = self._forces(h)
-        e_ix = self.e_of[idx]
+        e_ix = self.e_of(idx)
         m_o, h_d, v_th, pp = m_o[e_ix], h_d[e_ix], v_th[e_ix], pp[e_ix]
         B = self.B[idx]
         v = self.v0[idx] + self.v1[idx] * h + v_th
@@ -434,7 +519,7 @@ class StabilityScreen:
         i = self.inputs
         m_o, h_d, _, pp = self._forces(h)
         m_o0, h_d0, _, _ = self._forces(h - self.DH)
-        e_ix = self.e_of[idx]
+        e_ix = self.e_of(idx)
         sm = (m_o - m_o0)[e_ix] / self.DH
         sh = (h_d - h_d0)[e_ix] / self.DH
         v = self.v0[idx] + self.v1[idx] * h
@@ -450,10 +535,11 @@ class StabilityScreen:
 
 def toe_capacity_table(g, inputs: DesignInputs, bars: BarArrays) -> dict:
     """Toe capacities of every (footing thickness, bar option): they do not depend on the
-    loads, so the toe check of a geometry is its demand against one row of this table."""
+    loads, so the toe check of a geometry is its demand against one row of this table.
+    ``T_of`` is the row of each column (index with ``g.column_of``)."""
     from .strength import _footing_member, cover_in
 
-    T_vals, T_of = np.unique(g["footing_thickness_in"], return_inverse=True)
+    T_vals, T_of = np.unique(g.col["footing_thickness_in"], return_inverse=True)
     geo = SectionGeometry(retained_height_ft=1.0, embedment_ft=1.0,
                           footing_thickness_in=T_vals[:, None], stem_top_in=8.0,
                           stem_base_in=8.0, toe_ft=1.0, heel_ft=1.0)
@@ -502,8 +588,8 @@ def _search_height(g, codes, pre, toe_tab, screen, h, emb, fb, inputs, rates, ba
     bars_db_ft = bars.diameter_in  # 12 db hook extension, in ft (Table 25.3.1)
     stem_pick = _pair_table(g, codes["stem_first"], h, emb, fb, inputs, bars, "stem")
     heel_pick = _pair_table(g, codes["heel_first"], h, emb, fb, inputs, bars, "heel")
-    s_all = stem_pick[codes["stem_of"]]
-    h_all = heel_pick[codes["heel_of"]]
+    s_all = np.tile(stem_pick[codes["stem_of"]], g.nt)
+    h_all = np.tile(heel_pick[codes["heel_of"]], g.nt)
     keep = (s_all >= 0) & (h_all >= 0)
     if alive is not None:
         keep &= alive
@@ -513,10 +599,11 @@ def _search_height(g, codes, pre, toe_tab, screen, h, emb, fb, inputs, rates, ba
         return None
     screened = np.zeros(cand.size, bool)  # the stability screen is applied lazily
     # cost of each candidate with its stem and heel bars (linear in the stem height)
-    hst = h + pre["emb_ft"][cand] + fb - pre["T_ft"][cand]
+    c_of = g.column_of(cand)
+    hst = h + pre["emb_ft"][c_of] + fb - pre["T_ft"][c_of]
     B = pre["B_ft"][cand]
-    sw = bars_w[s_b] * (hst + pre["stem_anchor_ft"][cand] + bars_db_ft[s_b])
-    base = (pre["cost0"][cand] + pre["cost_per_hst"][cand] * hst
+    sw = bars_w[s_b] * (hst + pre["stem_anchor_ft"][c_of] + bars_db_ft[s_b])
+    base = (pre["cost0"][cand] + pre["cost_per_hst"][c_of] * hst
             + rates.steel_usd_per_lb * (sw + bars_w[h_b] * (B - 0.5)))
     # lower bound of a full candidate: the lightest toe option there is
     w_min = float(np.min(12.0 / bars.spacing_in * bar_weight_plf(bars.size)))
@@ -549,7 +636,7 @@ def _search_height(g, codes, pre, toe_tab, screen, h, emb, fb, inputs, rates, ba
         if not ok.any():
             continue
         tr = toe_strength(sub, inputs, one_bar, st)  # demands; capacities from the table
-        ti = toe_tab["T_of"][cand[idx]]
+        ti = toe_tab["T_of"][c_of[idx]]
         t_ok = (_le(tr.mu_lbft, toe_tab["phi_mn"][ti]) & _le(tr.vu_lb, toe_tab["phi_vn"][ti])
                 & toe_tab["fixed_ok"][ti] & ok[:, None])
         t_cost = np.where(t_ok, bars_w[None, :] * (B[idx] - 0.5)[:, None], np.inf)
@@ -577,9 +664,10 @@ def section_from(g, gi, bars: BarArrays, si, hi, ti, inputs, h, emb, fb) -> Sect
         return BarSpec(int(b.size[i]), float(b.spacing_in[i]))
 
     return SectionDims(
-        stem_top_in=float(g["stem_top_in"][gi]), stem_base_in=float(g["stem_base_in"][gi]),
-        footing_thickness_in=float(g["footing_thickness_in"][gi]),
-        toe_ft=float(g["toe_ft"][gi]), heel_ft=float(g["heel_ft"][gi]),
+        stem_top_in=float(g.take("stem_top_in", gi)),
+        stem_base_in=float(g.take("stem_base_in", gi)),
+        footing_thickness_in=float(g.take("footing_thickness_in", gi)),
+        toe_ft=float(g.take("toe_ft", gi)), heel_ft=float(g.take("heel_ft", gi)),
         batter_face=inputs.batter_face,
         stem_bars=spec(bars, si), heel_bars=spec(bars, hi), toe_bars=spec(bars, ti),
         horizontal_bars=BarSpec(int(horiz.size[0]), float(horiz.spacing_in[0])),
@@ -641,29 +729,37 @@ def design_table(inputs: DesignInputs, grid: SizingGrid, rates: CostRates, *,
     bars = grid.bar_options()
     screen = StabilityScreen(g, inputs, embedment_ft, freeboard_ft)
     # not yet certified to fail at greater heights, and within the room given for the footing
-    alive = np.ones(g["toe_ft"].size, bool)
+    alive = np.ones(g.size, bool)
     toe_tab = toe_capacity_table(g, inputs, bars)
     if (inputs.backslope_deg or 0.0) != 0.0 and grid.stem_batter:
         # on a slope the ground over the heel starts where the battered back face meets the
         # retained grade, so the heel's load depends on the stem too: pair it with the stem
         n_s = grid.stem_base_in.size
-        g = dict(g, heel_code=g["heel_code"] * n_s + np.searchsorted(grid.stem_base_in,
-                                                                     g["stem_base_in"]))
+        g = g.copy()
+        g.col["heel_code"] = g.col["heel_code"] * n_s + np.searchsorted(grid.stem_base_in,
+                                                                        g.col["stem_base_in"])
     codes = {}
     for name in ("stem", "heel"):
-        code = g[f"{name}_code"]  # dense: 0 .. number of pairs - 1
+        code = g.col[f"{name}_code"]  # per column, dense: 0 .. number of pairs - 1
         first = np.zeros(int(code.max()) + 1, int)
-        first[code[::-1]] = np.arange(code.size)[::-1]  # the first geometry of each pair
+        # the first column of each pair (toe index 0: its flat index is the column's)
+        first[code[::-1]] = np.arange(code.size)[::-1]
         codes[f"{name}_first"], codes[f"{name}_of"] = first, code
     pre = precompute(g, inputs, rates, embedment_ft)
     if footing_width_max_ft is not None:
         alive &= pre["B_ft"] <= footing_width_max_ft + 1e-9
+    columns = None
+    if ColumnSearch.applies(g, grid, screen, pre):
+        columns = ColumnSearch(g, grid, codes, pre, toe_tab, screen, inputs, rates, bars,
+                               embedment_ft, freeboard_ft, footing_width_max_ft)
     choices = []
     k_max = int(math.ceil(max_height_ft / increment_ft - 1e-9))
     for k in range(1, k_max + 1):
         h = k * increment_ft
-        found = _search_height(g, codes, pre, toe_tab, screen, h, embedment_ft, freeboard_ft,
-                               inputs, rates, bars, alive)
+        found = NotImplemented if columns is None else columns.search(h)
+        if found is NotImplemented:
+            found = _search_height(g, codes, pre, toe_tab, screen, h, embedment_ft,
+                                   freeboard_ft, inputs, rates, bars, alive)
         if found is None:
             choices.append(Choice(h, None, math.nan))
             continue
@@ -693,7 +789,7 @@ def exhaustive_optimum(inputs: DesignInputs, grid: SizingGrid, rates: CostRates,
     """
     g = with_embedment(grid.geometries(), emb, footing_cover_ft)
     bars = grid.bar_options()
-    n_g, n_b = g["toe_ft"].size, bars.size.size
+    n_g, n_b = g.size, bars.size.size
     gi, si, hi, ti = np.meshgrid(np.arange(n_g), np.arange(n_b), np.arange(n_b), np.arange(n_b),
                                  indexing="ij")
     gi, si, hi, ti = gi.ravel(), si.ravel(), hi.ravel(), ti.ravel()

@@ -1,12 +1,14 @@
 """Least-cost sizing: the fast search against a plain exhaustive search on small grids."""
 
 import math
+from unittest import mock
 
 import numpy as np
 import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 from wallsched.engine.checks import check_section
+from wallsched.engine.column_search import ColumnSearch
 from wallsched.engine.section import DesignInputs
 from wallsched.engine.sizing import (
     CostRates,
@@ -123,3 +125,28 @@ def test_footing_width_limit_is_honoured_and_exact():
         assert (ref is None) == (c.section is None)
         if ref is not None:
             assert c.cost_per_ft == pytest.approx(ref_cost, rel=1e-9)
+
+
+@settings(max_examples=8, deadline=None)
+@given(soils, st.booleans(), st.sampled_from([None, 7.5]))
+def test_column_search_equals_the_whole_grid_search(soil, resists, width):
+    """The column search (taken for level backfill) against the branch and bound over the
+    whole grid, on a mid-size grid: the same least cost at every height, nothing held where
+    nothing holds."""
+    grid = SizingGrid.from_table({"toe_max_ft": 4.0, "heel_max_ft": 7.0,
+                                  "footing_thickness_max_in": 24.0, "stem_max_in": 14.0,
+                                  "bar_sizes": "4-7"})
+    inputs = DesignInputs(**soil, surcharge_resists=resists)
+    kw = dict(max_height_ft=11.0, increment_ft=1.0, embedment_ft=soil["min_embedment_ft"],
+              freeboard_ft=0.5, footing_width_max_ft=width)
+    with mock.patch.object(ColumnSearch, "search", autospec=True,
+                           side_effect=ColumnSearch.search) as spy:
+        fast = design_table(inputs, grid, CostRates(), **kw)
+    assert spy.call_count == 11  # the column search ran at every height
+    with mock.patch.object(ColumnSearch, "applies", return_value=False):
+        whole = design_table(inputs, grid, CostRates(), **kw)
+    assert sum(c.section is not None for c in whole.choices) >= 3
+    for a, b in zip(fast.choices, whole.choices, strict=True):
+        assert (a.section is None) == (b.section is None)
+        if b.section is not None:
+            assert a.cost_per_ft == pytest.approx(b.cost_per_ft, rel=1e-12)

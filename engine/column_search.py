@@ -1,0 +1,322 @@
+"""The exact least-cost search at one height, column by column (the fast path of sizing).
+
+A *column* of the grid is one (heel, footing thickness, stem) combination with every toe
+length. Where the stability screen's weights are linear in the height and, like the
+moments they give about the toe, never decrease as the toe grows (verified on the whole
+grid, not assumed), the overturning and sliding margins of the screen grow with the toe: the
+toes of a column that pass them are the ones from a least toe up, found by bisection. The
+cost lower bound of a candidate is linear and increasing in its toe, so each column is a
+sorted list of candidates and the search is a merge of the columns by lower bound, in
+blocks, until no column's next bound is below the best full candidate found: branch and
+bound as in :mod:`.sizing`, over far fewer candidates.
+
+The lower bound of a candidate uses its heel bars (cheapest passing, exact: the heel demand
+against a capacity table per footing thickness), its stem bars (exact once a column of that
+stem pair has been evaluated; before, the cheapest bars that pass the stem's base flexure,
+minimum steel, spacing and hook length, a necessary part of the stem check) and the
+lightest toe bars there are. Every candidate kept is checked by the engine itself
+(:func:`~.stability.stability`, the stem and heel pair tables, the toe demands), so the
+screen and the bounds only decide the order and what may be skipped.
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+
+from .bars import bar_weight_plf
+from .section import BarArrays, SectionGeometry
+from .stability import stability
+from .strength import (
+    heel_strength,
+    max_flexural_spacing_in,
+    min_flexural_steel_in2,
+    stem_strength,
+    toe_strength,
+)
+
+COLUMNS_PER_BLOCK = 1024
+TOES_PER_COLUMN = 4
+
+
+def _le(a, b):
+    with np.errstate(invalid="ignore", divide="ignore"):
+        return np.asarray(a <= b * (1.0 + 1e-12))
+
+
+class ColumnSearch:
+    """The per-design-table set-up of the column search; :meth:`search` runs one height.
+
+    ``g``, ``codes``, ``pre``, ``toe_tab`` and ``screen`` are the structures of
+    :func:`~.sizing.design_table` (flat geometries with the toe as the slowest axis).
+    """
+
+    def __init__(self, g, grid, codes, pre, toe_tab, screen, inputs, rates, bars, emb, fb,
+                 width_max_ft=None):
+        from . import sizing as sz
+
+        self.sz = sz
+        self.g, self.codes, self.pre, self.toe_tab, self.screen = g, codes, pre, toe_tab, screen
+        self.inputs, self.rates, self.bars, self.emb, self.fb = inputs, rates, bars, emb, fb
+        self.nt, self.ncol = g.nt, g.ncol
+        nc = self.ncol
+        self.stem_of, self.heel_of = codes["stem_of"], codes["heel_of"]  # per column
+        self.bars_w = 12.0 / bars.spacing_in * bar_weight_plf(bars.size)  # lb/ft per ft
+        self.w_min = float(np.min(self.bars_w))
+        # the room for the footing: the toes of each column whose width fits
+        self.toe_hi = np.full(nc, self.nt, np.int64)
+        if width_max_ft is not None:
+            fits = (pre["B_ft"] <= width_max_ft + 1e-9).reshape(self.nt, nc)
+            # widths grow with the toe: the fitting toes are a leading run of each column
+            self.toe_hi = fits.sum(axis=0).astype(np.int64)
+        self._heel_capacity()
+        self._stem_capacity()
+        self._hint = None  # the least toes of the last height searched (a starting guess)
+
+    @staticmethod
+    def applies(g, grid, screen, pre) -> bool:
+        """True where the screen is linear and its overturning and sliding margins, and the
+        cost without bars, never decrease as the toe grows (checked on the whole grid)."""
+        if not screen.linear or np.any(np.diff(grid.toe_ft) <= 0):
+            return False
+        nt = grid.toe_ft.size
+        arrs = [screen.v0, screen.v1, screen.m0, screen.m1, screen.B, pre["cost0"]]
+        if screen.inputs.surcharge_resists:
+            arrs += [screen.vq, screen.mq]
+        for x in arrs:
+            x = np.broadcast_to(x, (g.size,)).reshape(nt, -1)
+            if nt > 1:
+                tol = 1e-9 * max(1.0, float(np.max(np.abs(x))))
+                if np.min(np.diff(x, axis=0)) < -tol:
+                    return False
+        return True
+
+    # ------------------------------------------------------------------- set-up tables --
+    def _heel_capacity(self):
+        """Heel capacities per (footing thickness, bar option); the demand does not depend
+        on the bars, so a heel pair's cheapest bars are a look-up against this table."""
+        g, inp, bars = self.g, self.inputs, self.bars
+        T_vals = np.unique(g.col["footing_thickness_in"])
+        geo = SectionGeometry(retained_height_ft=1.0, embedment_ft=1.0,
+                              footing_thickness_in=T_vals[:, None], stem_top_in=8.0,
+                              stem_base_in=8.0, toe_ft=1.0, heel_ft=1.0)
+        r = heel_strength(geo, inp, BarArrays(bars.size[None, :], bars.spacing_in[None, :]))
+        self.heel_T = T_vals
+        self.heel_phi_mn = np.broadcast_to(r.phi_mn_lbft, (T_vals.size, bars.size.size))
+        self.heel_phi_vn = np.broadcast_to(r.phi_vn_lb, (T_vals.size, bars.size.size))
+        self.heel_fixed = np.broadcast_to(
+            _le(r.as_min_in2, r.as_in2) & _le(r.spacing_in, r.s_max_in),
+            (T_vals.size, bars.size.size))
+        first = self.codes["heel_first"]
+        self.heel_T_of = np.searchsorted(T_vals, g.col["footing_thickness_in"][first])
+
+    def _stem_capacity(self):
+        """Necessary parts of the stem check per (stem pair, bar option) that do not depend
+        on the height: minimum steel, spacing, the hook's room; and the base capacity."""
+        g, inp, bars = self.g, self.inputs, self.bars
+        first = self.codes["stem_first"]
+        geo = SectionGeometry(retained_height_ft=4.0, embedment_ft=self.emb,
+                              footing_thickness_in=g.col["footing_thickness_in"][first][:, None],
+                              stem_top_in=g.col["stem_top_in"][first][:, None],
+                              stem_base_in=g.col["stem_base_in"][first][:, None],
+                              toe_ft=1.0, heel_ft=1.0, freeboard_ft=self.fb)
+        bb = BarArrays(bars.size[None, :], bars.spacing_in[None, :])
+        r = stem_strength(geo, inp, bb)
+        tb = geo.stem_base_in
+        shape = (first.size, bars.size.size)
+        fixed = (_le(min_flexural_steel_in2(tb), r.as_in2)
+                 & _le(bars.spacing_in[None, :], max_flexural_spacing_in(tb))
+                 & _le(r.ldh_in, r.ldh_available_in))
+        self.stem_fixed = np.broadcast_to(fixed, shape)
+        self.stem_phi_mn = np.broadcast_to(r.phi_mn_lbft, shape)
+
+    # ------------------------------------------------------------------------ one height --
+    def _pair_geoms(self, first, h):
+        return self.sz._column(self.sz._geom(self.g, first, h, self.emb, self.fb))
+
+    def _heel_picks(self, h):
+        """Cheapest passing heel bars per heel pair (-1 where none), exact."""
+        one = BarArrays(self.bars.size[:1], self.bars.spacing_in[:1])
+        r = heel_strength(self._pair_geoms(self.codes["heel_first"], h), self.inputs, one)
+        ti = self.heel_T_of
+        ok = (_le(r.mu_lbft, self.heel_phi_mn[ti]) & _le(r.vu_lb, self.heel_phi_vn[ti])
+              & self.heel_fixed[ti])
+        return _cheapest(ok, self.bars_w[None, :])
+
+    def _stem_bounds(self, h):
+        """Per stem pair: the least stem steel (lb per ft of wall) any passing bars can have,
+        from the necessary part of the check; inf where no bars can pass."""
+        first = self.codes["stem_first"]
+        geo = self._pair_geoms(first, h)
+        one = BarArrays(self.bars.size[:1], self.bars.spacing_in[:1])
+        mu = stem_strength(geo, self.inputs, one).mu_lbft  # the base moment: no bar in it
+        ok = self.stem_fixed & _le(mu, self.stem_phi_mn)
+        pre = self.pre
+        length = (h + pre["emb_ft"][first] + self.fb - pre["T_ft"][first]
+                  + pre["stem_anchor_ft"][first])
+        lb = self.bars_w[None, :] * (length[:, None] + self.bars.diameter_in[None, :])
+        return np.min(np.where(ok, lb, np.inf), axis=1)
+
+    def _ot_sliding(self, h, forces, idx):
+        """The screen's overturning and sliding parts (monotone in the toe) at ``idx``."""
+        s, i = self.screen, self.inputs
+        m_o, h_d, v_th, pp = forces
+        e = s.e_col[idx % self.ncol]
+        v = s.v0[idx] + s.v1[idx] * h + v_th[e]
+        m = s.m0[idx] + s.m1[idx] * h + v_th[e] * s.B[idx]
+        if i.surcharge_resists:
+            v, m = v + s.vq[idx], m + s.mq[idx]
+        k = 1.0 - s.SLACK
+        return (m >= i.fs_overturning * m_o[e] * k) & (
+            i.friction_coefficient * v + pp[e] >= i.fs_sliding * h_d[e] * k)
+
+    def _least_toes(self, h, forces, hint=None):
+        """Per column, the least toe index passing overturning and sliding (``toe_hi`` where
+        none does): checked first at ``hint`` and next to it (the least toes of the height
+        before, mostly unchanged), then by bisection where the hint is off."""
+        nc = self.ncol
+        lo = np.zeros(nc, np.int64)
+        hi = self.toe_hi.copy()
+        if hint is not None:
+            c = np.nonzero(hint < hi)[0]
+            at = hint[c]
+            ok = self._ot_sliding(h, forces, at * nc + c)
+            # passing at the hint: the answer is the hint unless the toe below passes too
+            hi[c[ok]] = at[ok]
+            below = c[ok & (at > 0)]
+            if below.size:
+                ok_b = self._ot_sliding(h, forces, (hi[below] - 1) * nc + below)
+                lo[below[~ok_b]] = hi[below[~ok_b]]
+                hi[below[ok_b]] -= 1
+            # failing at the hint: the answer is above it
+            lo[c[~ok]] = at[~ok] + 1
+        act = np.nonzero(lo < hi)[0]
+        while act.size:
+            mid = (lo[act] + hi[act]) // 2
+            ok = self._ot_sliding(h, forces, mid * nc + act)
+            hi[act[ok]] = mid[ok]
+            lo[act[~ok]] = mid[~ok] + 1
+            act = act[lo[act] < hi[act]]
+        return lo
+
+    def search(self, h):
+        """Exact optimum at height ``h``: (geometry, stem bars, heel bars, toe bars, cost),
+        or None where nothing on the grid holds."""
+        sz, pre, g = self.sz, self.pre, self.g
+        inputs, rates, bars, emb, fb = self.inputs, self.rates, self.bars, self.emb, self.fb
+        nc = self.ncol
+        cs = rates.steel_usd_per_lb
+        forces = self.screen._forces(h)
+        if np.any(forces[2] < 0):  # an upward thrust component: the moments may not grow
+            return NotImplemented
+        heel_pick = self._heel_picks(h)
+        heel_w = np.where(heel_pick >= 0, self.bars_w[np.maximum(heel_pick, 0)], np.inf)
+        stem_lb = self._stem_bounds(h)  # replaced by the exact value once a pair is known
+        stem_pick = np.full(stem_lb.size, -2, np.int64)  # -2: not yet evaluated
+        ptr = self._least_toes(h, forces, self._hint)
+        self._hint = ptr.copy()
+        live = ((ptr < self.toe_hi) & np.isfinite(heel_w[self.heel_of])
+                & np.isfinite(stem_lb[self.stem_of]))
+        cols = np.nonzero(live)[0]
+        bars_db = bars.diameter_in
+        one_bar = BarArrays(bars.size[:1], bars.spacing_in[:1])
+        best_cost, best = math.inf, None
+        while cols.size:
+            gi = ptr[cols] * nc + cols
+            lower = self._lower(gi, cols, h, stem_lb, heel_w)
+            keep = lower < best_cost
+            cols, gi, lower = cols[keep], gi[keep], lower[keep]
+            if cols.size == 0:
+                break
+            if cols.size > COLUMNS_PER_BLOCK:
+                part = np.argpartition(lower, COLUMNS_PER_BLOCK)[:COLUMNS_PER_BLOCK]
+                take = np.zeros(cols.size, bool)
+                take[part] = True
+                now, rest = cols[take], cols[~take]
+            else:
+                now, rest = cols, cols[:0]
+            # the next toes of the columns taken
+            start = ptr[now]
+            steps = np.arange(TOES_PER_COLUMN)
+            toe_i = start[:, None] + steps[None, :]
+            ok_t = toe_i < self.toe_hi[now][:, None]
+            cand = (toe_i * nc + now[:, None])[ok_t]
+            ccol = np.broadcast_to(now[:, None], toe_i.shape)[ok_t]
+            ptr[now] = start + TOES_PER_COLUMN
+            now = now[ptr[now] < self.toe_hi[now]]
+            cols = np.concatenate([rest, now])
+            # exact stem bars of the pairs met for the first time
+            pairs = self.stem_of[ccol]
+            new = np.unique(pairs[stem_pick[pairs] == -2])
+            if new.size:
+                pk = sz._pair_table(g, self.codes["stem_first"][new], h, emb, fb, inputs, bars,
+                                    "stem")
+                stem_pick[new] = pk
+                first = self.codes["stem_first"][new]
+                length = (h + pre["emb_ft"][first] + fb - pre["T_ft"][first]
+                          + pre["stem_anchor_ft"][first])
+                safe = np.maximum(pk, 0)
+                stem_lb[new] = np.where(pk >= 0, self.bars_w[safe] * (length + bars_db[safe]),
+                                        np.inf)
+            s_b = stem_pick[pairs]
+            h_b = heel_pick[self.heel_of[ccol]]
+            fine = (s_b >= 0) & (h_b >= 0)
+            cand, s_b, h_b = cand[fine], s_b[fine], h_b[fine]
+            if cand.size == 0:
+                continue
+            c_of = cand % nc
+            hst = h + pre["emb_ft"][c_of] + fb - pre["T_ft"][c_of]
+            B = pre["B_ft"][cand]
+            sw = self.bars_w[s_b] * (hst + pre["stem_anchor_ft"][c_of] + bars_db[s_b])
+            base = (pre["cost0"][cand] + pre["cost_per_hst"][c_of] * hst
+                    + cs * (sw + self.bars_w[h_b] * (B - 0.5)))
+            low = base + cs * self.w_min * (B - 0.5)
+            fine = low < best_cost
+            if not fine.all():
+                cand, s_b, h_b, base, B = (x[fine] for x in (cand, s_b, h_b, base, B))
+            if cand.size == 0:
+                continue
+            fine = self.screen.passes(h, cand)
+            if not fine.all():
+                cand, s_b, h_b, base, B = (x[fine] for x in (cand, s_b, h_b, base, B))
+            if cand.size == 0:
+                continue
+            sub = sz._column(sz._geom(g, cand, h, emb, fb))
+            st = stability(sub, inputs)
+            ok = np.asarray(st.passes & sub.valid)[:, 0]
+            if not ok.any():
+                continue
+            tr = toe_strength(sub, inputs, one_bar, st)
+            ti = self.toe_tab["T_of"][cand % nc]
+            t_ok = (_le(tr.mu_lbft, self.toe_tab["phi_mn"][ti])
+                    & _le(tr.vu_lb, self.toe_tab["phi_vn"][ti])
+                    & self.toe_tab["fixed_ok"][ti] & ok[:, None])
+            t_cost = np.where(t_ok, self.bars_w[None, :] * (B - 0.5)[:, None], np.inf)
+            t_pick = np.argmin(t_cost, axis=1)
+            total = base + cs * t_cost[np.arange(cand.size), t_pick]
+            if not np.isfinite(total).any():
+                continue
+            k = int(np.lexsort((cand, total))[0])  # least cost, ties to the lower index
+            key = (float(total[k]), int(cand[k]))
+            if best is None or key < (best_cost, best[0]):
+                best_cost = key[0]
+                best = (int(cand[k]), int(s_b[k]), int(h_b[k]), int(t_pick[k]))
+        if best is None:
+            return None
+        return (*best, best_cost)
+
+    def _lower(self, gi, cols, h, stem_lb, heel_w):
+        pre, cs = self.pre, self.rates.steel_usd_per_lb
+        hst = h + pre["emb_ft"][cols] + self.fb - pre["T_ft"][cols]
+        B = pre["B_ft"][gi]
+        return (pre["cost0"][gi] + pre["cost_per_hst"][cols] * hst
+                + cs * (stem_lb[self.stem_of[cols]]
+                        + (heel_w[self.heel_of[cols]] + self.w_min) * (B - 0.5)))
+
+
+def _cheapest(ok, weight):
+    """Index of the lightest passing option per row (-1 where none)."""
+    cost = np.where(ok, weight, np.inf)
+    best = np.argmin(cost, axis=1)
+    return np.where(np.isfinite(cost[np.arange(cost.shape[0]), best]), best, -1)
