@@ -40,7 +40,6 @@ from dataclasses import dataclass
 
 import numpy as np
 
-CHUNK_STATIONS = 2048  # end stations prepared at once (bounds the memory of the recursion)
 LOWERINGS_STEEP = 5  # lowerings offered when the highest footings cannot meet the step limit
 INFEASIBLE_COST_PER_FT = 1.0e7  # $/ft for a segment no section can hold (flagged, never hidden)
 
@@ -92,30 +91,13 @@ def _ceil_to(x, step):
     return np.where(out < x, np.round(out + step, 9), out)
 
 
-def _recurse_flat(value, back, ii, pen, first, cost, start: int, block: int) -> None:
-    """The recursion with one footing level (``value[j, k]``, ``back[j, k]`` = k' of the
-    previous segment) for the end stations ``start ..`` of a prepared chunk, in place.
-
-    ``first`` is 0 where the segment starts the run (no predecessor) and inf elsewhere;
-    ``pen`` the step penalty (inf where the step is too high); ``cost`` the segment costs.
-    """
-    n_c = ii.shape[0]
-    for b0 in range(0, n_c, block):
-        b1 = min(b0 + block, n_c)
-        tot = value[ii[b0:b1]] + pen[b0:b1]  # [b, k, k']
-        best = tot.argmin(axis=-1)
-        bv = np.take_along_axis(tot, best[..., None], axis=-1)[..., 0]
-        value[start + b0:start + b1, 1:] = cost[b0:b1] + np.minimum(bv, first[b0:b1])
-        back[start + b0:start + b1, 1:] = best
-
-
 def window_extremes(values: np.ndarray, kmax: int, fn) -> np.ndarray:
     """``out[j, k] = fn(values[j-k .. j])`` for k = 0..kmax (NaN where j-k < 0)."""
     n = values.size
     out = np.full((n, kmax + 1), np.nan)
     acc = values.astype(float).copy()
     out[:, 0] = acc
-    for k in range(1, kmax + 1):
+    for k in range(1, min(kmax, n - 1) + 1):  # beyond the run's first station: NaN
         acc = acc.copy()
         acc[k:] = fn(acc[k:], values[: n - k])
         acc[:k] = np.nan
@@ -141,17 +123,55 @@ def plan_segments(
         embedment_of: design height -> the embedment its section needs (ft); by default
             ``rules.embedment_ft`` everywhere.
     """
-    s = np.asarray(station_ft, float)
-    rg = np.asarray(retained_grade_ft, float)
-    fg = np.asarray(front_grade_ft, float)
-    n = s.size
-    if n < 2:
-        raise ValueError("a run of stations needs at least two stations")
+    return plan_segments_many([(station_ft, retained_grade_ft, front_grade_ft)], rules,
+                              cost_per_ft, embedment_of)[0]
+
+
+def plan_segments_many(runs, rules: SegmentRules, cost_per_ft, embedment_of=None
+                       ) -> list[SegmentPlan]:
+    """:func:`plan_segments` for several runs of stations under the same rules and design
+    table, solved together: the recursion steps through the stations of every run at once."""
+    runs = [tuple(np.asarray(x, float) for x in run) for run in runs]
+    for s, _, _ in runs:
+        if s.size < 2:
+            raise ValueError("a run of stations needs at least two stations")
+    kmax = max(_span_stations(s, rules) for s, _, _ in runs)
+    preps = [_prepare(s, rg, fg, rules, cost_per_ft, embedment_of, kmax) for s, rg, fg in runs]
+    solved = _solve(preps, rules, kmax)
+    plans = []
+    for (s, rg, fg), prep, (final, back) in zip(runs, preps, solved, strict=True):
+        if not np.isfinite(final).any():
+            from dataclasses import replace
+
+            if rules.bf_lowerings < LOWERINGS_STEEP:  # steep ground: offer lowered footings
+                plans.append(plan_segments(s, rg, fg, replace(rules, bf_lowerings=LOWERINGS_STEEP),
+                                           cost_per_ft, embedment_of))
+                continue
+            if rules.segment_min_ft > 0:  # odd station spacing: relax the minimum length
+                plans.append(plan_segments(s, rg, fg, replace(rules, segment_min_ft=0.0),
+                                           cost_per_ft, embedment_of))
+                continue
+            raise ValueError("no segmentation meets the footing step limit")
+        plans.append(_trace(prep, final, back))
+    return plans
+
+
+def _seg_max(s, rules):
     total = s[-1] - s[0]
-    seg_max = max(rules.segment_max_ft, min(total, rules.segment_min_ft))
-    # how many stations a segment may span: the most stations within seg_max before any j
-    first = np.searchsorted(s, s - seg_max - 1e-9, side="left")
-    kmax = max(1, int(np.max(np.arange(n) - first)))
+    return max(rules.segment_max_ft, min(total, rules.segment_min_ft))
+
+
+def _span_stations(s, rules) -> int:
+    """How many stations a segment may span: the most within the longest segment."""
+    first = np.searchsorted(s, s - _seg_max(s, rules) - 1e-9, side="left")
+    return max(1, int(np.max(np.arange(s.size) - first)))
+
+
+def _prepare(s, rg, fg, rules, cost_per_ft, embedment_of, kmax) -> dict:
+    """Everything of one run that does not depend on the recursion's values, [j, k, m]."""
+    n = s.size
+    total = s[-1] - s[0]
+    seg_max = _seg_max(s, rules)
     M = max(1, rules.bf_lowerings)
     fg_min = window_extremes(fg, kmax, np.minimum)  # [j, k] over j-k..j
     rg_max = window_extremes(rg, kmax, np.maximum)
@@ -162,76 +182,88 @@ def plan_segments(
     if total < rules.segment_min_ft + 1e-9:
         ok_len[n - 1, n - 1] = True  # a run shorter than the minimum is one segment
     ok_len[:, 0] = False
+    ok_len &= start >= 0
     lower = rules.bf_lowering_ft * np.arange(M)
     # the envelope: the largest retained grade over the least front grade, plus the lowering
     # and the rounding of the footing (so that every station's design height is covered)
     h_case = (rg_max - fg_min)[:, :, None] + lower[None, None, :] + rules.bf_round_ft
+    h_look = np.where(np.isfinite(h_case), h_case, 0.0)
     emb = (np.full(h_case.shape, rules.embedment_ft) if embedment_of is None else
-           np.asarray(embedment_of(np.where(np.isfinite(h_case), h_case, 0.0)), float))
+           np.asarray(embedment_of(h_look), float))
     emb = np.where(np.isfinite(emb), np.maximum(emb, rules.embedment_ft), rules.embedment_ft)
     bf = _floor_to(fg_min[:, :, None] - emb, rules.bf_round_ft) - lower[None, None, :]
-    cpf = np.asarray(cost_per_ft(np.where(np.isfinite(h_case), h_case, 0.0)), float)
+    cpf = np.asarray(cost_per_ft(h_look), float)
     cpf = np.where(np.isfinite(cpf), cpf, INFEASIBLE_COST_PER_FT)
-    seg_cost = cpf * length[:, :, None]
-    seg_cost = np.where(ok_len[:, :, None], seg_cost, np.inf)
+    seg_cost = np.where(ok_len[:, :, None], cpf * length[:, :, None], np.inf)
     if rules.top_of_wall == "stepped":
         tw = _ceil_to(rg_max + rules.freeboard_ft, rules.top_step_in / 12.0)  # [j, k]
     else:
         tw = np.full_like(rg_max, np.nan)
-    value = np.full((n, kmax + 1, M), np.inf)
-    back = np.full((n, kmax + 1, M, 2), -1, dtype=np.int64)  # previous (k', m')
-    step_max = rules.footing_step_max_ft + 1e-9
-    # the stations of a block never end a segment that starts inside the same block
-    first_ok = np.where(ok_len.any(axis=1), np.argmax(ok_len, axis=1), kmax + 1)
-    block = max(1, int(first_ok[1:].min()))
+    return {"n": n, "M": M, "ok_len": ok_len, "bf": bf, "tw": tw, "seg_cost": seg_cost,
+            "h_case": h_case}
+
+
+def _solve(preps, rules, kmax):
+    """The recursion over every run at once. Returns per run (value at its last station
+    [k, m], back-pointers [j, k, m, 2] = (k', m') of the previous segment)."""
+    R, M, K1 = len(preps), preps[0]["M"], kmax + 1
+    n_max = max(p["n"] for p in preps)
+
+    def stack(name, fill, trailing):
+        out = np.full((R, n_max, K1) + trailing, fill)
+        for r, p in enumerate(preps):
+            out[r, : p["n"]] = p[name]
+        return out
+
+    ok_len = stack("ok_len", False, ())
+    bf = stack("bf", np.nan, (M,))
+    seg_cost = stack("seg_cost", np.inf, (M,))
+    tw = stack("tw", np.nan, ())
     stepped_top = rules.top_of_wall == "stepped"
-    ks = np.arange(1, kmax + 1)
-    chunk = max(block, (CHUNK_STATIONS // block) * block)
-    for C in range(1, n, chunk):
-        # everything that does not depend on the values, for a chunk of end stations at once
-        jc = np.arange(C, min(C + chunk, n))
-        jj, kk = np.meshgrid(jc, ks, indexing="ij")  # [c, k]
-        valid = (kk <= jj) & ok_len[jj, kk]
-        ii = np.where(valid, jj - kk, 0)
-        diff = np.abs(bf[jj, kk][..., :, None, None] - bf[ii][..., None, :, :])  # [c,k,m,k',m']
+    step_max = rules.footing_step_max_ft + 1e-9
+    value = np.full((R, n_max, K1, M), np.inf)
+    back = np.full((R, n_max, K1, M, 2), -1, dtype=np.int32)
+    back_k, back_m = back[..., 0], back[..., 1]  # views
+    # the stations of a block never end a segment that starts inside the same block
+    any_ok = ok_len.any(axis=2)
+    first_ok = np.where(any_ok, np.argmax(ok_len, axis=2), K1)[:, 1:]
+    block = max(1, int(first_ok.min())) if first_ok.size else 1
+    ks = np.arange(1, K1)
+    r_ix = np.arange(R)[:, None, None]
+    for b0 in range(1, n_max, block):
+        jb = np.arange(b0, min(b0 + block, n_max))
+        ii = jb[:, None] - ks[None, :]  # [b, k]: the previous segment ends where this starts
+        ic = np.maximum(ii, 0)
+        valid = ok_len[:, jb, 1:]  # [R, b, k]
+        if not valid.any():
+            continue
+        bf_j = bf[:, jb, 1:]  # [R, b, k, m]
+        bf_i = bf[r_ix, ic[None]]  # [R, b, k, k', m']
+        diff = np.abs(bf_j[..., :, None, None] - bf_i[..., None, :, :])  # [R,b,k,m,k',m']
         stepped = diff > 1e-9
         if stepped_top:
-            stepped = stepped | (np.abs(tw[jj, kk][..., None] - tw[ii]) > 1e-9)[
-                ..., None, :, None]
-        pen = np.where(diff <= step_max, rules.step_cost_usd * stepped, np.inf)
-        first = (ii == 0)[..., None]
-        cost_c = np.where(valid[..., None], seg_cost[jj, kk], np.inf)
-        if M == 1:  # one footing level per segment: the same recursion on flat arrays
-            back[jc, :, 0, 1] = 0
-            _recurse_flat(value[:, :, 0], back[:, :, 0, 0], ii, pen[:, :, 0, :, 0],
-                          np.where(first[..., 0], 0.0, np.inf), cost_c[..., 0], C, block)
-            continue
-        for b0 in range(0, jc.size, block):  # the recursion, a block of stations at a time
-            sl = slice(b0, b0 + block)
-            i_b = ii[sl]
-            total_v = value[i_b][..., None, :, :] + pen[sl]
-            flat = total_v.reshape(total_v.shape[:3] + (-1,))
-            best = np.argmin(flat, axis=-1)  # [b, k, m]
-            bv = np.take_along_axis(flat, best[..., None], axis=-1)[..., 0]
-            j_b, k_b = jj[sl], kk[sl]
-            value[j_b, k_b] = cost_c[sl] + np.where(first[sl], 0.0, bv)
-            back[j_b, k_b, :, 0] = best // M
-            back[j_b, k_b, :, 1] = best % M
-    final = value[n - 1]
-    if not np.isfinite(final).any():
-        from dataclasses import replace
+            t_step = np.abs(tw[:, jb, 1:][..., None] - tw[r_ix, ic[None]]) > 1e-9  # [R,b,k,k']
+            stepped = stepped | t_step[..., None, :, None]
+        with np.errstate(invalid="ignore"):
+            pen = np.where(diff <= step_max, rules.step_cost_usd * stepped, np.inf)
+        tot = value[r_ix, ic[None]][..., None, :, :] + pen  # [R,b,k,m,k',m']
+        flat = tot.reshape(tot.shape[:4] + (-1,))
+        best = np.argmin(flat, axis=-1)  # [R, b, k, m]
+        bv = np.take_along_axis(flat, best[..., None], axis=-1)[..., 0]
+        bv = np.where((ii == 0)[None, :, :, None], 0.0, bv)  # a first segment: no predecessor
+        value[:, jb, 1:] = np.where(valid[..., None], seg_cost[:, jb, 1:] + bv, np.inf)
+        back_k[:, jb, 1:] = best // M
+        back_m[:, jb, 1:] = best % M
+    return [(value[r, p["n"] - 1], back[r]) for r, p in enumerate(preps)]
 
-        if rules.bf_lowerings < LOWERINGS_STEEP:  # steep ground: offer lowered footings
-            return plan_segments(s, rg, fg, replace(rules, bf_lowerings=LOWERINGS_STEEP),
-                                 cost_per_ft, embedment_of)
-        if rules.segment_min_ft > 0:  # odd station spacing: relax the minimum length
-            return plan_segments(s, rg, fg, replace(rules, segment_min_ft=0.0), cost_per_ft,
-                                 embedment_of)
-        raise ValueError("no segmentation meets the footing step limit")
+
+def _trace(prep, final, back) -> SegmentPlan:
+    """The segments of the optimum, traced back from the last station."""
+    bf, tw, h_case, seg_cost = prep["bf"], prep["tw"], prep["h_case"], prep["seg_cost"]
     k, m = np.unravel_index(int(np.argmin(final)), final.shape)
     total_cost = float(final[k, m])
     segs = []
-    j = n - 1
+    j = prep["n"] - 1
     while True:
         i = j - int(k)
         segs.append((i, j, int(k), int(m)))

@@ -12,6 +12,7 @@ from wallsched.engine.segments import (
     SegmentRules,
     place_joints,
     plan_segments,
+    plan_segments_many,
 )
 
 
@@ -118,3 +119,30 @@ def test_reversed_stations_give_the_same_least_cost():
     fwd = plan_segments(s, rg, fg, rules, cost_table)
     rev = plan_segments(s, rg[::-1], fg[::-1], rules, cost_table)
     assert fwd.total_cost_usd == pytest.approx(rev.total_cost_usd, rel=1e-12)
+
+
+@settings(max_examples=25, deadline=None)
+@given(st.lists(st.tuples(st.integers(2, 60), st.floats(0.5, 5.0), st.integers(0, 2**31 - 1)),
+                min_size=1, max_size=5),
+       st.sampled_from([0.0, 300.0]), st.sampled_from([1, 3]))
+def test_runs_planned_together_equal_runs_planned_alone(shapes, step_cost, lowerings):
+    """The recursion over several runs at once (as the pipeline plans the walls of one design
+    table) gives every run exactly the plan it gets alone: runs of different lengths and
+    station spacings, some too short for the minimum segment, some steep."""
+    runs = []
+    for n, spacing, seed in shapes:
+        rng = np.random.default_rng(seed)
+        s = np.round(np.cumsum(np.r_[0.0, rng.uniform(0.5, 1.5, n - 1) * spacing]), 3)
+        fg = 100 + np.cumsum(rng.normal(0, 0.4, n))
+        rg = fg + 2 + np.abs(np.cumsum(rng.normal(0, 0.5, n)))
+        runs.append((s, rg, fg))
+    rules = SegmentRules(embedment_ft=1.5, freeboard_ft=0.5, step_cost_usd=step_cost,
+                         bf_lowerings=lowerings)
+    together = plan_segments_many(runs, rules, cost_table)
+    assert len(together) == len(runs)
+    for (s, rg, fg), plan in zip(runs, together, strict=True):
+        alone = plan_segments(s, rg, fg, rules, cost_table)
+        assert plan.total_cost_usd == alone.total_cost_usd
+        for name in ("start_index", "end_index", "bottom_of_footing_ft", "design_height_ft"):
+            assert np.array_equal(getattr(plan, name), getattr(alone, name))
+        assert plan.start_index[0] == 0 and plan.end_index[-1] == s.size - 1

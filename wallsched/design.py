@@ -18,7 +18,7 @@ from .engine.bars import BarSpec
 from .engine.checks import check_section
 from .engine.model import Joint, SectionDims, Segment, WallDesign
 from .engine.section import BarArrays, DesignInputs, Reinforcement, SectionGeometry
-from .engine.segments import SegmentRules, place_joints, plan_segments
+from .engine.segments import SegmentRules, place_joints, plan_segments, plan_segments_many
 from .engine.sizing import CostRates, DesignTable, SizingGrid, design_table
 from .errors import DesignError, InputError
 from .profile.sampling import WallStations
@@ -150,30 +150,39 @@ def merge_identical(plan, run, station_ft, table: DesignTable, segment_max_ft: f
     return [tuple(p) for p in out]
 
 
+def wall_run(ws: WallStations, c) -> np.ndarray | None:
+    """The stations of a wall from the first to the last that needs a wall (None if none)."""
+    n = len(ws)
+    need = np.nonzero(ws.retained_height_ft >= c["min_retained_height_ft"])[0]
+    if need.size == 0:
+        return None
+    first, last = int(need[0]), int(need[-1])
+    if first == last:  # one station needs a wall: give it a neighbour
+        first, last = (first - 1, last) if first > 0 else (first, min(last + 1, n - 1))
+    return np.arange(first, last + 1)
+
+
 def design_wall(site: Site, wall: WallSpec, ws: WallStations, inputs: DesignInputs,
-                table: DesignTable, *, audit: bool = True) -> WallDesign:
-    """Segments, sections and per-station checks of one wall."""
+                table: DesignTable, *, audit: bool = True, plan=None) -> WallDesign:
+    """Segments, sections and per-station checks of one wall (``plan``: its segments from
+    :func:`~.engine.segments.plan_segments_many`, planned here when not given)."""
     c = wall.criteria
     rates = CostRates.from_table(site.costs)
     rules = segment_rules(c, rates)
     n = len(ws)
-    h = ws.retained_height_ft
     seg_of = np.full(n, -1)
     util = np.full(n, np.nan)
     per_check: dict[str, np.ndarray] = {}
     gov = [""] * n
     status = ["no_wall: retained height below min_retained_height_ft"] * n
-    need = np.nonzero(h >= c["min_retained_height_ft"])[0]
-    if need.size == 0:
+    run = wall_run(ws, c)
+    if run is None:
         return WallDesign(wall.id, wall.name, wall.retained_side, ws, (), (), seg_of, util,
                           tuple(gov), tuple(status))
-    first, last = int(need[0]), int(need[-1])
-    if first == last:  # one station needs a wall: give it a neighbour
-        first, last = (first - 1, last) if first > 0 else (first, min(last + 1, n - 1))
-    run = np.arange(first, last + 1)
-    s = ws.station_ft[run]
-    plan = plan_segments(s, ws.retained_grade_ft[run], ws.front_grade_ft[run], rules,
-                         table.cost_per_ft, table.embedment_of)
+    if plan is None:
+        plan = plan_segments(ws.station_ft[run], ws.retained_grade_ft[run],
+                             ws.front_grade_ft[run], rules, table.cost_per_ft,
+                             table.embedment_of)
     segments: list[Segment] = []
     pieces = merge_identical(plan, run, ws.station_ft, table, c["segment_max_ft"])
     for q, (i0, i1, bf, tw, hc) in enumerate(pieces):
@@ -350,7 +359,7 @@ def design_site(site: Site, walls_stations: list[WallStations], *, audit: bool =
         key = _table_key(inputs, c, emb, c["freeboard_ft"], c["top_of_wall"])
         keys[wall.id] = (key, inputs, emb)
         need[key] = max(need.get(key, 0.0), needed_height_ft(ws, c))
-    for wall, ws in zip(site.walls, walls_stations, strict=True):
+    for wall in site.walls:
         c = wall.criteria
         key, inputs, emb = keys[wall.id]
         if key not in tables:
@@ -361,7 +370,24 @@ def design_site(site: Site, walls_stations: list[WallStations], *, audit: bool =
                 footing_width_max_ft=c.get("footing_width_max_ft"))
         inputs_by_wall[wall.id] = inputs
         tables_by_wall[wall.id] = tables[key]
-        designs.append(design_wall(site, wall, ws, inputs, tables[key], audit=audit))
+    # the segments of the walls sharing a design table and rules, planned together
+    groups: dict = {}
+    for wall, ws in zip(site.walls, walls_stations, strict=True):
+        run = wall_run(ws, wall.criteria)
+        if run is not None:
+            gk = (keys[wall.id][0], segment_rules(wall.criteria, rates))
+            groups.setdefault(gk, []).append((wall.id, ws, run))
+    plans = {}
+    for (key, rules), members in groups.items():
+        table = tables[key]
+        got = plan_segments_many(
+            [(ws.station_ft[run], ws.retained_grade_ft[run], ws.front_grade_ft[run])
+             for _, ws, run in members], rules, table.cost_per_ft, table.embedment_of)
+        plans.update({wid: p for (wid, _, _), p in zip(members, got, strict=True)})
+    for wall, ws in zip(site.walls, walls_stations, strict=True):
+        key, inputs, _ = keys[wall.id]
+        designs.append(design_wall(site, wall, ws, inputs, tables[key], audit=audit,
+                                   plan=plans.get(wall.id)))
         if progress is not None:
             progress(1)
     designs = assign_marks(designs)

@@ -47,7 +47,7 @@ def main(argv=None) -> int:
 
     from wallsched.engine.checks import check_section
     from wallsched.engine.section import DesignInputs
-    from wallsched.engine.segments import plan_segments
+    from wallsched.engine.segments import plan_segments, plan_segments_many
     from wallsched.engine.sizing import CostRates, SizingGrid, design_table
 
     from wallsched.design import reinforcement, segment_rules, station_geometry
@@ -117,10 +117,9 @@ def main(argv=None) -> int:
 
     rules = segment_rules(crit, rates)
     t0 = time.perf_counter()
-    n_segments = 0
-    for s, rg, fg in walls:
-        plan = plan_segments(s, rg, fg, rules, table.cost_per_ft)
-        n_segments += len(plan)
+    # as the pipeline does: the walls of one design table and set of rules together
+    plans = plan_segments_many(walls, rules, table.cost_per_ft, table.embedment_of)
+    n_segments = sum(len(p) for p in plans)
     segmenting_s = time.perf_counter() - t0
     del station_geometry, reinforcement
 
