@@ -36,7 +36,7 @@ from .strength import (
     toe_strength,
 )
 
-COLUMNS_PER_BLOCK = 1024
+COLUMNS_PER_BLOCK = 256
 TOES_PER_COLUMN = 4
 
 
@@ -75,22 +75,11 @@ class ColumnSearch:
         self._hint = None  # the least toes of the last height searched (a starting guess)
 
     @staticmethod
-    def applies(g, grid, screen, pre) -> bool:
+    def applies(screen, pre) -> bool:
         """True where the screen is linear and its overturning and sliding margins, and the
-        cost without bars, never decrease as the toe grows (checked on the whole grid)."""
-        if not screen.linear or np.any(np.diff(grid.toe_ft) <= 0):
-            return False
-        nt = grid.toe_ft.size
-        arrs = [screen.v0, screen.v1, screen.m0, screen.m1, screen.B, pre["cost0"]]
-        if screen.inputs.surcharge_resists:
-            arrs += [screen.vq, screen.mq]
-        for x in arrs:
-            x = np.broadcast_to(x, (g.size,)).reshape(nt, -1)
-            if nt > 1:
-                tol = 1e-9 * max(1.0, float(np.max(np.abs(x))))
-                if np.min(np.diff(x, axis=0)) < -tol:
-                    return False
-        return True
+        cost without bars, never decrease as the toe grows (checked on the whole grid as the
+        screen and the costs are computed)."""
+        return bool(screen.linear and screen.toe_monotone and pre["toe_monotone"])
 
     # ------------------------------------------------------------------- set-up tables --
     def _heel_capacity(self):
@@ -103,11 +92,11 @@ class ColumnSearch:
                               stem_base_in=8.0, toe_ft=1.0, heel_ft=1.0)
         r = heel_strength(geo, inp, BarArrays(bars.size[None, :], bars.spacing_in[None, :]))
         self.heel_T = T_vals
-        self.heel_phi_mn = np.broadcast_to(r.phi_mn_lbft, (T_vals.size, bars.size.size))
-        self.heel_phi_vn = np.broadcast_to(r.phi_vn_lb, (T_vals.size, bars.size.size))
+        shape = (T_vals.size, bars.size.size)
+        self.heel_phi_mn = np.broadcast_to(r.phi_mn_lbft, shape).copy()
+        self.heel_phi_vn = np.broadcast_to(r.phi_vn_lb, shape).copy()
         self.heel_fixed = np.broadcast_to(
-            _le(r.as_min_in2, r.as_in2) & _le(r.spacing_in, r.s_max_in),
-            (T_vals.size, bars.size.size))
+            _le(r.as_min_in2, r.as_in2) & _le(r.spacing_in, r.s_max_in), shape).copy()
         first = self.codes["heel_first"]
         self.heel_T_of = np.searchsorted(T_vals, g.col["footing_thickness_in"][first])
 
@@ -140,8 +129,8 @@ class ColumnSearch:
         one = BarArrays(self.bars.size[:1], self.bars.spacing_in[:1])
         r = heel_strength(self._pair_geoms(self.codes["heel_first"], h), self.inputs, one)
         ti = self.heel_T_of
-        ok = (_le(r.mu_lbft, self.heel_phi_mn[ti]) & _le(r.vu_lb, self.heel_phi_vn[ti])
-              & self.heel_fixed[ti])
+        ok = (_le(r.mu_lbft, _rows(self.heel_phi_mn, ti))
+              & _le(r.vu_lb, _rows(self.heel_phi_vn, ti)) & _rows(self.heel_fixed, ti))
         return _cheapest(ok, self.bars_w[None, :])
 
     def _stem_bounds(self, h):
@@ -163,8 +152,12 @@ class ColumnSearch:
         s, i = self.screen, self.inputs
         m_o, h_d, v_th, pp = forces
         e = s.e_col[idx % self.ncol]
-        v = s.v0[idx] + s.v1[idx] * h + v_th[e]
-        m = s.m0[idx] + s.m1[idx] * h + v_th[e] * s.B[idx]
+        vm = _rows(s.vm, idx)
+        v = vm[:, 0] + vm[:, 1] * h
+        m = vm[:, 2] + vm[:, 3] * h
+        if self._thrust_has_v:
+            v = v + v_th[e]
+            m = m + v_th[e] * s.B[idx]
         if i.surcharge_resists:
             v, m = v + s.vq[idx], m + s.mq[idx]
         k = 1.0 - s.SLACK
@@ -210,6 +203,7 @@ class ColumnSearch:
         forces = self.screen._forces(h)
         if np.any(forces[2] < 0):  # an upward thrust component: the moments may not grow
             return NotImplemented
+        self._thrust_has_v = bool(np.any(forces[2] != 0))
         heel_pick = self._heel_picks(h)
         heel_w = np.where(heel_pick >= 0, self.bars_w[np.maximum(heel_pick, 0)], np.inf)
         stem_lb = self._stem_bounds(h)  # replaced by the exact value once a pair is known
@@ -289,9 +283,9 @@ class ColumnSearch:
                 continue
             tr = toe_strength(sub, inputs, one_bar, st)
             ti = self.toe_tab["T_of"][cand % nc]
-            t_ok = (_le(tr.mu_lbft, self.toe_tab["phi_mn"][ti])
-                    & _le(tr.vu_lb, self.toe_tab["phi_vn"][ti])
-                    & self.toe_tab["fixed_ok"][ti] & ok[:, None])
+            t_ok = (_le(tr.mu_lbft, _rows(self.toe_tab["phi_mn"], ti))
+                    & _le(tr.vu_lb, _rows(self.toe_tab["phi_vn"], ti))
+                    & _rows(self.toe_tab["fixed_ok"], ti) & ok[:, None])
             t_cost = np.where(t_ok, self.bars_w[None, :] * (B - 0.5)[:, None], np.inf)
             t_pick = np.argmin(t_cost, axis=1)
             total = base + cs * t_cost[np.arange(cand.size), t_pick]
@@ -313,6 +307,12 @@ class ColumnSearch:
         return (pre["cost0"][gi] + pre["cost_per_hst"][cols] * hst
                 + cs * (stem_lb[self.stem_of[cols]]
                         + (heel_w[self.heel_of[cols]] + self.w_min) * (B - 0.5)))
+
+
+def _rows(table, idx):
+    """``table[idx]`` along the first axis (np.take: much faster than fancy indexing of
+    rows of a 2-d array)."""
+    return np.take(table, idx, axis=0)
 
 
 def _cheapest(ok, weight):

@@ -377,12 +377,29 @@ def precompute(g: Geometries, inputs: DesignInputs, rates: CostRates, emb: float
            "stem_anchor_ft": (geo.footing_thickness_in - inputs.cover_toe_in) / 12.0}
     out = {k: _flat(v, col_shape).copy() for k, v in out.items()}
     out["cost0"], out["B_ft"] = np.empty(g.size), np.empty(g.size)
+    monotone, last = True, None  # the cost without bars never decreases as the toe grows
     for toes, flat in g.toe_chunks():
         _, _, B, cost0, _ = parts(toes)
         n = toes.stop - toes.start
         out["cost0"][flat] = _flat(cost0, (n, *g.shape[1:]))
         out["B_ft"][flat] = _flat(B, (n, *g.shape[1:]))
+        rows = [out["cost0"][flat].reshape(n, -1)]
+        monotone = monotone and _rows_nondecreasing(rows, last)
+        last = [r[-1:] for r in rows]
+    out["toe_monotone"] = monotone
     return out
+
+
+def _rows_nondecreasing(rows, before=None) -> bool:
+    """Each array of ``rows`` (toe x column) never decreases down its toes, nor from the
+    matching row of ``before`` (the last toe of the previous piece), to rounding."""
+    for i, r in enumerate(rows):
+        x = r if before is None else np.concatenate([before[i], r])
+        if x.shape[0] > 1:
+            tol = 1e-9 * max(1.0, float(np.max(np.abs(x))))
+            if float(np.min(x[1:] - x[:-1])) < -tol:
+                return False
+    return True
 
 
 class StabilityScreen:
@@ -410,9 +427,14 @@ class StabilityScreen:
         d = hs[1] - hs[0]
         n = g.size
         self.ncol = g.ncol
-        self.v0, self.v1, self.m0, self.m1, self.vq, self.mq, self.B = (
-            np.empty(n) for _ in range(7))
+        # intercepts and slopes side by side (one gather reads a geometry's four)
+        self.vm = np.empty((n, 4))
+        self.v0, self.v1, self.m0, self.m1 = (self.vm[:, i] for i in range(4))
+        self.vq, self.mq, self.B = (np.empty(n) for _ in range(3))
         lin = True
+        # whether the weights, their moments about the toe and the widths never decrease as
+        # the toe grows (what the column search needs; checked as they are computed)
+        self.toe_monotone, last_rows = bool(np.all(np.diff(g.toe_axis) > 0)), None
         # toe by toe (a few at a time): the weights on the grid's axes, slopes and intercepts
         for toes, flat in g.toe_chunks():
             sh = (toes.stop - toes.start, *g.shape[1:])
@@ -430,6 +452,10 @@ class StabilityScreen:
                 np.allclose(qma, _flat(wb.surcharge.moment_lbft, sh), rtol=1e-12)
             self.vq[flat], self.mq[flat] = qa, qma
             self.B[flat] = _flat(geo_a.footing_width_ft, sh)
+            rows = [x[flat].reshape(sh[0], -1) for x in (
+                self.v0, self.v1, self.m0, self.m1, self.vq, self.mq, self.B)]
+            self.toe_monotone = self.toe_monotone and _rows_nondecreasing(rows, last_rows)
+            last_rows = [r[-1:] for r in rows]
         # linearity verified at a third height on a spread of the grid
         probe = np.unique(np.linspace(0, n - 1, min(n, 4096)).astype(int))
         wc = section_weights(_geom(g, probe, hs[2], emb, fb), inputs)
@@ -637,8 +663,9 @@ def _search_height(g, codes, pre, toe_tab, screen, h, emb, fb, inputs, rates, ba
             continue
         tr = toe_strength(sub, inputs, one_bar, st)  # demands; capacities from the table
         ti = toe_tab["T_of"][c_of[idx]]
-        t_ok = (_le(tr.mu_lbft, toe_tab["phi_mn"][ti]) & _le(tr.vu_lb, toe_tab["phi_vn"][ti])
-                & toe_tab["fixed_ok"][ti] & ok[:, None])
+        t_ok = (_le(tr.mu_lbft, np.take(toe_tab["phi_mn"], ti, axis=0))
+                & _le(tr.vu_lb, np.take(toe_tab["phi_vn"], ti, axis=0))
+                & np.take(toe_tab["fixed_ok"], ti, axis=0) & ok[:, None])
         t_cost = np.where(t_ok, bars_w[None, :] * (B[idx] - 0.5)[:, None], np.inf)
         t_pick = np.argmin(t_cost, axis=1)
         total = base[idx] + rates.steel_usd_per_lb * t_cost[np.arange(idx.size), t_pick]
@@ -749,7 +776,7 @@ def design_table(inputs: DesignInputs, grid: SizingGrid, rates: CostRates, *,
     if footing_width_max_ft is not None:
         alive &= pre["B_ft"] <= footing_width_max_ft + 1e-9
     columns = None
-    if ColumnSearch.applies(g, grid, screen, pre):
+    if ColumnSearch.applies(screen, pre):
         columns = ColumnSearch(g, grid, codes, pre, toe_tab, screen, inputs, rates, bars,
                                embedment_ft, freeboard_ft, footing_width_max_ft)
     choices = []
