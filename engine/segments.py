@@ -229,25 +229,31 @@ def _solve(preps, rules, kmax):
     first_ok = np.where(any_ok, np.argmax(ok_len, axis=2), K1)[:, 1:]
     block = max(1, int(first_ok.min())) if first_ok.size else 1
     ks = np.arange(1, K1)
-    r_ix = np.arange(R)[:, None, None]
+    # rows of (run, station) flattened, read with np.take (faster than fancy indexing)
+    value_rows = value.reshape(R * n_max, K1 * M)
+    bf_rows = bf.reshape(R * n_max, K1 * M)
+    tw_rows = tw.reshape(R * n_max, K1)
+    run_row = (np.arange(R) * n_max)[:, None, None]
     for b0 in range(1, n_max, block):
         jb = np.arange(b0, min(b0 + block, n_max))
         ii = jb[:, None] - ks[None, :]  # [b, k]: the previous segment ends where this starts
-        ic = np.maximum(ii, 0)
         valid = ok_len[:, jb, 1:]  # [R, b, k]
         if not valid.any():
             continue
+        rows = (run_row + np.maximum(ii, 0)[None]).reshape(-1)
+        shape = (R, jb.size, K1 - 1)
         bf_j = bf[:, jb, 1:]  # [R, b, k, m]
-        bf_i = bf[r_ix, ic[None]]  # [R, b, k, k', m']
-        diff = np.abs(bf_j[..., :, None, None] - bf_i[..., None, :, :])  # [R,b,k,m,k',m']
+        bf_i = np.take(bf_rows, rows, axis=0).reshape(shape + (1, K1, M))  # [R,b,k,1,k',m']
+        diff = np.abs(bf_j[..., :, None, None] - bf_i)  # [R, b, k, m, k', m']
         stepped = diff > 1e-9
         if stepped_top:
-            t_step = np.abs(tw[:, jb, 1:][..., None] - tw[r_ix, ic[None]]) > 1e-9  # [R,b,k,k']
+            tw_i = np.take(tw_rows, rows, axis=0).reshape(shape + (K1,))
+            t_step = np.abs(tw[:, jb, 1:][..., None] - tw_i) > 1e-9  # [R, b, k, k']
             stepped = stepped | t_step[..., None, :, None]
         with np.errstate(invalid="ignore"):
             pen = np.where(diff <= step_max, rules.step_cost_usd * stepped, np.inf)
-        tot = value[r_ix, ic[None]][..., None, :, :] + pen  # [R,b,k,m,k',m']
-        flat = tot.reshape(tot.shape[:4] + (-1,))
+        prev = np.take(value_rows, rows, axis=0).reshape(shape + (1, K1 * M))
+        flat = prev + pen.reshape(shape + (M, K1 * M))  # [R, b, k, m, (k', m')]
         best = np.argmin(flat, axis=-1)  # [R, b, k, m]
         bv = np.take_along_axis(flat, best[..., None], axis=-1)[..., 0]
         bv = np.where((ii == 0)[None, :, :, None], 0.0, bv)  # a first segment: no predecessor
