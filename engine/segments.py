@@ -40,6 +40,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
+BATCH_STATIONS = 100_000  # stations (padded) of the runs whose recursion is solved together
 LOWERINGS_STEEP = 5  # lowerings offered when the highest footings cannot meet the step limit
 INFEASIBLE_COST_PER_FT = 1.0e7  # $/ft for a segment no section can hold (flagged, never hidden)
 
@@ -135,6 +136,22 @@ def plan_segments_many(runs, rules: SegmentRules, cost_per_ft, embedment_of=None
     for s, _, _ in runs:
         if s.size < 2:
             raise ValueError("a run of stations needs at least two stations")
+    plans: list = [None] * len(runs)
+    # batches of runs of similar length, at most BATCH_STATIONS (padded) stations each
+    order = sorted(range(len(runs)), key=lambda r: runs[r][0].size)
+    batch: list[int] = []
+    for pos, r in enumerate(order):
+        batch.append(r)
+        last = pos == len(order) - 1
+        if last or (len(batch) + 1) * runs[order[pos + 1]][0].size > BATCH_STATIONS:
+            got = _plan_batch([runs[b] for b in batch], rules, cost_per_ft, embedment_of)
+            for b, plan in zip(batch, got, strict=True):
+                plans[b] = plan
+            batch = []
+    return plans
+
+
+def _plan_batch(runs, rules, cost_per_ft, embedment_of) -> list[SegmentPlan]:
     kmax = max(_span_stations(s, rules) for s, _, _ in runs)
     preps = [_prepare(s, rg, fg, rules, cost_per_ft, embedment_of, kmax) for s, rg, fg in runs]
     solved = _solve(preps, rules, kmax)

@@ -2,11 +2,13 @@
 
 import itertools
 import math
+from unittest import mock
 
 import numpy as np
 import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
+from wallsched.engine import segments
 from wallsched.engine.segments import (
     INFEASIBLE_COST_PER_FT,
     SegmentRules,
@@ -139,10 +141,14 @@ def test_runs_planned_together_equal_runs_planned_alone(shapes, step_cost, lower
     rules = SegmentRules(embedment_ft=1.5, freeboard_ft=0.5, step_cost_usd=step_cost,
                          bf_lowerings=lowerings)
     together = plan_segments_many(runs, rules, cost_table)
-    assert len(together) == len(runs)
-    for (s, rg, fg), plan in zip(runs, together, strict=True):
+    with mock.patch.object(segments, "BATCH_STATIONS", 70):  # the runs split into batches
+        batched = plan_segments_many(runs, rules, cost_table)
+    assert len(together) == len(batched) == len(runs)
+    for (s, rg, fg), plan, other in zip(runs, together, batched, strict=True):
         alone = plan_segments(s, rg, fg, rules, cost_table)
-        assert plan.total_cost_usd == alone.total_cost_usd
-        for name in ("start_index", "end_index", "bottom_of_footing_ft", "design_height_ft"):
-            assert np.array_equal(getattr(plan, name), getattr(alone, name))
+        for p in (plan, other):
+            assert p.total_cost_usd == alone.total_cost_usd
+            for name in ("start_index", "end_index", "bottom_of_footing_ft",
+                         "design_height_ft"):
+                assert np.array_equal(getattr(p, name), getattr(alone, name))
         assert plan.start_index[0] == 0 and plan.end_index[-1] == s.size - 1
