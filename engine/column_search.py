@@ -1,14 +1,15 @@
 """The exact least-cost search at one height, column by column (the fast path of sizing).
 
 A *column* of the grid is one (heel, footing thickness, stem) combination with every toe
-length. Where the stability screen's weights are linear in the height and, like the
-moments they give about the toe, never decrease as the toe grows (verified on the whole
-grid, not assumed), the overturning and sliding margins of the screen grow with the toe: the
-toes of a column that pass them are the ones from a least toe up, found by bisection. The
-cost lower bound of a candidate is linear and increasing in its toe, so each column is a
-sorted list of candidates and the search is a merge of the columns by lower bound, in
-blocks, until no column's next bound is below the best full candidate found: branch and
-bound as in :mod:`.sizing`, over far fewer candidates.
+length. The toes of a column that pass the static overturning and sliding checks are the
+ones from a least toe up: where the stability screen's weights are linear in the height and,
+like their moments about the toe, never decrease as the toe grows (verified on the whole
+grid, not assumed), the least toe is found by bisection on the screen; elsewhere (a battered
+stem, a backslope) from the engine's weights and thrust over the whole grid at that height,
+the run structure verified for every column. The cost lower bound of a candidate is linear
+and increasing in its toe, so each column is a sorted list of candidates and the search is a
+merge of the columns by lower bound, in blocks, until no column's next bound is below the
+best full candidate found: branch and bound as in :mod:`.sizing`, over far fewer candidates.
 
 The lower bound of a candidate uses its heel bars (cheapest passing, exact: the heel demand
 against a capacity table per footing thickness), its stem bars (exact once a column of that
@@ -73,13 +74,23 @@ class ColumnSearch:
         self._heel_capacity()
         self._stem_capacity()
         self._hint = None  # the least toes of the last height searched (a starting guess)
+        self.least = self.mode(screen, pre)
+
+    @staticmethod
+    def mode(screen, pre) -> str | None:
+        """How the least toes are found: ``"screen"`` where the screen is linear and its
+        weights, their moments and the widths never decrease as the toe grows (bisection on
+        the screen), ``"grid"`` otherwise (the static overturning and sliding checks over the
+        whole grid at each height); None where the cost without bars can decrease as the toe
+        grows (the column search does not apply). Checked on the whole grid as the screen and
+        the costs are computed."""
+        if not pre["toe_monotone"]:
+            return None
+        return "screen" if screen.linear and screen.toe_monotone else "grid"
 
     @staticmethod
     def applies(screen, pre) -> bool:
-        """True where the screen is linear and its overturning and sliding margins, and the
-        cost without bars, never decrease as the toe grows (checked on the whole grid as the
-        screen and the costs are computed)."""
-        return bool(screen.linear and screen.toe_monotone and pre["toe_monotone"])
+        return ColumnSearch.mode(screen, pre) is not None
 
     # ------------------------------------------------------------------- set-up tables --
     def _heel_capacity(self):
@@ -193,6 +204,42 @@ class ColumnSearch:
             act = act[lo[act] < hi[act]]
         return lo
 
+    def _grid_least_toes(self, h):
+        """Per column, the least toe index passing the static overturning and sliding checks
+        at ``h`` (as :func:`~.stability.stability` makes them, with the screen's slack), from
+        the engine's weights and thrust over the whole grid a few toes at a time; None where
+        in some column a passing toe is followed by a failing one."""
+        from .pressure import design_thrust, passive_resistance_lb
+        from .section import section_weights
+
+        g, i, p = self.g, self.inputs, self.screen.p
+        nc = self.ncol
+        k = 1.0 - self.screen.SLACK
+        first = np.full(nc, -1, np.int64)
+        before = None
+        for toes, _ in g.toe_chunks():
+            n = toes.stop - toes.start
+            geo = self.sz._axes_geom(g, h, self.emb, self.fb, toes)
+            w = section_weights(geo, i)
+            v, m = w.dead()
+            th = design_thrust(geo, i, p)
+            v = v + th.vertical_lb
+            m = m + th.vertical_lb * geo.footing_width_ft
+            if i.surcharge_resists:
+                v, m = v + w.surcharge.lb, m + w.surcharge.moment_lbft
+            pp = (passive_resistance_lb(p.passive_efp_pcf, i.passive_neglect_ft,
+                                        geo.embedment_ft) if i.use_passive else 0.0)
+            ok = (m >= i.fs_overturning * th.moment_lbft * k) & (
+                i.friction_coefficient * v + pp >= i.fs_sliding * th.horizontal_lb * k)
+            ok = np.broadcast_to(ok, (n, *g.shape[1:])).reshape(n, nc)
+            rows = ok if before is None else np.concatenate([before, ok])
+            if np.any(rows[1:] < rows[:-1]):
+                return None
+            new = (first < 0) & ok[-1]  # passing in this piece for the first time
+            first[new] = toes.start + np.argmax(ok[:, new], axis=0)
+            before = ok[-1:]
+        return np.where(first < 0, self.toe_hi, np.minimum(first, self.toe_hi))
+
     def search(self, h):
         """Exact optimum at height ``h``: (geometry, stem bars, heel bars, toe bars, cost),
         or None where nothing on the grid holds."""
@@ -200,16 +247,21 @@ class ColumnSearch:
         inputs, rates, bars, emb, fb = self.inputs, self.rates, self.bars, self.emb, self.fb
         nc = self.ncol
         cs = rates.steel_usd_per_lb
-        forces = self.screen._forces(h)
-        if np.any(forces[2] < 0):  # an upward thrust component: the moments may not grow
-            return NotImplemented
-        self._thrust_has_v = bool(np.any(forces[2] != 0))
+        if self.least == "screen":
+            forces = self.screen._forces(h)
+            if np.any(forces[2] < 0):  # an upward thrust component: the moments may not grow
+                return NotImplemented
+            self._thrust_has_v = bool(np.any(forces[2] != 0))
+            ptr = self._least_toes(h, forces, self._hint)
+            self._hint = ptr.copy()
+        else:
+            ptr = self._grid_least_toes(h)
+            if ptr is None:  # the passing toes are not a run from a least toe up
+                return NotImplemented
         heel_pick = self._heel_picks(h)
         heel_w = np.where(heel_pick >= 0, self.bars_w[np.maximum(heel_pick, 0)], np.inf)
         stem_lb = self._stem_bounds(h)  # replaced by the exact value once a pair is known
         stem_pick = np.full(stem_lb.size, -2, np.int64)  # -2: not yet evaluated
-        ptr = self._least_toes(h, forces, self._hint)
-        self._hint = ptr.copy()
         live = ((ptr < self.toe_hi) & np.isfinite(heel_w[self.heel_of])
                 & np.isfinite(stem_lb[self.stem_of]))
         cols = np.nonzero(live)[0]

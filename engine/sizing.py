@@ -22,8 +22,8 @@ over the whole grid:
    full candidate found;
 3. heights are processed in increasing order, and a geometry that fails stability at one
    height fails at every greater height (loads grow with height), so it is dropped for good;
-4. where the stability screen holds and grows with the toe, the same branch and bound runs
-   column by column (:mod:`.column_search`), over far fewer candidates.
+4. wherever the cost without bars grows with the toe (checked), the same branch and bound
+   runs column by column (:mod:`.column_search`), over far fewer candidates.
 
 :func:`exhaustive_optimum` is the plain reference (every combination through
 :func:`~.checks.check_section`), which the tests hold the fast search to on small grids.
