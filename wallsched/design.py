@@ -204,7 +204,8 @@ def design_wall(site: Site, wall: WallSpec, ws: WallStations, inputs: DesignInpu
                 break
         if not tries:
             reason = (f"no_section: nothing on the sizing grid holds a design height of "
-                      f"{hc:.2f} ft")
+                      f"{hc:.2f} ft; widen [sizing] (footing_thickness_max_in, heel_max_ft, "
+                      f"toe_max_ft, stem_max_in) or revisit the soil and loads")
         else:
             sec, res = tries[-1] if bool(np.all(tries[-1][1].passes)) else tries[0]
             if not bool(np.all(res.passes)):
