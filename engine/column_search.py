@@ -28,6 +28,7 @@ import numpy as np
 
 from .bars import bar_weight_plf
 from .section import BarArrays, SectionGeometry
+from .sizing import _axes_geom, _column, _geom, _le, _pair_table
 from .stability import stability
 from .strength import (
     heel_strength,
@@ -41,11 +42,6 @@ COLUMNS_PER_BLOCK = 256
 TOES_PER_COLUMN = 4
 
 
-def _le(a, b):
-    with np.errstate(invalid="ignore", divide="ignore"):
-        return np.asarray(a <= b * (1.0 + 1e-12))
-
-
 class ColumnSearch:
     """The per-design-table set-up of the column search; :meth:`search` runs one height.
 
@@ -55,9 +51,6 @@ class ColumnSearch:
 
     def __init__(self, g, grid, codes, pre, toe_tab, screen, inputs, rates, bars, emb, fb,
                  width_max_ft=None):
-        from . import sizing as sz
-
-        self.sz = sz
         self.g, self.codes, self.pre, self.toe_tab, self.screen = g, codes, pre, toe_tab, screen
         self.inputs, self.rates, self.bars, self.emb, self.fb = inputs, rates, bars, emb, fb
         self.nt, self.ncol = g.nt, g.ncol
@@ -133,7 +126,7 @@ class ColumnSearch:
 
     # ------------------------------------------------------------------------ one height --
     def _pair_geoms(self, first, h):
-        return self.sz._column(self.sz._geom(self.g, first, h, self.emb, self.fb))
+        return _column(_geom(self.g, first, h, self.emb, self.fb))
 
     def _heel_picks(self, h):
         """Cheapest passing heel bars per heel pair (-1 where none), exact."""
@@ -152,17 +145,22 @@ class ColumnSearch:
         one = BarArrays(self.bars.size[:1], self.bars.spacing_in[:1])
         mu = stem_strength(geo, self.inputs, one).mu_lbft  # the base moment: no bar in it
         ok = self.stem_fixed & _le(mu, self.stem_phi_mn)
-        pre = self.pre
-        length = (h + pre["emb_ft"][first] + self.fb - pre["T_ft"][first]
-                  + pre["stem_anchor_ft"][first])
+        length = self._stem_bar_length(h, first)
         lb = self.bars_w[None, :] * (length[:, None] + self.bars.diameter_in[None, :])
         return np.min(np.where(ok, lb, np.inf), axis=1)
+
+    def _stem_bar_length(self, h, cols):
+        """Stem bar length (ft) less the hook extension: stem height plus the anchorage into
+        the footing, for the columns ``cols`` (as :func:`~.sizing.stem_steel_lb`)."""
+        pre = self.pre
+        return (h + pre["emb_ft"][cols] + self.fb - pre["T_ft"][cols]
+                + pre["stem_anchor_ft"][cols])
 
     def _ot_sliding(self, h, forces, idx):
         """The screen's overturning and sliding parts (monotone in the toe) at ``idx``."""
         s, i = self.screen, self.inputs
         m_o, h_d, v_th, pp = forces
-        e = s.e_col[idx % self.ncol]
+        e = s.e_of(idx)
         vm = _rows(s.vm, idx)
         v = vm[:, 0] + vm[:, 1] * h
         m = vm[:, 2] + vm[:, 3] * h
@@ -219,7 +217,7 @@ class ColumnSearch:
         before = None
         for toes, _ in g.toe_chunks():
             n = toes.stop - toes.start
-            geo = self.sz._axes_geom(g, h, self.emb, self.fb, toes)
+            geo = _axes_geom(g, h, self.emb, self.fb, toes)
             w = section_weights(geo, i)
             v, m = w.dead()
             th = design_thrust(geo, i, p)
@@ -243,7 +241,7 @@ class ColumnSearch:
     def search(self, h):
         """Exact optimum at height ``h``: (geometry, stem bars, heel bars, toe bars, cost),
         or None where nothing on the grid holds."""
-        sz, pre, g = self.sz, self.pre, self.g
+        pre, g = self.pre, self.g
         inputs, rates, bars, emb, fb = self.inputs, self.rates, self.bars, self.emb, self.fb
         nc = self.ncol
         cs = rates.steel_usd_per_lb
@@ -296,12 +294,10 @@ class ColumnSearch:
             pairs = self.stem_of[ccol]
             new = np.unique(pairs[stem_pick[pairs] == -2])
             if new.size:
-                pk = sz._pair_table(g, self.codes["stem_first"][new], h, emb, fb, inputs, bars,
+                pk = _pair_table(g, self.codes["stem_first"][new], h, emb, fb, inputs, bars,
                                     "stem")
                 stem_pick[new] = pk
-                first = self.codes["stem_first"][new]
-                length = (h + pre["emb_ft"][first] + fb - pre["T_ft"][first]
-                          + pre["stem_anchor_ft"][first])
+                length = self._stem_bar_length(h, self.codes["stem_first"][new])
                 safe = np.maximum(pk, 0)
                 stem_lb[new] = np.where(pk >= 0, self.bars_w[safe] * (length + bars_db[safe]),
                                         np.inf)
@@ -328,7 +324,7 @@ class ColumnSearch:
                 cand, s_b, h_b, base, B = (x[fine] for x in (cand, s_b, h_b, base, B))
             if cand.size == 0:
                 continue
-            sub = sz._column(sz._geom(g, cand, h, emb, fb))
+            sub = _column(_geom(g, cand, h, emb, fb))
             st = stability(sub, inputs)
             ok = np.asarray(st.passes & sub.valid)[:, 0]
             if not ok.any():

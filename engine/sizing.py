@@ -39,7 +39,6 @@ import numpy as np
 
 from .bars import SIZES, bar_area_in2, bar_weight_plf
 from .checks import check_section
-from .column_search import ColumnSearch
 from .model import SectionDims
 from .section import BarArrays, DesignInputs, Reinforcement, SectionGeometry
 from .stability import stability
@@ -140,12 +139,9 @@ class Geometries:
     ``i = toe_index * ncol + column``, a *column* being one (heel, footing, stem) combination.
 
     Only the toe varies along a column's flat indices, so every value but the toe is held once
-    per column (``col``); :meth:`take` reads any value at flat indices, ``g[name]`` gives the
-    whole flat array (built on first use). ``axes`` are the broadcasting axes of the grid.
+    per column (``col``); :meth:`take` reads any value at flat indices. ``axes`` are the
+    broadcasting axes of the grid.
     """
-
-    COLUMN_KEYS = ("heel_ft", "footing_thickness_in", "stem_base_in", "stem_top_in",
-                   "embedment_ft", "stem_code", "heel_code", "T_index")
 
     def __init__(self, grid: SizingGrid):
         nt, nh = grid.toe_ft.size, grid.heel_ft.size
@@ -169,12 +165,11 @@ class Geometries:
                      "stem_top_in": (np.full((1, 1, 1, 1), grid.stem_top_min_in)
                                      if grid.stem_batter
                                      else grid.stem_base_in[None, None, None, :])}
-        self._full: dict[str, np.ndarray] = {}
 
     def copy(self) -> Geometries:
         out = object.__new__(Geometries)
         out.__dict__.update(self.__dict__)
-        out.col, out.axes, out._full = dict(self.col), dict(self.axes), {}
+        out.col, out.axes = dict(self.col), dict(self.axes)
         return out
 
     def __contains__(self, name) -> bool:
@@ -184,18 +179,10 @@ class Geometries:
         return np.asarray(idx) % self.ncol
 
     def take(self, name: str, idx):
-        """Values of ``name`` at flat indices ``idx`` (an array, an int or ``slice(None)``)."""
-        if isinstance(idx, slice):
-            return self[name][idx]
+        """Values of ``name`` at flat indices ``idx`` (an array or an int)."""
         if name == "toe_ft":
             return self.toe_axis[np.asarray(idx) // self.ncol]
         return self.col[name][np.asarray(idx) % self.ncol]
-
-    def __getitem__(self, name: str) -> np.ndarray:
-        if name not in self._full:
-            self._full[name] = (np.repeat(self.toe_axis, self.ncol) if name == "toe_ft"
-                                else np.tile(self.col[name], self.nt))
-        return self._full[name]
 
     def toe_chunks(self, n_toes: int = 4):
         """(toe slice, flat slice) pieces covering the grid, ``n_toes`` toes at a time."""
@@ -775,6 +762,8 @@ def design_table(inputs: DesignInputs, grid: SizingGrid, rates: CostRates, *,
     pre = precompute(g, inputs, rates, embedment_ft)
     if footing_width_max_ft is not None:
         alive &= pre["B_ft"] <= footing_width_max_ft + 1e-9
+    from .column_search import ColumnSearch  # (it builds on this module)
+
     columns = None
     if ColumnSearch.applies(screen, pre):
         columns = ColumnSearch(g, grid, codes, pre, toe_tab, screen, inputs, rates, bars,
