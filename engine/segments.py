@@ -29,7 +29,9 @@ the least cost of covering the stations up to j with the last segment (j-k .. j,
 transition checks the footing step against the previous segment. The optimum over the states at
 the last station, traced back, gives the segments. The search is exact over the candidate
 boundaries (the stations) and lowerings; it is linear in the number of stations and quadratic in
-the number of stations a segment may span.
+the number of stations a segment may span. :func:`plan_segments_many` solves several runs
+under the same rules together: the recursion steps a block of stations at a time (a block is
+shorter than the shortest segment, so no segment has both ends in it) through every run at once.
 """
 
 from __future__ import annotations
