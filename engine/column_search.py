@@ -245,7 +245,7 @@ class ColumnSearch:
         inputs, rates, bars, emb, fb = self.inputs, self.rates, self.bars, self.emb, self.fb
         nc = self.ncol
         cs = rates.steel_usd_per_lb
-        if self.least == "screen":
+        if self.least == "screen" and self.screen.valid_at(h):
             forces = self.screen._forces(h)
             if np.any(forces[2] < 0):  # an upward thrust component: the moments may not grow
                 return NotImplemented

@@ -408,6 +408,7 @@ class StabilityScreen:
         from .section import section_weights
 
         self.inputs = inputs
+        self._g = g
         self.emb, self.fb = emb, fb
         self.p = earth_pressure(inputs)
         hs = (4.0, 12.0, 7.0)
@@ -460,10 +461,6 @@ class StabilityScreen:
         same = all(np.allclose(np.broadcast_to(getattr(th, k), (2,))[0],
                                np.broadcast_to(getattr(th, k), (2,))[1], rtol=1e-12)
                    for k in ("horizontal_lb", "moment_lbft", "vertical_lb"))
-        self.linear = bool(lin and same)
-        # failures that hold at every greater height can be certified only where the thrust
-        # is the level-backfill one (no vertical part, convex in the height)
-        self.certify = self.linear and not inputs.extended
         # the embedment depends on the footing thickness alone: one value per thickness,
         # and one thickness per column
         n_T = int(T_index.max()) + 1
@@ -472,6 +469,16 @@ class StabilityScreen:
         self.e_vals = np.broadcast_to(g.take("embedment_ft", first) if "embedment_ft" in g
                                       else np.full(n_T, emb), (n_T,))
         self.e_col = T_index
+        # below a water level the soil is buoyant: its weight is linear in the height only
+        # where the level lies at or below the retained grade of every geometry (the design
+        # height plus the least embedment reaches the level), the fitting heights included
+        self.h_min = (-math.inf if inputs.water is None
+                      else float(inputs.water.level_ft) - float(np.min(self.e_vals)))
+        self.linear = bool(lin and same and hs[0] >= self.h_min)
+        self._probe, self._valid = probe, {}
+        # failures that hold at every greater height can be certified only where the thrust
+        # is the level-backfill one (no vertical part, convex in the height)
+        self.certify = self.linear and not inputs.extended
 
     def e_of(self, idx):
         """The embedment value (index into ``e_vals``) of the geometries ``idx``."""
@@ -494,9 +501,26 @@ class StabilityScreen:
         return (np.broadcast_to(th.moment_lbft, shape), np.broadcast_to(th.horizontal_lb, shape),
                 np.broadcast_to(th.vertical_lb, shape), np.broadcast_to(pp, shape))
 
+    def valid_at(self, h: float) -> bool:
+        """The screen holds at height ``h``: linear, within the heights where it is (with
+        [water], at and above ``h_min``), and its weights equal the engine's at ``h`` on the
+        probe spread over the grid (checked once per height)."""
+        if not self.linear or h < self.h_min - 1e-9:
+            return False
+        if h not in self._valid:
+            from .section import section_weights
+
+            w = section_weights(_geom(self._g, self._probe, h, self.emb, self.fb), self.inputs)
+            v, m = w.dead()
+            p = self._probe
+            self._valid[h] = bool(
+                np.allclose(v, self.v0[p] + self.v1[p] * h, rtol=1e-9, atol=1e-6)
+                and np.allclose(m, self.m0[p] + self.m1[p] * h, rtol=1e-9, atol=1e-6))
+        return self._valid[h]
+
     def passes(self, h: float, idx=slice(None)) -> np.ndarray:
         """The screen at height ``h`` for the geometries ``idx`` (all by default)."""
-        if not self.linear:
+        if not self.valid_at(h):
             return np.ones(self.B[idx].shape, bool)
         i = self.inputs
         m_o, h_d, v_th, pp = self._forces(h)
@@ -527,7 +551,7 @@ class StabilityScreen:
         not positive stays negative; the slope of the driving side is taken by a backward
         difference, which is no more than its true slope."""
         out = np.zeros(np.shape(idx), bool)
-        if not self.certify or h <= 2 * self.DH:
+        if not self.certify or h <= 2 * self.DH or not self.valid_at(h):
             return out
         i = self.inputs
         m_o, h_d, _, pp = self._forces(h)

@@ -133,7 +133,7 @@ MODELS = {
     "efp": {},
     "coulomb": {"friction_angle_deg": 32.0, "active_method": "coulomb",
                 "wall_friction_deg": 15.0},
-    "water": {"water": WaterTable(2.0)},
+    "water": {"water": WaterTable(3.0)},  # above the retained grade at the least heights
     "seismic": {"seismic": SeismicLoad(kh=0.2)},
     "mononobe-okabe": {"friction_angle_deg": 32.0,
                        "seismic": SeismicLoad(kh=0.2, method="mononobe-okabe")},
@@ -174,3 +174,27 @@ def test_column_search_equals_the_whole_grid_search(soil, resists, width, model,
         assert (a.section is None) == (b.section is None)
         if b.section is not None:
             assert a.cost_per_ft == pytest.approx(b.cost_per_ft, rel=1e-12)
+
+
+def test_water_above_the_retained_grade_keeps_the_exact_optimum():
+    """Where the water level stands above the retained grade (the least heights) the soil's
+    weight is not linear in the height, so no linear screen may discard a section there: the
+    least cost equals the exhaustive search's. A regression case: such a screen once
+    discarded the optimum at 0.5 and 1.0 ft (invented soil)."""
+    inputs = DesignInputs(unit_weight_pcf=124.0, friction_coefficient=0.35,
+                          allowable_bearing_psf=4400, active_efp_pcf=31.5, passive_efp_pcf=356,
+                          surcharge_psf=100.0, min_embedment_ft=1.5, water=WaterTable(3.0))
+    grid = SizingGrid(
+        toe_ft=np.array([0.0, 0.25, 0.75, 1.0]), heel_ft=np.array([0.5, 0.75, 1.5]),
+        footing_thickness_in=np.array([12.0, 14.0, 15.0]), stem_base_in=np.array([8.0, 9.0]),
+        stem_top_min_in=8.0, stem_batter=False, bar_sizes=np.array([4, 5, 6]),
+        bar_spacings_in=np.array([9.0, 12.0, 13.0, 16.0]))
+    kw = dict(embedment_ft=1.5, freeboard_ft=0.5, footing_cover_ft=0.5)
+    table = design_table(inputs, grid, CostRates(), max_height_ft=1.0, increment_ft=0.5, **kw)
+    assert len(table.choices) == 2
+    for c in table.choices:
+        ref_cost, ref = exhaustive_optimum(inputs, grid, CostRates(), h=c.design_height_ft,
+                                           emb=kw["embedment_ft"], fb=kw["freeboard_ft"],
+                                           footing_cover_ft=kw["footing_cover_ft"])
+        assert ref is not None and c.section is not None
+        assert c.cost_per_ft == pytest.approx(ref_cost, rel=1e-9)
