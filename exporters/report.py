@@ -19,6 +19,7 @@ A failing segment or check is printed as failing.
 from __future__ import annotations
 
 import datetime as _dt
+import functools
 import io
 import math
 from dataclasses import dataclass
@@ -527,22 +528,43 @@ class _Writer:
         p.ln(1.5)
 
 
-def _toc_pages(n_entries: int) -> int:
-    return max(1, math.ceil((n_entries + 4) / 48))
+TOC_ROW_MM = 4.6  # height of a contents row, at most
+TOC_ROW_MIN_MM = 2.2  # and at least (the rows shrink to fit the pages reserved)
 
 
-def _render_toc(pdf, outline):
+def _toc_pages(pdf, n_entries: int) -> int:
+    """Pages the contents need at full row height (the title takes the top of the first)."""
+    first = math.floor((pdf.page_break_trigger - (MARGIN_MM + 16)) / TOC_ROW_MM)
+    later = math.floor((pdf.page_break_trigger - pdf.t_margin) / TOC_ROW_MM)
+    return 1 if n_entries <= first else 1 + math.ceil((n_entries - first) / later)
+
+
+def _render_toc(pdf, outline, *, pages: int):
+    """The contents on exactly ``pages`` pages (what ``insert_toc_placeholder`` reserved):
+    rows shrink to fit when there are more entries than the pages hold at full height, and
+    blank pages follow when there are fewer."""
+    start = pdf.page
     pdf.set_xy(MARGIN_MM, MARGIN_MM + 6)
     pdf.set_font(FONT, "B", 14)
     pdf.cell(0, 8, "Contents", new_x="LMARGIN", new_y="NEXT")
     pdf.ln(2)
+    first = pdf.page_break_trigger - pdf.get_y()
+    later = pdf.page_break_trigger - pdf.t_margin
+    row = TOC_ROW_MM
+    while row > TOC_ROW_MIN_MM and (
+            math.floor(first / row) + (pages - 1) * math.floor(later / row) < len(outline)):
+        row = round(row - 0.1, 2)
+    scale = row / TOC_ROW_MM
     for entry in outline:
-        pdf.set_font(FONT, "B" if entry.level == 0 else "", 9 if entry.level == 0 else 8.5)
+        size = (9 if entry.level == 0 else 8.5) * max(scale, 0.6)
+        pdf.set_font(FONT, "B" if entry.level == 0 else "", size)
         indent = 6 * entry.level
         pdf.set_x(MARGIN_MM + indent)
         w = pdf.w - 2 * MARGIN_MM - indent - 12
-        pdf.cell(w, 4.6, entry.name, link=pdf.add_link(page=entry.page_number))
-        pdf.cell(12, 4.6, str(entry.page_number), align="R", new_x="LMARGIN", new_y="NEXT")
+        pdf.cell(w, row, entry.name, link=pdf.add_link(page=entry.page_number))
+        pdf.cell(12, row, str(entry.page_number), align="R", new_x="LMARGIN", new_y="NEXT")
+    while pdf.page < start + pages - 1:
+        pdf.add_page()
 
 
 def _given(site, wall_spec, table: str, key: str) -> bool:
@@ -658,11 +680,14 @@ def write_report(site, sd, path, *, diff=None, date: _dt.date | None = None) -> 
 
     # ---- contents
     pdf.add_page()
-    n_entries = 6 + n_walls + len(marks) + (1 if diff is not None else 0)
-    pdf.insert_toc_placeholder(_render_toc, pages=_toc_pages(n_entries))
+    # the outline: three chapters and the revision, a chapter per section mark, and three
+    # entries of the basis and one per wall of the summary
+    n_entries = 6 + n_walls + len(cases) + (1 if diff is not None else 0)
+    toc_pages = _toc_pages(pdf, n_entries)
+    pdf.insert_toc_placeholder(functools.partial(_render_toc, pages=toc_pages),
+                               pages=toc_pages)  # and a page break: the basis starts a page
 
     # ---- design basis
-    pdf.add_page()
     wr.h1("Design basis")
     wr.para("Resolved values per wall (site-file values, per-wall overrides and the "
             "documented defaults), with where each comes from.", size=8.5, style="I")

@@ -190,3 +190,34 @@ def test_revision_chapter_with_a_diff(tmp_path):
     flat = _flat(text)
     assert "Revision: changes against the earlier run" in flat
     assert "no changes: every segment and retained height matches" in flat
+
+
+@pytest.mark.parametrize("n_entries,reserved", [(3, 1), (3, 3), (60, 1), (150, 2), (48, 2)])
+def test_contents_fill_exactly_the_pages_reserved(n_entries, reserved):
+    """However many chapters a site gives, the contents end on the last page reserved for
+    them (fpdf2 refuses anything else): rows shrink when the pages are full, blank pages
+    follow when they are not, and every entry is listed with its page."""
+    import functools
+
+    pdf = rp._make_pdf("Invented site", "test")
+    pdf.add_page()
+    pdf.insert_toc_placeholder(functools.partial(rp._render_toc, pages=reserved),
+                               pages=reserved)  # and a page break: the first chapter's page
+    for i in range(n_entries):
+        if i:
+            pdf.add_page()
+        pdf.start_section(f"Chapter {i + 1}", level=0)
+        pdf.set_font(rp.FONT, "", 9)
+        pdf.cell(0, 5, f"text of chapter {i + 1}")
+    reader = PdfReader(io.BytesIO(bytes(pdf.output())))
+    assert len(reader.pages) == reserved + n_entries
+    contents = "\n".join(reader.pages[k].extract_text() for k in range(reserved))
+    for i in range(n_entries):
+        assert re.search(rf"Chapter {i + 1}\s*{i + 1 + reserved}\b", contents)
+
+
+def test_contents_pages_estimate_holds_the_outline():
+    pdf = rp._make_pdf("Invented site", "test")
+    pdf.add_page()
+    one = rp._toc_pages(pdf, 1)
+    assert one == 1 and rp._toc_pages(pdf, 200) >= 4  # about 50 rows a page at full height
