@@ -4,6 +4,7 @@ stretch, the DXF gets a revision cloud around it, and ``--compare`` writes diff.
 from __future__ import annotations
 
 import math
+import re
 
 import ezdxf
 import numpy as np
@@ -151,3 +152,21 @@ def test_cloud_arcs_meet_on_the_outline_and_bulge_outward():
     start = (first[0] + first[2] * math.cos(math.radians(first[3])),
              first[1] + first[2] * math.sin(math.radians(first[3])))
     assert start == pytest.approx(prev_end)  # closed
+
+
+def test_compare_with_an_unchanged_run_finds_nothing(runs, tmp_path):
+    """The same site designed again with --compare against its first run: no segment, field
+    or retained height changed and every quantity's delta is exactly zero (the new run is
+    compared as written, with the same rounding as the earlier run's files)."""
+    out1, _, _ = runs
+    site1 = out1.parent / "rev1" / "site.toml"
+    out3 = tmp_path / "out3"
+    r = CliRunner().invoke(main, ["design", str(site1), "--out", str(out3), "--compare",
+                                  str(out1)])
+    assert r.exit_code == 0, r.output
+    totals = re.findall(r"(\w+) ([\d.]+) -> ([\d.]+) \(([-+][\d,.]+)\)", r.output)
+    assert totals and all(old == new for _, old, new, _ in totals), totals
+    d = diff_runs(out1, out3)
+    assert len(d.rows) == 0 and len(d.height_changes) == 0
+    assert len(d.quantities) > 0 and (d.quantities["delta"] == 0).all()
+    assert pd.read_csv(out3 / "diff.csv").empty

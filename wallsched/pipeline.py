@@ -133,7 +133,10 @@ def write_design(site, sd, out: Path, *, drawings: bool = True, compare_dir=None
     if compare_dir is not None:
         from .exporters.diff import RunTables, diff_tables, read_run, write_diff
 
-        new = RunTables.from_frames(schedule, stations_frame(sd.walls))
+        # the new run as written (the same rounding as the earlier run's files), so that an
+        # unchanged wall compares equal
+        written = read_run(out)
+        new = RunTables(written.schedule, written.stations, None)
         d = diff_tables(read_run(compare_dir), new)
         write_diff(d, out / "diff.csv")
         lines += d.summary_lines()
