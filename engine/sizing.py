@@ -432,16 +432,18 @@ class StabilityScreen:
             va, ma = (_flat(x, sh) for x in wa.dead())
             vb, mb = (_flat(x, sh) for x in wb.dead())
             v1, m1 = (vb - va) / d, (mb - ma) / d
-            self.v1[flat], self.m1[flat] = v1, m1
-            self.v0[flat], self.m0[flat] = va - v1 * hs[0], ma - m1 * hs[0]
+            v0, m0 = va - v1 * hs[0], ma - m1 * hs[0]
+            self.v1[flat], self.m1[flat], self.v0[flat], self.m0[flat] = v1, m1, v0, m0
+            # the surcharge's weight does not change with the height (compared on the axes
+            # its terms have)
+            lin = lin and all(np.allclose(getattr(wa.surcharge, k), getattr(wb.surcharge, k),
+                                          rtol=1e-12) for k in ("lb", "moment_lbft"))
             qa, qma = _flat(wa.surcharge.lb, sh), _flat(wa.surcharge.moment_lbft, sh)
-            # the surcharge's weight does not change with the height
-            lin = lin and np.allclose(qa, _flat(wb.surcharge.lb, sh), rtol=1e-12) and \
-                np.allclose(qma, _flat(wb.surcharge.moment_lbft, sh), rtol=1e-12)
             self.vq[flat], self.mq[flat] = qa, qma
-            self.B[flat] = _flat(geo_a.footing_width_ft, sh)
-            rows = [x[flat].reshape(sh[0], -1) for x in (
-                self.v0, self.v1, self.m0, self.m1, self.vq, self.mq, self.B)]
+            B = _flat(geo_a.footing_width_ft, sh)
+            self.B[flat] = B
+            rows = [x.reshape(sh[0], -1) for x in (
+                (v0, v1, m0, m1, B, qa, qma) if inputs.surcharge_resists else (v0, v1, m0, m1, B))]
             self.toe_monotone = self.toe_monotone and _rows_nondecreasing(rows, last_rows)
             last_rows = [r[-1:] for r in rows]
         # linearity verified at a third height on a spread of the grid
