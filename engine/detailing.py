@@ -140,7 +140,10 @@ def class_b_lap_in(size: int, **kw) -> float:
 
 
 def lapped_pieces(run_in: float, lap_in: float, stock_in: float) -> tuple[int, float]:
-    """Equal pieces covering ``run_in`` with Class B laps between them: (pieces, piece length)."""
+    """Equal pieces covering ``run_in`` with Class B laps between them: (pieces, piece length);
+    none where there is no run (a segment shorter than its end covers)."""
+    if run_in <= 0:
+        return 0, 0.0
     if run_in <= stock_in:
         return 1, run_in
     if lap_in >= stock_in:

@@ -76,6 +76,18 @@ def test_lapped_pieces_fit_stock():
     assert piece <= 480.0
     assert n * piece - (n - 1) * 30.0 == pytest.approx(1000.0)  # pieces less laps cover the run
     assert dt.lapped_pieces(300.0, 30.0, 480.0) == (1, 300.0)
+    assert dt.lapped_pieces(-3.6, 30.0, 480.0) == (0, 0.0)  # no run between the end covers
+
+
+def test_segment_shorter_than_its_end_covers_has_no_negative_bars():
+    """A 0.2-ft segment (a one-station wall beside a break point) leaves no room between the
+    3-in end covers: no bar runs along it and none has a negative length or weight."""
+    seg = make_design().segments[0]
+    short = replace(seg, station_end_ft=seg.station_start_ft + 0.2)
+    bars = dt.segment_bar_list(short)
+    assert (bars["count"] >= 0).all() and (bars["length_ft"] >= 0).all()
+    assert (bars["weight_lb"] >= 0).all()
+    assert bars[bars["mark"].isin(["L1", "L2", "H1", "H2"])]["weight_lb"].sum() == 0
 
 
 def test_weights_recompute_from_astm_unit_weights():
