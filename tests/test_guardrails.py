@@ -8,7 +8,7 @@ import numpy as np
 from sitekit import SOIL, make_site
 
 from wallsched.cli import main
-from wallsched.guardrails import height_jumps, length_warning, soil_warnings
+from wallsched.guardrails import height_jumps, length_warning, short_wall_warning, soil_warnings
 
 
 def test_height_jump_between_adjacent_stations():
@@ -34,6 +34,17 @@ def test_friction_and_bearing_limits():
 def test_wall_longer_than_a_mile():
     assert length_warning("A", 5280.0) == []  # 5,280 ft in a mile (exact definition)
     assert "more than a mile" in length_warning("A", 5280.5)[0]
+
+
+def test_wall_needed_over_less_than_the_least_segment():
+    st = np.array([0.0, 5.0, 5.2, 10.0, 15.0])
+    h = np.array([0.2, 0.3, 3.0, 0.2, 0.1])  # one station needs a wall, its neighbour 0.2 ft
+    lines = short_wall_warning("A", st, h, 0.5, 10.0)
+    assert len(lines) == 1 and "needed over only 0.20 ft (0+05.00 to 0+05.20)" in lines[0]
+    assert short_wall_warning("A", st, np.array([3.0, 3.0, 3.0, 3.0, 0.1]), 0.5, 10.0) == []
+    assert short_wall_warning("A", st, np.zeros(5), 0.5, 10.0) == []  # no wall at all
+    # a short wall drawn as such: needed over its whole (8 ft) alignment
+    assert short_wall_warning("A", np.array([0.0, 4.0, 8.0]), np.full(3, 3.0), 0.5, 10.0) == []
 
 
 def test_stations_prints_the_warnings(runner, tmp_path: Path):

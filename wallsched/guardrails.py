@@ -10,7 +10,9 @@ commands print with the other warnings. The limits are trade judgement, stated h
 - an allowable bearing above ``BEARING_HIGH_PSF`` without a ``[soil] source`` note (above the
   presumptive values of IBC 2021 Table 1806.2 for any soil class, 12,000 psf being the
   crystalline-bedrock value);
-- a wall longer than ``WALL_LENGTH_LONG_FT`` (one mile; more likely two walls or a unit error).
+- a wall longer than ``WALL_LENGTH_LONG_FT`` (one mile; more likely two walls or a unit error);
+- a wall needed over less than ``segment_min_ft`` of a longer alignment (a spike in the
+  grades is more likely than a wall that short; it is designed as one segment that short).
 """
 
 from __future__ import annotations
@@ -75,6 +77,27 @@ def length_warning(wall: str, length_ft: float,
     return []
 
 
+def short_wall_warning(wall: str, station_ft: np.ndarray, retained_height_ft: np.ndarray,
+                       min_retained_height_ft: float, segment_min_ft: float) -> list[str]:
+    """One line for a wall needed (retained height at least ``min_retained_height_ft``) over
+    less than ``segment_min_ft``, from the first to the last station that needs it (with one
+    neighbour where only one station does, as the design takes it)."""
+    st = np.asarray(station_ft, dtype=float)
+    need = np.nonzero(np.asarray(retained_height_ft, dtype=float) >= min_retained_height_ft)[0]
+    if need.size == 0 or st.size < 2:
+        return []
+    first, last = int(need[0]), int(need[-1])
+    if first == last:
+        first, last = (first - 1, last) if first > 0 else (first, last + 1)
+    length = st[last] - st[first]
+    if length >= segment_min_ft - 1e-9 or (first == 0 and last == st.size - 1):
+        return []  # long enough, or a short wall drawn as such (its whole alignment)
+    return [f"wall {wall!r} is needed over only {length:.2f} ft ({format_station(st[first])} "
+            f"to {format_station(st[last])}), less than segment_min_ft {segment_min_ft:g}; it "
+            "is designed as one segment that short: check the grades there, or extend the "
+            "wall"]
+
+
 def _walls(ids: Sequence[str]) -> str:
     return ("wall " if len(ids) == 1 else "walls ") + ", ".join(repr(w) for w in ids)
 
@@ -83,7 +106,10 @@ def site_warnings(site, walls) -> list[str]:
     """Every guard-rail line for a loaded site and its sampled walls (``WallStations``,
     in site-file order)."""
     lines = soil_warnings((spec.id, dict(spec.soil)) for spec in site.walls)
-    for ws in walls:
+    for spec, ws in zip(site.walls, walls, strict=True):
         lines += length_warning(ws.wall, ws.length_ft)
         lines += height_jumps(ws.wall, ws.station_ft, ws.retained_height_ft)
+        c = spec.criteria
+        lines += short_wall_warning(ws.wall, ws.station_ft, ws.retained_height_ft,
+                                    c["min_retained_height_ft"], c["segment_min_ft"])
     return lines
