@@ -202,34 +202,38 @@ class ColumnSearch:
             act = act[lo[act] < hi[act]]
         return lo
 
-    def _grid_least_toes(self, h):
-        """Per column, the least toe index passing the static overturning and sliding checks
-        at ``h`` (as :func:`~.stability.stability` makes them, with the screen's slack), from
-        the engine's weights and thrust over the whole grid a few toes at a time; None where
-        in some column a passing toe is followed by a failing one."""
+    def _grid_ot_sliding(self, h, toes):
+        """The static overturning and sliding checks at ``h`` (as
+        :func:`~.stability.stability` makes them, with the screen's slack) for the toes
+        ``toes`` of every column, from the engine's weights and thrust: (toes, columns)."""
         from .pressure import design_thrust, passive_resistance_lb
         from .section import section_weights
 
         g, i, p = self.g, self.inputs, self.screen.p
-        nc = self.ncol
         k = 1.0 - self.screen.SLACK
-        first = np.full(nc, -1, np.int64)
+        n = toes.stop - toes.start
+        geo = _axes_geom(g, h, self.emb, self.fb, toes)
+        w = section_weights(geo, i)
+        v, m = w.dead()
+        th = design_thrust(geo, i, p)
+        v = v + th.vertical_lb
+        m = m + th.vertical_lb * geo.footing_width_ft
+        if i.surcharge_resists:
+            v, m = v + w.surcharge.lb, m + w.surcharge.moment_lbft
+        pp = (passive_resistance_lb(p.passive_efp_pcf, i.passive_neglect_ft,
+                                    geo.embedment_ft) if i.use_passive else 0.0)
+        ok = (m >= i.fs_overturning * th.moment_lbft * k) & (
+            i.friction_coefficient * v + pp >= i.fs_sliding * th.horizontal_lb * k)
+        return np.broadcast_to(ok, (n, *g.shape[1:])).reshape(n, self.ncol)
+
+    def _first_passing_toes(self, passing):
+        """Per column, the least toe index passing ``passing(toes, flat)`` (a (toes, columns)
+        boolean array for a few toes at a time, over the whole grid); None where in some
+        column a passing toe is followed by a failing one."""
+        first = np.full(self.ncol, -1, np.int64)
         before = None
-        for toes, _ in g.toe_chunks():
-            n = toes.stop - toes.start
-            geo = _axes_geom(g, h, self.emb, self.fb, toes)
-            w = section_weights(geo, i)
-            v, m = w.dead()
-            th = design_thrust(geo, i, p)
-            v = v + th.vertical_lb
-            m = m + th.vertical_lb * geo.footing_width_ft
-            if i.surcharge_resists:
-                v, m = v + w.surcharge.lb, m + w.surcharge.moment_lbft
-            pp = (passive_resistance_lb(p.passive_efp_pcf, i.passive_neglect_ft,
-                                        geo.embedment_ft) if i.use_passive else 0.0)
-            ok = (m >= i.fs_overturning * th.moment_lbft * k) & (
-                i.friction_coefficient * v + pp >= i.fs_sliding * th.horizontal_lb * k)
-            ok = np.broadcast_to(ok, (n, *g.shape[1:])).reshape(n, nc)
+        for toes, flat in self.g.toe_chunks():
+            ok = passing(toes, flat)
             rows = ok if before is None else np.concatenate([before, ok])
             if np.any(rows[1:] < rows[:-1]):
                 return None
@@ -245,15 +249,19 @@ class ColumnSearch:
         inputs, rates, bars, emb, fb = self.inputs, self.rates, self.bars, self.emb, self.fb
         nc = self.ncol
         cs = rates.steel_usd_per_lb
-        if self.least == "screen" and self.screen.valid_at(h):
+        if self.screen.valid_at(h):
             forces = self.screen._forces(h)
-            if np.any(forces[2] < 0):  # an upward thrust component: the moments may not grow
-                return NotImplemented
             self._thrust_has_v = bool(np.any(forces[2] != 0))
-            ptr = self._least_toes(h, forces, self._hint)
+        if self.least == "screen" and self.screen.valid_at(h) and not np.any(forces[2] < 0):
+            ptr = self._least_toes(h, forces, self._hint)  # (an upward thrust: not monotone)
             self._hint = ptr.copy()
         else:
-            ptr = self._grid_least_toes(h)
+            if self.screen.valid_at(h):  # the screen over the whole grid, then the run check
+                ptr = self._first_passing_toes(
+                    lambda toes, flat: self._ot_sliding(h, forces, np.arange(
+                        flat.start, flat.stop)).reshape(toes.stop - toes.start, -1))
+            else:
+                ptr = self._first_passing_toes(lambda toes, _: self._grid_ot_sliding(h, toes))
             if ptr is None:  # the passing toes are not a run from a least toe up
                 return NotImplemented
         heel_pick = self._heel_picks(h)
