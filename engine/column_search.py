@@ -4,9 +4,10 @@ A *column* of the grid is one (heel, footing thickness, stem) combination with e
 length. The toes of a column that pass the static overturning and sliding checks are the
 ones from a least toe up: where the stability screen's weights are linear in the height and,
 like their moments about the toe, never decrease as the toe grows (verified on the whole
-grid, not assumed), the least toe is found by bisection on the screen; elsewhere (a battered
-stem, a backslope) from the engine's weights and thrust over the whole grid at that height,
-the run structure verified for every column. The cost lower bound of a candidate is linear
+grid, not assumed), the least toe is found by bisection on the screen; where the screen
+holds but is not monotone, from the screen over the whole grid; elsewhere (a battered stem,
+a backslope) from the engine's weights and thrust over the whole grid at that height; in
+both the run structure is verified for every column. The cost lower bound of a candidate is linear
 and increasing in its toe, so each column is a sorted list of candidates and the search is a
 merge of the columns by lower bound, in blocks, until no column's next bound is below the
 best full candidate found: branch and bound as in :mod:`.sizing`, over far fewer candidates.
