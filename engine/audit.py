@@ -49,17 +49,8 @@ def _bar(spec):
 
 def _polygon(pts):
     """Area and centroid x of a simple polygon (shoelace), any orientation."""
-    a2 = cx = 0.0
-    n = len(pts)
-    for i in range(n):
-        x1, y1 = pts[i]
-        x2, y2 = pts[(i + 1) % n]
-        cross = x1 * y2 - x2 * y1
-        a2 += cross
-        cx += (x1 + x2) * cross
-    if abs(a2) < 1e-15:
-        return 0.0, 0.0
-    return abs(a2) / 2.0, cx / (3.0 * a2)
+    area, cx, _ = _polygon_y(pts)
+    return area, cx
 
 
 def _polygon_y(pts):
