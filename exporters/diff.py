@@ -504,15 +504,8 @@ def height_change_ranges(old, new, wall: str, tol_ft: float) -> list[dict]:
     Both are interpolated linearly onto the union of their stations; between two stations the
     difference is linear, so the ends of a range are where it crosses ``tol_ft``.
     """
-    def series(frame):
-        if frame is None:
-            return np.empty(0), np.empty(0)
-        f = frame[frame["wall"] == wall].sort_values("station_ft", kind="stable")
-        f = f.drop_duplicates("station_ft", keep="last")
-        return f["station_ft"].to_numpy(float), f["retained_height_ft"].to_numpy(float)
-
-    so, ho = series(old)
-    sn, hn = series(new)
+    so, ho = _height_series(old, wall)
+    sn, hn = _height_series(new, wall)
     grid = np.union1d(so, sn)
     if grid.size == 0:
         return []
@@ -740,15 +733,20 @@ def diff_tables(old: RunTables, new: RunTables, *,
     )
 
 
+def _height_series(frame, wall: str) -> tuple[np.ndarray, np.ndarray]:
+    """A wall's (station, retained height) from a stations table, by station, one per station
+    (the last where a station repeats); empty without a table."""
+    if frame is None:
+        return np.empty(0), np.empty(0)
+    f = frame[frame["wall"] == wall].sort_values("station_ft", kind="stable")
+    f = f.drop_duplicates("station_ft", keep="last")
+    return f["station_ft"].to_numpy(float), f["retained_height_ft"].to_numpy(float)
+
+
 def _height_at_max(old, new, wall: str, a: float, b: float) -> tuple[float, float]:
     """Old and new retained height at the station of largest difference within [a, b]."""
-    def series(frame):
-        f = frame[frame["wall"] == wall].sort_values("station_ft", kind="stable")
-        f = f.drop_duplicates("station_ft", keep="last")
-        return f["station_ft"].to_numpy(float), f["retained_height_ft"].to_numpy(float)
-
-    so, ho = series(old)
-    sn, hn = series(new)
+    so, ho = _height_series(old, wall)
+    sn, hn = _height_series(new, wall)
     grid = np.union1d(so, sn)
     grid = np.union1d(grid[(grid >= a) & (grid <= b)], [a, b])
     go, gn = np.interp(grid, so, ho), np.interp(grid, sn, hn)
