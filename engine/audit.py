@@ -54,7 +54,10 @@ def _polygon(pts):
 
 
 def _polygon_y(pts):
-    """Area and centroid (x, y) of a simple polygon (shoelace); zeros when degenerate."""
+    """Area and centroid (x, y) of a simple polygon (shoelace); zeros when degenerate.
+
+    The shoelace sums: 2A = sum(x_i y_(i+1) - x_(i+1) y_i), centroid = sums / (3 * 2A)
+    (common practice; exact plane geometry)."""
     a2 = cx = cy = 0.0
     n = len(pts)
     for k in range(n):
