@@ -28,8 +28,8 @@ import math
 import numpy as np
 
 from .bars import bar_weight_plf
+from .grid_sections import as_column, at_most, axes_geometry, grid_geometry, pair_table
 from .section import BarArrays, SectionGeometry
-from .sizing import _axes_geom, _column, _geom, _le, _pair_table
 from .stability import stability
 from .strength import (
     heel_strength,
@@ -101,7 +101,7 @@ class ColumnSearch:
         self.heel_phi_mn = np.broadcast_to(r.phi_mn_lbft, shape).copy()
         self.heel_phi_vn = np.broadcast_to(r.phi_vn_lb, shape).copy()
         self.heel_fixed = np.broadcast_to(
-            _le(r.as_min_in2, r.as_in2) & _le(r.spacing_in, r.s_max_in), shape).copy()
+            at_most(r.as_min_in2, r.as_in2) & at_most(r.spacing_in, r.s_max_in), shape).copy()
         first = self.codes["heel_first"]
         self.heel_T_of = np.searchsorted(T_vals, g.col["footing_thickness_in"][first])
 
@@ -119,23 +119,23 @@ class ColumnSearch:
         r = stem_strength(geo, inp, bb)
         tb = geo.stem_base_in
         shape = (first.size, bars.size.size)
-        fixed = (_le(min_flexural_steel_in2(tb), r.as_in2)
-                 & _le(bars.spacing_in[None, :], max_flexural_spacing_in(tb))
-                 & _le(r.ldh_in, r.ldh_available_in))
+        fixed = (at_most(min_flexural_steel_in2(tb), r.as_in2)
+                 & at_most(bars.spacing_in[None, :], max_flexural_spacing_in(tb))
+                 & at_most(r.ldh_in, r.ldh_available_in))
         self.stem_fixed = np.broadcast_to(fixed, shape)
         self.stem_phi_mn = np.broadcast_to(r.phi_mn_lbft, shape)
 
     # ------------------------------------------------------------------------ one height --
     def _pair_geoms(self, first, h):
-        return _column(_geom(self.g, first, h, self.emb, self.fb))
+        return as_column(grid_geometry(self.g, first, h, self.emb, self.fb))
 
     def _heel_picks(self, h):
         """Cheapest passing heel bars per heel pair (-1 where none), exact."""
         one = BarArrays(self.bars.size[:1], self.bars.spacing_in[:1])
         r = heel_strength(self._pair_geoms(self.codes["heel_first"], h), self.inputs, one)
         ti = self.heel_T_of
-        ok = (_le(r.mu_lbft, _rows(self.heel_phi_mn, ti))
-              & _le(r.vu_lb, _rows(self.heel_phi_vn, ti)) & _rows(self.heel_fixed, ti))
+        ok = (at_most(r.mu_lbft, _rows(self.heel_phi_mn, ti))
+              & at_most(r.vu_lb, _rows(self.heel_phi_vn, ti)) & _rows(self.heel_fixed, ti))
         return _cheapest(ok, self.bars_w[None, :])
 
     def _stem_bounds(self, h):
@@ -145,7 +145,7 @@ class ColumnSearch:
         geo = self._pair_geoms(first, h)
         one = BarArrays(self.bars.size[:1], self.bars.spacing_in[:1])
         mu = stem_strength(geo, self.inputs, one).mu_lbft  # the base moment: no bar in it
-        ok = self.stem_fixed & _le(mu, self.stem_phi_mn)
+        ok = self.stem_fixed & at_most(mu, self.stem_phi_mn)
         length = self._stem_bar_length(h, first)
         lb = self.bars_w[None, :] * (length[:, None] + self.bars.diameter_in[None, :])
         return np.min(np.where(ok, lb, np.inf), axis=1)
@@ -213,7 +213,7 @@ class ColumnSearch:
         g, i, p = self.g, self.inputs, self.screen.p
         k = 1.0 - self.screen.SLACK
         n = toes.stop - toes.start
-        geo = _axes_geom(g, h, self.emb, self.fb, toes)
+        geo = axes_geometry(g, h, self.emb, self.fb, toes)
         w = section_weights(geo, i)
         v, m = w.dead()
         th = design_thrust(geo, i, p)
@@ -303,7 +303,7 @@ class ColumnSearch:
             pairs = self.stem_of[ccol]
             new = np.unique(pairs[stem_pick[pairs] == -2])
             if new.size:
-                pk = _pair_table(g, self.codes["stem_first"][new], h, emb, fb, inputs, bars,
+                pk = pair_table(g, self.codes["stem_first"][new], h, emb, fb, inputs, bars,
                                     "stem")
                 stem_pick[new] = pk
                 length = self._stem_bar_length(h, self.codes["stem_first"][new])
@@ -333,15 +333,15 @@ class ColumnSearch:
                 cand, s_b, h_b, base, B = (x[fine] for x in (cand, s_b, h_b, base, B))
             if cand.size == 0:
                 continue
-            sub = _column(_geom(g, cand, h, emb, fb))
+            sub = as_column(grid_geometry(g, cand, h, emb, fb))
             st = stability(sub, inputs)
             ok = np.asarray(st.passes & sub.valid)[:, 0]
             if not ok.any():
                 continue
             tr = toe_strength(sub, inputs, one_bar, st)
             ti = self.toe_tab["T_of"][cand % nc]
-            t_ok = (_le(tr.mu_lbft, _rows(self.toe_tab["phi_mn"], ti))
-                    & _le(tr.vu_lb, _rows(self.toe_tab["phi_vn"], ti))
+            t_ok = (at_most(tr.mu_lbft, _rows(self.toe_tab["phi_mn"], ti))
+                    & at_most(tr.vu_lb, _rows(self.toe_tab["phi_vn"], ti))
                     & _rows(self.toe_tab["fixed_ok"], ti) & ok[:, None])
             t_cost = np.where(t_ok, self.bars_w[None, :] * (B - 0.5)[:, None], np.inf)
             t_pick = np.argmin(t_cost, axis=1)

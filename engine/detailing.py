@@ -42,31 +42,23 @@ import numpy as np
 import pandas as pd
 
 from .bars import A615, BarSpec
-from .model import SectionDims, Segment, WallDesign
+from .model import (
+    REBAR_COLUMNS,
+    BarDetail,
+    SectionDetail,
+    SectionDims,
+    Segment,
+    WallDesign,
+)
 
 BAR_STOCK_FT = 40.0  # longest bar bought and handled without a lap (common practice)
 COVER_EARTH_IN = 3.0  # cast against and permanently exposed to earth (ACI 318-19 Table 20.5.1.3.1)
 END_COVER_IN = 3.0  # segment ends: bulkheads against the next pour (common practice)
 
-REBAR_COLUMNS = ["wall", "segment", "mark", "size", "spacing_in", "count", "length_ft", "shape",
-                 "weight_lb"]
-
 # Shape codes (our own): the bar as drawn in the typical section
 SHAPE_STRAIGHT = "STR"
 SHAPE_HOOK90 = "HK90"  # one 90-degree standard hook
 SHAPE_HOOK180 = "HK180"  # one 180-degree standard hook
-
-DESCRIPTIONS = {
-    "S1": "stem vertical, earth face, hooked into footing",
-    "S2": "stem vertical, earth face, lapped on dowel D1",
-    "D1": "dowel, hooked in footing, Class B lap into stem",
-    "F1": "heel top bars, transverse",
-    "F2": "toe bottom bars, transverse",
-    "L1": "footing longitudinal, top mat",
-    "L2": "footing longitudinal, bottom mat",
-    "H1": "stem horizontal, earth face",
-    "H2": "stem horizontal, front face",
-}
 
 
 # ---------------------------------------------------------------- ACI 318-19 bar geometry
@@ -333,9 +325,24 @@ def bar_totals(bars: pd.DataFrame) -> pd.DataFrame:
     return pd.DataFrame(out, columns=["wall", "size", "count", "length_ft", "weight_lb"])
 
 
-def describe(mark: str) -> str:
-    return DESCRIPTIONS.get(mark, "")
-
-
 def total_weight_lb(bars: pd.DataFrame) -> float:
     return float(np.sum(bars["weight_lb"])) if len(bars) else 0.0
+
+
+def bar_detail(bars: BarSpec | None) -> BarDetail | None:
+    """The diameter, formed-face cover and hook tail that place ``bars`` in a drawing."""
+    if bars is None:
+        return None
+    return BarDetail(bars=bars, diameter_in=bar_db_in(bars.size),
+                     formed_cover_in=formed_cover_in(bars.size),
+                     hook_tail_in=hook_extension_in(bars.size, 90))
+
+
+def section_detail(sec: SectionDims) -> SectionDetail:
+    """Every bar set of a section with its covers (Table 20.5.1.3.1: 3 in against earth below
+    the footing, 2 in at its top face)."""
+    return SectionDetail(
+        stem=bar_detail(sec.stem_bars), heel=bar_detail(sec.heel_bars),
+        toe=bar_detail(sec.toe_bars), horizontal=bar_detail(sec.horizontal_bars),
+        longitudinal=bar_detail(sec.footing_long_bars), earth_cover_in=COVER_EARTH_IN,
+        top_cover_in=2.0)

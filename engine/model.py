@@ -1,17 +1,65 @@
-"""The designed wall as the exporters receive it: sections, segments, joints, per-station results.
+"""The engine's results as the exporters receive them: the site design, its walls, segments,
+sections, joints, bar list, quantities, per-station results and the governing case of every
+section mark.
 
-Plain frozen dataclasses; the engine fills them, the exporters draw and tabulate them as-is.
-Elevations in ft; section dimensions in the units their names say.
+Plain dataclasses; the engine fills them, the exporters draw and tabulate them as-is (this is
+the one engine module the exporters import). Elevations in ft; section dimensions in the units
+their names say.
 """
 
 from __future__ import annotations
 
 import math
+from collections.abc import Mapping
 from dataclasses import dataclass, field
+from typing import TYPE_CHECKING, Protocol
 
 import numpy as np
 
 from .bars import BarSpec
+
+if TYPE_CHECKING:
+    import pandas as pd
+
+    from .checks import SectionChecks
+    from .pressure import Thrust
+    from .section import DesignInputs, SectionGeometry, Weights
+
+REBAR_COLUMNS = ["wall", "segment", "mark", "size", "spacing_in", "count", "length_ft", "shape",
+                 "weight_lb"]
+
+# what each bar mark of the bar list is (engine/detailing.py makes the rows)
+BAR_MARK_DESCRIPTIONS = {
+    "S1": "stem vertical, earth face, hooked into footing",
+    "S2": "stem vertical, earth face, lapped on dowel D1",
+    "D1": "dowel, hooked in footing, Class B lap into stem",
+    "F1": "heel top bars, transverse",
+    "F2": "toe bottom bars, transverse",
+    "L1": "footing longitudinal, top mat",
+    "L2": "footing longitudinal, bottom mat",
+    "H1": "stem horizontal, earth face",
+    "H2": "stem horizontal, front face",
+}
+
+
+def describe(mark: str) -> str:
+    """What a bar mark is ("" for a mark the bar list does not use)."""
+    return BAR_MARK_DESCRIPTIONS.get(mark, "")
+
+
+class StationSeries(Protocol):
+    """The sampled stations of one wall as the engine reads them (``profile.WallStations``)."""
+
+    wall: str
+    station_ft: np.ndarray
+    retained_grade_ft: np.ndarray
+    front_grade_ft: np.ndarray
+    existing_ground_ft: np.ndarray
+
+    @property
+    def retained_height_ft(self) -> np.ndarray: ...
+
+    def __len__(self) -> int: ...
 
 
 @dataclass(frozen=True)
@@ -104,14 +152,18 @@ class WallDesign:
     wall: str
     name: str | None
     retained_side: str
-    stations: object  # wallsched.profile.WallStations (kept untyped: engine knows no files)
+    stations: StationSeries
     segments: tuple[Segment, ...]
     joints: tuple[Joint, ...]
     station_segment: np.ndarray  # index into segments per station, -1 where no wall is needed
     station_utilization: np.ndarray  # largest check ratio per station (NaN where no wall)
     station_governing: tuple[str, ...]  # governing check per station ("" where no wall)
     station_status: tuple[str, ...]  # "ok", "no_wall: ...", or a failing code
-    extra: dict = field(default_factory=dict)
+    # check name -> ratio per station (NaN where the station has no checked section)
+    station_checks: Mapping[str, np.ndarray] = field(default_factory=dict)
+    bars: pd.DataFrame | None = None  # the bar list (REBAR_COLUMNS), one row per segment and mark
+    quantities: pd.DataFrame | None = None  # one row per segment (engine.quantities)
+    details: Mapping[str, SectionDetail] = field(default_factory=dict)  # per section mark
 
     @property
     def ok(self) -> bool:
@@ -124,3 +176,77 @@ class WallDesign:
             if s.section is not None and s.mark not in out:
                 out[s.mark] = s.section
         return out
+
+
+@dataclass(frozen=True)
+class BarDetail:
+    """One set of bars as a drawing places it: the bars, their nominal diameter, the clear
+    cover to a formed face for their size and the tail of their 90-degree standard hook."""
+
+    bars: BarSpec
+    diameter_in: float
+    formed_cover_in: float
+    hook_tail_in: float
+
+
+@dataclass(frozen=True)
+class SectionDetail:
+    """The bars of one section mark with the covers that place them (engine/detailing.py)."""
+
+    stem: BarDetail | None
+    heel: BarDetail | None
+    toe: BarDetail | None
+    horizontal: BarDetail | None
+    longitudinal: BarDetail | None
+    earth_cover_in: float  # bottom of the footing, cast against earth
+    top_cover_in: float  # top of the footing
+
+
+@dataclass(frozen=True)
+class GoverningCase:
+    """One section mark checked at its governing station: the station of the largest check
+    ratio of the most-utilised segment with this mark (a failing segment first), with every
+    weight, thrust and check behind the numbers."""
+
+    mark: str
+    wall: str
+    segment: Segment
+    station_ft: float
+    retained_grade_ft: float
+    front_grade_ft: float
+    top_of_wall_ft: float
+    geometry: SectionGeometry  # scalar
+    inputs: DesignInputs
+    checks: SectionChecks  # scalar
+    weights: Weights
+    thrust: Thrust
+    heel_load_psf: float  # factored downward load on the heel, level-backfill form
+    segments: tuple[tuple[str, Segment], ...]  # every (wall id, segment) with this mark
+
+    @property
+    def result(self) -> dict:
+        return self.checks.to_dict(())
+
+    @property
+    def passes(self) -> bool:
+        return bool(self.checks.passes)
+
+
+@dataclass
+class SiteDesign:
+    """Every wall designed, with the governing case of every section mark, the site's bar list
+    and quantity totals, and the inputs behind them."""
+
+    walls: tuple[WallDesign, ...]
+    cases: Mapping[str, GoverningCase]  # section mark -> its case, marks in natural order
+    inputs: Mapping[str, DesignInputs]  # wall id -> its inputs
+    bars: pd.DataFrame  # every wall's bar list (REBAR_COLUMNS), possibly empty
+    quantity_totals: pd.DataFrame | None  # per wall and the site; None without segments
+    load_factors: tuple[str, ...] = ()
+    warnings: list[str] = field(default_factory=list)
+
+    @property
+    def ok(self) -> bool:
+        return all(w.ok for w in self.walls) and all(
+            not s.startswith(("over_limit", "no_section", "fails")) for w in self.walls
+            for s in w.station_status)

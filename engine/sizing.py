@@ -39,22 +39,29 @@ import numpy as np
 
 from .bars import SIZES, bar_area_in2, bar_weight_plf
 from .checks import check_section
+from .grid_sections import (
+    TOE_MIN_DEPTH_IN,
+    as_column,
+    at_most,
+    axes_geometry,
+    flat_of,
+    grid_geometry,
+    pair_table,
+    stem_steel_lb,
+)
 from .model import SectionDims
 from .section import BarArrays, DesignInputs, Reinforcement, SectionGeometry
 from .stability import stability
 from .strength import (
-    heel_strength,
     max_flexural_spacing_in,
     shrinkage_spacing_in,
     shrinkage_steel_in2,
-    stem_strength,
     toe_strength,
     wall_horizontal_min_in2,
 )
 
 CY_FT3 = 27.0
 BLOCK = 4096  # geometries evaluated at once in the branch and bound
-TOE_MIN_DEPTH_IN = 6.0  # ACI 318-19 13.3.1.2 (as in checks.py)
 
 
 def _steps(lo, hi, step):
@@ -238,14 +245,6 @@ def geometry_cost(geom: SectionGeometry, rates: CostRates):
             + rates.excavation_usd_per_cy * excavation)
 
 
-def stem_steel_lb(geom: SectionGeometry, bars: BarArrays, inputs: DesignInputs):
-    """Stem vertical bars per ft of wall: full stem height, into the footing to the bottom
-    mat, plus a 90-degree hook extension of 12 db (ACI 318-19 Table 25.3.1)."""
-    L = (geom.stem_height_ft + (geom.footing_thickness_in - inputs.cover_toe_in) / 12.0
-         + 12.0 * bars.diameter_in / 12.0)
-    return 12.0 / bars.spacing_in * bar_weight_plf(bars.size) * L
-
-
 def footing_bar_steel_lb(geom: SectionGeometry, bars: BarArrays):
     """Heel top or toe bottom bars per ft of wall: the footing width less 3-in end covers."""
     return 12.0 / bars.spacing_in * bar_weight_plf(bars.size) * (geom.footing_width_ft - 0.5)
@@ -266,28 +265,6 @@ def candidate_cost(geom, inputs, rates, stem, heel, toe, horiz, longi):
 
 
 # ---------------------------------------------------------------- member pass masks --
-def _le(a, b):
-    with np.errstate(invalid="ignore", divide="ignore"):
-        return np.asarray(a <= b * (1.0 + 1e-12))
-
-
-def stem_passes(r) -> np.ndarray:
-    """Every stem row of check_section (ratio <= 1)."""
-    return (_le(r.mu_lbft, r.phi_mn_lbft) & _le(r.vu_lb, r.phi_vn_lb)
-            & _le(r.height_mu_lbft, r.height_phi_mn_lbft) & _le(r.height_vu_lb, r.height_phi_vn_lb)
-            & _le(r.as_min_in2, r.as_in2) & _le(r.spacing_in, r.s_max_in)
-            & _le(r.ldh_in, r.ldh_available_in))
-
-
-def footing_member_passes(r, toe: bool = False) -> np.ndarray:
-    """Every heel (or toe) row of check_section (ratio <= 1)."""
-    ok = (_le(r.mu_lbft, r.phi_mn_lbft) & _le(r.vu_lb, r.phi_vn_lb)
-          & _le(r.as_min_in2, r.as_in2) & _le(r.spacing_in, r.s_max_in))
-    if toe:
-        ok = ok & _le(TOE_MIN_DEPTH_IN, r.d_in)
-    return ok
-
-
 # ------------------------------------------------------------------------- the search --
 @dataclass(frozen=True)
 class Choice:
@@ -309,32 +286,6 @@ def with_embedment(g: Geometries, embedment_ft: float, footing_cover_ft: float) 
     return g
 
 
-def _axes_geom(g: Geometries, h, emb, fb, toes=slice(None)) -> SectionGeometry:
-    """The grid (or the toes ``toes`` of it) as broadcasting axes (toe, heel, footing, stem):
-    the engine's functions then compute each term on the axes it depends on (much less work
-    than on every element)."""
-    a = g.axes
-    return SectionGeometry(
-        retained_height_ft=h, embedment_ft=a.get("embedment_ft", emb),
-        footing_thickness_in=a["footing_thickness_in"], stem_top_in=a["stem_top_in"],
-        stem_base_in=a["stem_base_in"], toe_ft=a["toe_ft"][toes], heel_ft=a["heel_ft"],
-        freeboard_ft=fb)
-
-
-def _flat(x, shape) -> np.ndarray:
-    return np.broadcast_to(x, shape).reshape(-1)
-
-
-def _geom(g: Geometries, idx, h, emb, fb) -> SectionGeometry:
-    if "embedment_ft" in g:
-        emb = g.take("embedment_ft", idx)
-    return SectionGeometry(
-        retained_height_ft=h, embedment_ft=emb,
-        footing_thickness_in=g.take("footing_thickness_in", idx),
-        stem_top_in=g.take("stem_top_in", idx), stem_base_in=g.take("stem_base_in", idx),
-        toe_ft=g.take("toe_ft", idx), heel_ft=g.take("heel_ft", idx), freeboard_ft=fb)
-
-
 def precompute(g: Geometries, inputs: DesignInputs, rates: CostRates, emb: float) -> dict:
     """The height-independent parts of every geometry's cost: the cost is
     ``cost0 + cost_per_hst * stem height`` plus the stem, heel and toe bars.
@@ -344,7 +295,7 @@ def precompute(g: Geometries, inputs: DesignInputs, rates: CostRates, emb: float
     ``g.column_of``)."""
     def parts(toes):
         # on the grid's broadcasting axes (each term on the axes it needs)
-        geo = _axes_geom(g, 1.0, emb, 0.0, toes)
+        geo = axes_geometry(g, 1.0, emb, 0.0, toes)
         T = geo.footing_thickness_ft
         B = geo.footing_width_ft
         horiz, longi = fixed_bars(geo, inputs)
@@ -362,14 +313,14 @@ def precompute(g: Geometries, inputs: DesignInputs, rates: CostRates, emb: float
     geo, T, _, _, per_hst = parts(slice(0, 1))
     out = {"T_ft": T, "cost_per_hst": per_hst, "emb_ft": geo.embedment_ft,
            "stem_anchor_ft": (geo.footing_thickness_in - inputs.cover_toe_in) / 12.0}
-    out = {k: _flat(v, col_shape).copy() for k, v in out.items()}
+    out = {k: flat_of(v, col_shape).copy() for k, v in out.items()}
     out["cost0"], out["B_ft"] = np.empty(g.size), np.empty(g.size)
     monotone, last = True, None  # the cost without bars never decreases as the toe grows
     for toes, flat in g.toe_chunks():
         _, _, B, cost0, _ = parts(toes)
         n = toes.stop - toes.start
-        out["cost0"][flat] = _flat(cost0, (n, *g.shape[1:]))
-        out["B_ft"][flat] = _flat(B, (n, *g.shape[1:]))
+        out["cost0"][flat] = flat_of(cost0, (n, *g.shape[1:]))
+        out["B_ft"][flat] = flat_of(B, (n, *g.shape[1:]))
         rows = [out["cost0"][flat].reshape(n, -1)]
         monotone = monotone and _rows_nondecreasing(rows, last)
         last = [r[-1:] for r in rows]
@@ -426,11 +377,11 @@ class StabilityScreen:
         # toe by toe (a few at a time): the weights on the grid's axes, slopes and intercepts
         for toes, flat in g.toe_chunks():
             sh = (toes.stop - toes.start, *g.shape[1:])
-            geo_a = _axes_geom(g, hs[0], emb, fb, toes)
+            geo_a = axes_geometry(g, hs[0], emb, fb, toes)
             wa = section_weights(geo_a, inputs)
-            wb = section_weights(_axes_geom(g, hs[1], emb, fb, toes), inputs)
-            va, ma = (_flat(x, sh) for x in wa.dead())
-            vb, mb = (_flat(x, sh) for x in wb.dead())
+            wb = section_weights(axes_geometry(g, hs[1], emb, fb, toes), inputs)
+            va, ma = (flat_of(x, sh) for x in wa.dead())
+            vb, mb = (flat_of(x, sh) for x in wb.dead())
             v1, m1 = (vb - va) / d, (mb - ma) / d
             v0, m0 = va - v1 * hs[0], ma - m1 * hs[0]
             self.v1[flat], self.m1[flat], self.v0[flat], self.m0[flat] = v1, m1, v0, m0
@@ -438,9 +389,9 @@ class StabilityScreen:
             # its terms have)
             lin = lin and all(np.allclose(getattr(wa.surcharge, k), getattr(wb.surcharge, k),
                                           rtol=1e-12) for k in ("lb", "moment_lbft"))
-            qa, qma = _flat(wa.surcharge.lb, sh), _flat(wa.surcharge.moment_lbft, sh)
+            qa, qma = flat_of(wa.surcharge.lb, sh), flat_of(wa.surcharge.moment_lbft, sh)
             self.vq[flat], self.mq[flat] = qa, qma
-            B = _flat(geo_a.footing_width_ft, sh)
+            B = flat_of(geo_a.footing_width_ft, sh)
             self.B[flat] = B
             rows = [x.reshape(sh[0], -1) for x in (
                 (v0, v1, m0, m1, B, qa, qma) if inputs.surcharge_resists else (v0, v1, m0, m1, B))]
@@ -448,7 +399,7 @@ class StabilityScreen:
             last_rows = [r[-1:] for r in rows]
         # linearity verified at a third height on a spread of the grid
         probe = np.unique(np.linspace(0, n - 1, min(n, 4096)).astype(int))
-        wc = section_weights(_geom(g, probe, hs[2], emb, fb), inputs)
+        wc = section_weights(grid_geometry(g, probe, hs[2], emb, fb), inputs)
         vc, mc = wc.dead()
         lin = lin and all(np.allclose(c, x0[probe] + x1[probe] * hs[2], rtol=1e-9, atol=1e-6)
                           for c, x0, x1 in ((vc, self.v0, self.v1), (mc, self.m0, self.m1)))
@@ -458,7 +409,7 @@ class StabilityScreen:
 
         T_index = g.col["T_index"]
         last = int(np.nonzero(T_index == T_index[0])[0][-1]) + (g.nt - 1) * g.ncol
-        two = _geom(g, np.array([0, last]), 8.0, emb, fb)
+        two = grid_geometry(g, np.array([0, last]), 8.0, emb, fb)
         th = design_thrust(two, inputs, self.p)
         same = all(np.allclose(np.broadcast_to(getattr(th, k), (2,))[0],
                                np.broadcast_to(getattr(th, k), (2,))[1], rtol=1e-12)
@@ -512,7 +463,8 @@ class StabilityScreen:
         if h not in self._valid:
             from .section import section_weights
 
-            w = section_weights(_geom(self._g, self._probe, h, self.emb, self.fb), self.inputs)
+            w = section_weights(grid_geometry(self._g, self._probe, h, self.emb, self.fb),
+                                self.inputs)
             v, m = w.dead()
             p = self._probe
             self._valid[h] = bool(
@@ -584,37 +536,10 @@ def toe_capacity_table(g, inputs: DesignInputs, bars: BarArrays) -> dict:
                           stem_base_in=8.0, toe_ft=1.0, heel_ft=1.0)
     bb = BarArrays(bars.size[None, :], bars.spacing_in[None, :])
     r = _footing_member(geo, inputs, bb, 0.0, 0.0, cover_in(bb.size, inputs.cover_toe_in))
-    fixed_ok = (_le(r.as_min_in2, r.as_in2) & _le(r.spacing_in, r.s_max_in)
-                & _le(TOE_MIN_DEPTH_IN, r.d_in))
+    fixed_ok = (at_most(r.as_min_in2, r.as_in2) & at_most(r.spacing_in, r.s_max_in)
+                & at_most(TOE_MIN_DEPTH_IN, r.d_in))
     return {"T_of": T_of, "phi_mn": np.asarray(r.phi_mn_lbft), "phi_vn": np.asarray(r.phi_vn_lb),
             "fixed_ok": np.asarray(fixed_ok)}
-
-
-def _column(geo: SectionGeometry) -> SectionGeometry:
-    """The same sections as a column (n, 1), to broadcast against bar options (1, n_b)."""
-    return SectionGeometry(**{k: np.asarray(getattr(geo, k))[..., None] if np.ndim(
-        getattr(geo, k)) else getattr(geo, k) for k in (
-        "retained_height_ft", "embedment_ft", "footing_thickness_in", "stem_top_in",
-        "stem_base_in", "toe_ft", "heel_ft", "key_width_in", "key_depth_in", "key_offset_ft",
-        "freeboard_ft")})
-
-
-def _pair_table(g, first, h, emb, fb, inputs, bars: BarArrays, member: str) -> np.ndarray:
-    """Cheapest passing bar option for each (member dims, footing) pair code; -1 where none.
-
-    ``first`` holds one geometry index per code (the member check depends only on the pair).
-    """
-    geo = _column(_geom(g, first, h, emb, fb))
-    bb = BarArrays(bars.size[None, :], bars.spacing_in[None, :])
-    if member == "stem":
-        ok = stem_passes(stem_strength(geo, inputs, bb))
-        lb = stem_steel_lb(geo, bb, inputs)
-    else:  # heel: the bar length (footing width) is common to every option of a geometry
-        ok = footing_member_passes(heel_strength(geo, inputs, bb))
-        lb = np.broadcast_to(12.0 / bb.spacing_in * bar_weight_plf(bb.size), ok.shape)
-    cost = np.where(ok, lb, np.inf)
-    best = np.argmin(cost, axis=1)
-    return np.where(np.isfinite(cost[np.arange(first.size), best]), best, -1)
 
 
 def _search_height(g, codes, pre, toe_tab, screen, h, emb, fb, inputs, rates, bars,
@@ -625,8 +550,8 @@ def _search_height(g, codes, pre, toe_tab, screen, h, emb, fb, inputs, rates, ba
     """
     bars_w = 12.0 / bars.spacing_in * bar_weight_plf(bars.size)  # lb per ft of run per ft
     bars_db_ft = bars.diameter_in  # 12 db hook extension, in ft (Table 25.3.1)
-    stem_pick = _pair_table(g, codes["stem_first"], h, emb, fb, inputs, bars, "stem")
-    heel_pick = _pair_table(g, codes["heel_first"], h, emb, fb, inputs, bars, "heel")
+    stem_pick = pair_table(g, codes["stem_first"], h, emb, fb, inputs, bars, "stem")
+    heel_pick = pair_table(g, codes["heel_first"], h, emb, fb, inputs, bars, "heel")
     s_all = np.tile(stem_pick[codes["stem_of"]], g.nt)
     h_all = np.tile(heel_pick[codes["heel_of"]], g.nt)
     keep = (s_all >= 0) & (h_all >= 0)
@@ -669,15 +594,15 @@ def _search_height(g, codes, pre, toe_tab, screen, h, emb, fb, inputs, rates, ba
         if idx.size > BLOCK:
             idx = idx[np.argpartition(lower[idx], BLOCK)[:BLOCK]]
         done[idx] = True
-        sub = _column(_geom(g, cand[idx], h, emb, fb))
+        sub = as_column(grid_geometry(g, cand[idx], h, emb, fb))
         st = stability(sub, inputs)
         ok = np.asarray(st.passes & sub.valid)[:, 0]
         if not ok.any():
             continue
         tr = toe_strength(sub, inputs, one_bar, st)  # demands; capacities from the table
         ti = toe_tab["T_of"][c_of[idx]]
-        t_ok = (_le(tr.mu_lbft, np.take(toe_tab["phi_mn"], ti, axis=0))
-                & _le(tr.vu_lb, np.take(toe_tab["phi_vn"], ti, axis=0))
+        t_ok = (at_most(tr.mu_lbft, np.take(toe_tab["phi_mn"], ti, axis=0))
+                & at_most(tr.vu_lb, np.take(toe_tab["phi_vn"], ti, axis=0))
                 & np.take(toe_tab["fixed_ok"], ti, axis=0) & ok[:, None])
         t_cost = np.where(t_ok, bars_w[None, :] * (B[idx] - 0.5)[:, None], np.inf)
         t_pick = np.argmin(t_cost, axis=1)
@@ -697,7 +622,7 @@ def _search_height(g, codes, pre, toe_tab, screen, h, emb, fb, inputs, rates, ba
 def section_from(g, gi, bars: BarArrays, si, hi, ti, inputs, h, emb, fb) -> SectionDims:
     from .bars import BarSpec
 
-    geo = _geom(g, np.array([gi]), h, emb, fb)
+    geo = grid_geometry(g, np.array([gi]), h, emb, fb)
     horiz, longi = fixed_bars(geo, inputs)
 
     def spec(b, i):
@@ -812,16 +737,6 @@ def design_table(inputs: DesignInputs, grid: SizingGrid, rates: CostRates, *,
                        footing_cover_ft)
 
 
-def reinforcement_of(sec: SectionDims) -> Reinforcement:
-    """The engine's Reinforcement for a designed section."""
-    def arr(b):
-        return BarArrays(b.size, b.spacing_in)
-
-    return Reinforcement(stem=arr(sec.stem_bars), heel=arr(sec.heel_bars),
-                         toe=arr(sec.toe_bars), horizontal=arr(sec.horizontal_bars),
-                         longitudinal=arr(sec.footing_long_bars))
-
-
 def exhaustive_optimum(inputs: DesignInputs, grid: SizingGrid, rates: CostRates, *, h: float,
                        emb: float, fb: float, footing_cover_ft: float = 0.0,
                        footing_width_max_ft: float | None = None):
@@ -835,7 +750,7 @@ def exhaustive_optimum(inputs: DesignInputs, grid: SizingGrid, rates: CostRates,
     gi, si, hi, ti = np.meshgrid(np.arange(n_g), np.arange(n_b), np.arange(n_b), np.arange(n_b),
                                  indexing="ij")
     gi, si, hi, ti = gi.ravel(), si.ravel(), hi.ravel(), ti.ravel()
-    geo = _geom(g, gi, h, emb, fb)
+    geo = grid_geometry(g, gi, h, emb, fb)
     horiz, longi = fixed_bars(geo, inputs)
 
     def sel(i):
@@ -855,4 +770,4 @@ def exhaustive_optimum(inputs: DesignInputs, grid: SizingGrid, rates: CostRates,
 
 
 __all__ = ["Choice", "CostRates", "DesignTable", "SizingGrid", "design_table",
-           "exhaustive_optimum", "reinforcement_of", "replace"]
+           "exhaustive_optimum", "replace"]

@@ -228,6 +228,7 @@ class MemberResult:
     cover_in: np.ndarray
     phi: np.ndarray
     eps_t: np.ndarray
+    a_in: np.ndarray  # depth of the equivalent stress block (ACI 318-19 22.2.2.4.1)
 
     def to_frame(self):
         """One row per section, the fields as columns."""
@@ -329,7 +330,7 @@ def stem_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays, 
         phi_vn_lb=pvn, d_in=d, thickness_in=tb, as_in2=As,
         as_min_in2=min_flexural_steel_in2(tb), spacing_in=bars.spacing_in,
         s_max_in=np.minimum(s_max, s_cr), cover_in=cov, phi=fl.phi, eps_t=fl.eps_t,
-        ms_lbft=ms, fs_service_psi=fs, s_crack_in=s_cr, ldh_in=ldh,
+        a_in=fl.a_in, ms_lbft=ms, fs_service_psi=fs, s_crack_in=s_cr, ldh_in=ldh,
         ldh_available_in=geom.footing_thickness_in - inputs.cover_toe_in,
         height_mu_lbft=pick(mu_y, i_f), height_phi_mn_lbft=pick(pmn_y, i_f),
         height_flexure_y_ft=pick(y, i_f), height_vu_lb=pick(vu_y, i_v),
@@ -355,7 +356,7 @@ def _footing_member(geom, inputs, bars, mu, vu, cov):
         mu_lbft=mu, phi_mn_lbft=fl.phi_mn_lbft, vu_lb=vu, phi_vn_lb=pvn, d_in=d,
         thickness_in=T, as_in2=As, as_min_in2=min_flexural_steel_in2(T),
         spacing_in=bars.spacing_in, s_max_in=max_flexural_spacing_in(T), cover_in=cov,
-        phi=fl.phi, eps_t=fl.eps_t)
+        phi=fl.phi, eps_t=fl.eps_t, a_in=fl.a_in)
 
 
 def heel_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays) -> MemberResult:

@@ -1,7 +1,7 @@
 """Plots per designed wall (PNG, matplotlib Agg): elevation, utilisation with segment bands and
 section marks along the station.
 
-Per-check utilisation comes from ``design.extra["station_checks"]`` (check name -> array per
+Per-check utilisation comes from ``design.station_checks`` (check name -> array per
 station) when the engine provides it; the largest ratio per station (``station_utilization``) is
 always drawn.
 """
@@ -118,7 +118,7 @@ def plot_utilization(design, path) -> Path:
     """Utilisation of each check along the wall with segment bands, and the section marks."""
     path = Path(path)
     st = np.asarray(design.stations.station_ft, dtype=float)
-    checks = dict(design.extra.get("station_checks", {}) or {})
+    checks = dict(design.station_checks or {})
     with figure(path, nrows=2, gridspec_kw={"height_ratios": [3, 1]}) as (fig, (ax1, ax2)):
         _bands(ax1, design, label=True)
         for name, values in checks.items():

@@ -187,8 +187,8 @@ def write_elevation_dxf(design, path, *, input_hash: str, site_name: str,
     """Write ``<wall>-elevation.dxf`` for one :class:`WallDesign`; returns the path written.
 
     ``path`` is a file path or a folder (then the file is named :func:`elevation_dxf_name`).
-    ``bars`` is the wall's bar list and ``quantities`` its per-segment quantity frame (both
-    from the engine; computed here from the design when not given).
+    ``bars`` is the wall's bar list and ``quantities`` its per-segment quantity frame, both
+    the engine's (``design.bars`` and ``design.quantities`` when not given).
     ``revisions`` is a list of changed ``(station_start_ft, station_end_ft)`` ranges (e.g.
     ``RunDiff.changed_station_ranges(wall)``): each gets a revision cloud around that stretch
     of the elevation, with a revision tag (a triangle holding ``revision_tag``), on the layer
@@ -196,18 +196,16 @@ def write_elevation_dxf(design, path, *, input_hash: str, site_name: str,
     """
     import ezdxf
 
-    from ..engine.detailing import wall_bar_list
-    from ..engine.quantities import wall_quantities
-
     if not vertical_exaggeration > 0:
         raise ValueError("vertical exaggeration must be positive")
     path = Path(path)
     if path.is_dir():
         path = path / elevation_dxf_name(design.wall)
-    if bars is None:
-        bars = wall_bar_list(design)
-    if quantities is None:
-        quantities = wall_quantities(design, bars)
+    bars = design.bars if bars is None else bars
+    quantities = design.quantities if quantities is None else quantities
+    if bars is None or quantities is None:
+        raise ValueError(f"wall {design.wall}: no bar list or quantities to draw (the engine's "
+                         "design stage fills them)")
     bars = bars[bars["wall"] == design.wall].reset_index(drop=True)
     quantities = quantities[quantities["wall"] == design.wall].reset_index(drop=True)
 
@@ -225,7 +223,7 @@ def _write(design, path: Path, *, input_hash, site_name, ve, bars, quantities,
            revisions=(), revision_tag="1") -> Path:
     import ezdxf
 
-    from ..engine.detailing import describe
+    from ..engine.model import describe
 
     vertical_exaggeration = ve
     doc = ezdxf.new("R2010", setup=["linetypes"], units=2)
@@ -458,9 +456,8 @@ def _draw_revisions(sh: _Sheet, design, ranges, tag: str) -> None:
 
 
 def _draw_sections(sh: _Sheet, design, x0: float, y_base: float, bars) -> float:
-    """One typical section per mark, left to right from ``x0``; returns the right edge."""
-    from ..engine.detailing import COVER_EARTH_IN, bar_db_in, formed_cover_in, hook_extension_in
-
+    """One typical section per mark, left to right from ``x0``; returns the right edge (bars
+    placed by the engine's covers, ``design.details``)."""
     k = DETAIL_SCALE
     st = design.stations
     s = np.asarray(st.station_ft, dtype=float)
@@ -508,27 +505,28 @@ def _draw_sections(sh: _Sheet, design, x0: float, y_base: float, bars) -> float:
         rows = {r.mark: r for r in bars[bars["segment"] == segs[0].segment].itertuples()}
         labels_right, labels_left = [], []
         dot_r = 0.35
-        if sec.stem_bars is not None:
-            b = sec.stem_bars
-            c = (formed_cover_in(b.size) + bar_db_in(b.size) / 2) / 12.0
-            y_top = h - formed_cover_in(b.size) / 12.0
-            y_bot = -t + (COVER_EARTH_IN + bar_db_in(b.size) / 2) / 12.0
+        det = design.details[mark]
+        if det.stem is not None:
+            b, sd_ = sec.stem_bars, det.stem
+            c = (sd_.formed_cover_in + sd_.diameter_in / 2) / 12.0
+            y_top = h - sd_.formed_cover_in / 12.0
+            y_bot = -t + (det.earth_cover_in + sd_.diameter_in / 2) / 12.0
 
             def xb(y, c=c, x0=xb_base, x1=xb_top, h=h):
                 return x0 + (x1 - x0) * y / h - c
 
-            tail = (hook_extension_in(b.size, 90) / 12.0 + 0.25)
+            tail = (sd_.hook_tail_in / 12.0 + 0.25)
             sh.line(P(xb(y_top), y_top), P(xb(y_bot), y_bot), "C-WALL-RBAR")
             sh.line(P(xb(y_bot), y_bot), P(xb(y_bot) - tail, y_bot), "C-WALL-RBAR")
             mk = "S1" if "S1" in rows else "D1/S2"
             labels_right.append((f"{mk} {b}", P(xb(0.6 * h), 0.6 * h)))
-            sh.text(f"{formed_cover_in(b.size):g}\" CLR", P(xb(y_top) + 0.3, y_top + 0.25),
+            sh.text(f"{sd_.formed_cover_in:g}\" CLR", P(xb(y_top) + 0.3, y_top + 0.25),
                     TEXT_SMALL_FT * 0.8, "C-WALL-RBAR")
-        if sec.horizontal_bars is not None:
-            b = sec.horizontal_bars
-            sb = sec.stem_bars.size if sec.stem_bars is not None else b.size
-            cb = (formed_cover_in(sb) + bar_db_in(sb) + bar_db_in(b.size) / 2) / 12.0
-            cf = (formed_cover_in(b.size) + bar_db_in(b.size) / 2) / 12.0
+        if det.horizontal is not None:
+            b, hd = sec.horizontal_bars, det.horizontal
+            sb = det.stem if det.stem is not None else hd
+            cb = (sb.formed_cover_in + sb.diameter_in + hd.diameter_in / 2) / 12.0
+            cf = (hd.formed_cover_in + hd.diameter_in / 2) / 12.0
             n = max(int((h - 0.5) // (b.spacing_in / 12.0)), 1)
             for i in range(n + 1):
                 y = 0.25 + i * (h - 0.5) / n
@@ -541,23 +539,23 @@ def _draw_sections(sh: _Sheet, design, x0: float, y_base: float, bars) -> float:
                                  P(xb_base + (xb_top - xb_base) * y / h - cb, y)))
             labels_left.append((f"H2 {b} FRONT FACE",
                                 P(xf_base + (xf_top - xf_base) * y / h + cf, y)))
-        c_top = 2.0 / 12.0
-        c_bot = COVER_EARTH_IN / 12.0
-        if sec.heel_bars is not None:
+        c_top = det.top_cover_in / 12.0
+        c_bot = det.earth_cover_in / 12.0
+        if det.heel is not None:
             b = sec.heel_bars
-            y = -c_top - bar_db_in(b.size) / 24.0
+            y = -c_top - det.heel.diameter_in / 24.0
             sh.line(P(c_bot, y), P(width - c_bot, y), "C-WALL-RBAR")
             labels_right.append((f"F1 {b} TOP", P(width - 0.6, y)))
-        if sec.toe_bars is not None:
+        if det.toe is not None:
             b = sec.toe_bars
-            y = -t + c_bot + bar_db_in(b.size) / 24.0
+            y = -t + c_bot + det.toe.diameter_in / 24.0
             sh.line(P(c_bot, y), P(width - c_bot, y), "C-WALL-RBAR")
             labels_left.append((f"F2 {b} BOTTOM", P(0.5, y)))
             sh.text("3\" CLR", P(width * 0.72, -t + 0.05), TEXT_SMALL_FT * 0.8, "C-WALL-RBAR")
-        if sec.footing_long_bars is not None:
+        if det.longitudinal is not None:
             b = sec.footing_long_bars
-            yt = -c_top - (bar_db_in(sec.heel_bars.size) if sec.heel_bars else 0) / 12.0 - 0.08
-            yb = -t + c_bot + (bar_db_in(sec.toe_bars.size) if sec.toe_bars else 0) / 12.0 + 0.08
+            yt = -c_top - (det.heel.diameter_in if det.heel else 0) / 12.0 - 0.08
+            yb = -t + c_bot + (det.toe.diameter_in if det.toe else 0) / 12.0 + 0.08
             n = max(int((width - 2 * c_bot) // (b.spacing_in / 12.0)), 1)
             for i in range(n + 1):
                 x = c_bot + 0.1 + i * (width - 2 * c_bot - 0.2) / n

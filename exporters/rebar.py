@@ -3,8 +3,9 @@
 Columns (DESIGN.md section 5): ``wall, segment, mark, size, spacing_in, count, length_ft, shape,
 weight_lb``. ``mark`` is the bar mark (S1, D1, S2, F1, F2, L1, L2, H1, H2; see
 wallsched.engine.detailing), ``size`` the integer ASTM A615 bar number, ``length_ft`` the cut
-length, ``weight_lb = count * length_ft * unit weight``. Floats are written at full precision so
-that the weight recomputes exactly from the file.
+length, ``weight_lb = count * length_ft * unit weight``. Floats are written at full precision
+(so that the weight recomputes exactly from the file) unless a ``float_format`` is given (the
+run folder's tables use ``tables.FLOAT_FORMAT``).
 """
 
 from __future__ import annotations
@@ -13,29 +14,33 @@ from pathlib import Path
 
 import pandas as pd
 
-from ..engine.detailing import REBAR_COLUMNS, describe, site_bar_list
+from ..engine.model import REBAR_COLUMNS, describe
 
 FILE_NAME = "rebar.csv"
 
 
-def rebar_frame(designs, **bar_kw) -> pd.DataFrame:
-    """The site's bar list (every wall, every segment) as the ``rebar.csv`` frame."""
-    return site_bar_list(list(designs), **bar_kw)[REBAR_COLUMNS]
+def rebar_frame(designs) -> pd.DataFrame:
+    """The bar lists of designed walls (``WallDesign.bars``) as one ``rebar.csv`` frame."""
+    frames = [d.bars[REBAR_COLUMNS] for d in designs if d.bars is not None and len(d.bars)]
+    if not frames:
+        return pd.DataFrame(columns=REBAR_COLUMNS)
+    return pd.concat(frames, ignore_index=True)
 
 
-def write_rebar_csv(bars_or_designs, path, **bar_kw) -> pd.DataFrame:
-    """Write ``rebar.csv`` from a bar-list frame or from designs; returns the frame written.
+def write_rebar_csv(bars_or_designs, path, *, float_format: str | None = None) -> pd.DataFrame:
+    """Write ``rebar.csv`` from the engine's bar-list frame (``SiteDesign.bars``) or from
+    designed walls; returns the frame written.
 
     ``path`` is a file or a folder (then ``rebar.csv`` inside it).
     """
     if isinstance(bars_or_designs, pd.DataFrame):
         bars = bars_or_designs[REBAR_COLUMNS].reset_index(drop=True)
     else:
-        bars = rebar_frame(bars_or_designs, **bar_kw)
+        bars = rebar_frame(bars_or_designs)
     path = Path(path)
     if path.is_dir():
         path = path / FILE_NAME
-    bars.to_csv(path, index=False, lineterminator="\n")
+    bars.to_csv(path, index=False, lineterminator="\n", float_format=float_format)
     return bars
 
 

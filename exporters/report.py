@@ -9,11 +9,11 @@ grades, every weight and lateral force with its arm, every check as formula -> n
 result with its ratio and clause); the bar list; with a comparison run, the revision summary.
 Page numbers and a contents list.
 
-Nothing is computed here that the engine does not own: the governing station is re-checked
-with :func:`~wallsched.engine.checks.check_section` and
-:func:`~wallsched.engine.section.section_weights` on exactly the geometry the design stage
-checked there (``wallsched.design.station_geometry``), and the numbers printed are the engine's.
-A failing segment or check is printed as failing.
+Nothing is computed here: the governing case of every section mark (its station, geometry,
+weights, thrust, checks, heel load and stress blocks) is the engine's
+(``SiteDesign.cases``, ``engine/governing.py``), the design basis rows and input hashes come
+in the run information (``RunInfo``), and the numbers printed are theirs. A failing segment or
+check is printed as failing.
 """
 
 from __future__ import annotations
@@ -25,95 +25,12 @@ import math
 from dataclasses import dataclass
 from pathlib import Path
 
-import numpy as np
-
 from ..cautions import CAUTIONS
 from ..profile.stationing import format_station
 
 FONT = "dejavu"
 MONO = "dejavumono"
 MARGIN_MM = 15.0
-
-
-# ---------------------------------------------------------------- the governing station
-
-
-@dataclass(frozen=True)
-class StationCase:
-    """One section mark re-checked at its governing station."""
-
-    mark: str
-    wall: str
-    segment: object  # engine.model.Segment
-    station_ft: float
-    retained_grade_ft: float
-    front_grade_ft: float
-    top_of_wall_ft: float
-    geometry: object  # engine.section.SectionGeometry (scalar)
-    inputs: object  # engine.section.DesignInputs
-    checks: object  # engine.checks.SectionChecks (scalar)
-    weights: object  # engine.section.Weights
-    thrust: object  # engine.pressure.Thrust
-    segments: tuple  # every (wall id, Segment) with this mark
-
-    @property
-    def result(self) -> dict:
-        return self.checks.to_dict(())
-
-    @property
-    def passes(self) -> bool:
-        return bool(self.checks.passes)
-
-
-def mark_segments(sd) -> dict[str, list[tuple[str, object]]]:
-    """Section mark -> [(wall id, segment)], marks in their natural order (A..Z, AA..)."""
-    out: dict[str, list] = {}
-    for w in sd.walls:
-        for s in w.segments:
-            if s.section is not None and s.mark:
-                out.setdefault(s.mark, []).append((w.wall, s))
-    return dict(sorted(out.items(), key=lambda kv: (len(kv[0]), kv[0])))
-
-
-def _worst(segs):
-    def key(ws):
-        u = ws[1].utilization_max
-        return (0 if ws[1].ok else 1, u if math.isfinite(u) else math.inf)
-
-    return max(segs, key=key)
-
-
-def station_case(site, sd, mark: str) -> StationCase:
-    """Re-check ``mark`` at its governing station: the station of the largest check ratio of
-    the most-utilised segment with this mark (a failing segment first)."""
-    from ..design import reinforcement as design_bars
-    from ..design import station_geometry
-    from ..engine.checks import check_section
-    from ..engine.pressure import design_thrust, earth_pressure
-    from ..engine.section import section_weights
-
-    segs = mark_segments(sd)[mark]
-    wall_id, seg = _worst(segs)
-    w = next(x for x in sd.walls if x.wall == wall_id)
-    spec = next(x for x in site.walls if x.id == wall_id)
-    ws = w.stations
-    st = np.asarray(ws.station_ft, float)
-    target = seg.governing_station_ft if math.isfinite(seg.governing_station_ft) else \
-        seg.station_start_ft
-    k = int(np.argmin(np.abs(st - target)))
-    rg, fg = float(ws.retained_grade_ft[k]), float(ws.front_grade_ft[k])
-    c = spec.criteria
-    tw = seg.top_of_wall_ft if c["top_of_wall"] == "stepped" else rg + c["freeboard_ft"]
-    h = rg - fg
-    emb = fg - seg.bottom_of_footing_ft
-    fb = tw - rg
-    inputs = sd.inputs[wall_id]
-    geom = station_geometry(seg.section, np.float64(h), np.float64(emb), np.float64(fb))
-    checks = check_section(geom, inputs, design_bars(seg.section))
-    weights = section_weights(geom, inputs)
-    thrust = design_thrust(geom, inputs, earth_pressure(inputs))
-    return StationCase(mark, wall_id, seg, float(st[k]), rg, fg, float(tw), geom, inputs,
-                       checks, weights, thrust, tuple(segs))
 
 
 # ---------------------------------------------------------------- check texts
@@ -139,25 +56,22 @@ def _n(v, fmt=",.0f") -> str:
     return format(float(v), fmt)
 
 
-def check_texts(case: StationCase) -> list[CheckText]:
+def check_texts(case) -> list[CheckText]:
     """Every check row of the case as formula -> numbers -> result (ratio, clause)."""
     r = case.result
     g, inp = case.geometry, case.inputs
     p = case.checks.pressure
     f = float
     hs = f(g.soil_height_ft)
-    T_ft = f(g.footing_thickness_ft)
     B = f(g.footing_width_ft)
     ot, sl, br = r["overturning"], r["sliding"], r["bearing"]
     stem, heel, toe = r["stem"], r["heel"], r["toe"]
     st = case.checks.stability
     with_q = bool(st.bearing_with_surcharge)
     case_v = st.case_surcharge if with_q else st.case_dead
-    wu_heel = 1.2 * (inp.unit_weight_pcf * hs + inp.concrete_unit_weight_pcf * T_ft) \
-        + 1.6 * inp.surcharge_psf  # ACI 318-19 5.3.1 via ASCE 7 2.3 (engine's heel load)
-
-    def flex(m):
-        a = m["as_in2"] * inp.fy_psi / (0.85 * inp.fc_psi * 12.0) if m["as_in2"] else math.nan
+    wu_heel = case.heel_load_psf  # ACI 318-19 5.3.1 via ASCE 7 2.3 (the engine's heel load)
+    def flex(m, member):
+        a = float(member.a_in) if m["as_in2"] else math.nan  # the engine's stress block
         return (f"As = {_n(m['as_in2'], '.3f')} in²/ft, d = {_n(m['d_in'], '.2f')} in, "
                 f"a = As·fy/(0.85·f'c·b) = {_n(a, '.2f')} in, φ = {_n(m['phi'], '.3f')} "
                 f"(εt = {_n(m['eps_t'], '.4f')}), φMn = {_n(m['phi_mn_lbft'])} lb-ft/ft")
@@ -195,7 +109,8 @@ def check_texts(case: StationCase) -> list[CheckText]:
         "stem_flexure": (
             "Mu = 1.6·(EFP·h_s³/6 + Ka·q·h_s²/2); φMn = φ·As·fy·(d − a/2)",
             f"h_s = {hs:.2f} ft, EFP = {p.active_efp_pcf:g} pcf, Ka = {p.ka:.3f}, q = "
-            f"{p.surcharge_psf:g} psf: Mu = {_n(stem['mu_lbft'])} lb-ft/ft; " + flex(stem)),
+            f"{p.surcharge_psf:g} psf: Mu = {_n(stem['mu_lbft'])} lb-ft/ft; "
+            + flex(stem, case.checks.stem)),
         "stem_shear": (
             "Vu = 1.6·(EFP·z²/2 + Ka·q·z) at z = h_s − d (d above the footing)",
             f"Vu = {_n(stem['vu_lb'])} lb/ft; " + shear(stem, True)),
@@ -220,7 +135,7 @@ def check_texts(case: StationCase) -> list[CheckText]:
         "heel_flexure": (
             "wu = 1.2·(γ·h_s + γc·T) + 1.6·q; Mu = wu·L²/2 at the back face of the stem",
             f"wu = {wu_heel:,.0f} psf, L = {f(g.heel_ft):.2f} ft: Mu = "
-            f"{_n(heel['mu_lbft'])} lb-ft/ft; " + flex(heel)),
+            f"{_n(heel['mu_lbft'])} lb-ft/ft; " + flex(heel, case.checks.heel)),
         "heel_shear": ("Vu = wu·L at the back face of the stem",
                        f"Vu = {_n(heel['vu_lb'])} lb/ft; "
                        + shear(heel, inp.footing_shear_size_effect)),
@@ -229,7 +144,7 @@ def check_texts(case: StationCase) -> list[CheckText]:
         "toe_flexure": (
             "Mu = 1.6·(bearing pressure moment over the toe) − 0.9·(footing + soil)·L²/2",
             f"L = {f(g.toe_ft):.2f} ft, pressure of the case {br['case']}: Mu = "
-            f"{_n(toe['mu_lbft'])} lb-ft/ft; " + flex(toe)),
+            f"{_n(toe['mu_lbft'])} lb-ft/ft; " + flex(toe, case.checks.toe)),
         "toe_shear": ("Vu = 1.6·(bearing force over the toe) − 0.9·(footing + soil)·L",
                       f"Vu = {_n(toe['vu_lb'])} lb/ft; "
                       + shear(toe, inp.footing_shear_size_effect)),
@@ -269,7 +184,7 @@ def check_texts(case: StationCase) -> list[CheckText]:
 # ---------------------------------------------------------------- the sketch
 
 
-def section_sketch_png(case: StationCase, *, dpi: int = 150) -> bytes:
+def section_sketch_png(case, *, dpi: int = 150) -> bytes:
     """A dimensioned cross-section of the case (matplotlib, Agg) as PNG bytes."""
     import matplotlib
 
@@ -567,67 +482,23 @@ def _render_toc(pdf, outline, *, pages: int):
         pdf.add_page()
 
 
-def _given(site, wall_spec, table: str, key: str) -> bool:
-    raw = site.raw
-    if key in (raw.get(table) or {}):
-        return True
-    for w in raw.get("walls") or []:
-        if (isinstance(w, dict) and str(w.get("id", "")).strip() == wall_spec.id
-                and (key in w or key in (w.get(table) or {}))):
-            return True
-    return False
-
-
-def _fmt_value(v) -> str:
-    if v is None:
-        return "-"
-    if isinstance(v, bool):
-        return "true" if v else "false"
-    if isinstance(v, float):
-        return f"{v:g}"
-    return str(v)
-
-
-def _parameter_rows(site, table: str, keys: dict):
-    """Rows ``key | value per wall | source`` of one resolved table."""
-    rows = []
-    for k, spec in keys.items():
-        if table == "soil" and k == "source":
-            continue
-        vals = [w.__getattribute__(table).get(k) for w in site.walls]
-        if table == "soil" and all(v is None for v in vals):
-            continue
-        given = [_given(site, w, table, k) for w in site.walls]
-        if table == "soil":
-            src = "site file; see the stated source below" if all(given) else "site file"
-        elif all(given):
-            src = "site file"
-        elif any(given):
-            src = "site file (some walls); else default: " + spec.doc
-        else:
-            src = "default: " + spec.doc
-        rows.append([k, *(_fmt_value(v) for v in vals), src])
-    return rows
-
-
-def write_report(site, sd, path, *, diff=None, date: _dt.date | None = None) -> Path:
+def write_report(run, sd, path, *, diff=None, date: _dt.date | None = None) -> Path:
     """Write the calc package to ``path`` (``report.pdf``); returns the path.
 
-    ``diff`` is a :class:`~wallsched.exporters.diff.RunDiff` against an earlier run (its
-    summary becomes the last chapter); ``date`` defaults to today.
+    ``run`` is the :class:`~.run_info.RunInfo`, ``sd`` the engine's ``SiteDesign``; ``diff``
+    is a :class:`~wallsched.exporters.diff.RunDiff` against an earlier run (its summary
+    becomes the last chapter); ``date`` defaults to today.
     """
-    from .. import __version__
-    from ..keys import CRITERIA_KEYS, LOADS_KEYS, MATERIALS_KEYS, SOIL_KEYS
     from .dxf_elevation import format_ft_in
 
     path = Path(path)
     date = date or _dt.date.today()
-    marks = mark_segments(sd)
-    cases = {m: station_case(site, sd, m) for m in marks}
-    pdf = _make_pdf(site.name, __version__)
-    pdf.set_title(f"{site.name} - retaining wall calculations")
-    pdf.set_author("wallsched " + __version__)
-    pdf.set_creator("wallsched " + __version__)
+    cases = sd.cases
+    version = run.version
+    pdf = _make_pdf(run.site_name, version)
+    pdf.set_title(f"{run.site_name} - retaining wall calculations")
+    pdf.set_author("wallsched " + version)
+    pdf.set_creator("wallsched " + version)
     pdf.set_creation_date(_dt.datetime(date.year, date.month, date.day,
                                        tzinfo=_dt.UTC))
     wr = _Writer(pdf)
@@ -637,18 +508,18 @@ def write_report(site, sd, path, *, diff=None, date: _dt.date | None = None) -> 
     pdf.add_page()
     pdf.set_font(FONT, "B", 20)
     pdf.ln(10)
-    pdf.multi_cell(0, 10, site.name, new_x="LMARGIN", new_y="NEXT")
+    pdf.multi_cell(0, 10, run.site_name, new_x="LMARGIN", new_y="NEXT")
     pdf.set_font(FONT, "", 13)
     pdf.multi_cell(0, 7, "Cantilevered reinforced-concrete site retaining walls - "
                          "calculation package", new_x="LMARGIN", new_y="NEXT")
     pdf.ln(3)
     pdf.set_font(FONT, "", 9.5)
-    meta = [f"Date: {date.isoformat()}", f"Made with wallsched {__version__}",
+    meta = [f"Date: {date.isoformat()}", f"Made with wallsched {version}",
             f"Walls: {', '.join(w.wall for w in sd.walls)}"]
-    if site.meta.get("engineer"):
-        meta.append(f"Engineer: {site.meta['engineer']}")
-    if site.meta.get("notes"):
-        meta.append(f"Notes: {site.meta['notes']}")
+    if run.meta.get("engineer"):
+        meta.append(f"Engineer: {run.meta['engineer']}")
+    if run.meta.get("notes"):
+        meta.append(f"Notes: {run.meta['notes']}")
     overall = "every segment passes every check" if sd.ok else \
         "SOME SEGMENTS FAIL OR COULD NOT BE DESIGNED - see the site summary"
     meta.append(f"Result: {overall}")
@@ -662,7 +533,7 @@ def write_report(site, sd, path, *, diff=None, date: _dt.date | None = None) -> 
     pdf.set_text_color(180, 0, 0)
     pdf.multi_cell(0, 5.5, "CAUTIONS", new_x="LMARGIN", new_y="NEXT")
     pdf.set_text_color(0)
-    for i, line in enumerate(CAUTIONS, 1):
+    for i, line in enumerate(run.cautions, 1):
         wr.para(f"{i}. {line}", size=9)
     pdf.rect(MARGIN_MM - 2, y0 - 2, pdf.w - 2 * MARGIN_MM + 4, pdf.get_y() - y0 + 4)
     pdf.set_draw_color(0)
@@ -674,7 +545,7 @@ def write_report(site, sd, path, *, diff=None, date: _dt.date | None = None) -> 
             wr.para("- " + line, size=8.5)
         pdf.ln(2)
     wr.h2("Input files (SHA-256)")
-    for name, digest in site.input_hashes().items():
+    for name, digest in run.input_hashes.items():
         wr.para(name, size=8)
         wr.para("    " + digest, size=7, mono=True, h=3.6)
 
@@ -691,23 +562,20 @@ def write_report(site, sd, path, *, diff=None, date: _dt.date | None = None) -> 
     wr.h1("Design basis")
     wr.para("Resolved values per wall (site-file values, per-wall overrides and the "
             "documented defaults), with where each comes from.", size=8.5, style="I")
-    heads = ["key", *(w.id for w in site.walls), "source"]
+    heads = ["key", *run.wall_ids, "source"]
     widths = [34, *([14] * n_walls), 186 - 34 - 14 * n_walls]
-    srcs = sorted({str(w.soil.get("source")) for w in site.walls if w.soil.get("source")})
+    srcs = list(run.soil_sources)
     wr.h2("Soil (from the geotechnical report; never defaulted)", toc=True)
-    wr.table(heads, _parameter_rows(site, "soil", SOIL_KEYS), widths)
+    wr.table(heads, run.basis["soil"], widths)
     wr.para("Stated source of the soil values: " + ("; ".join(srcs) if srcs else
             "NONE STATED - the site file gives no [soil] source; the values must be confirmed "
             "against the geotechnical report"), size=8.5, style="B")
     wr.h2("Loads and materials", toc=True)
-    wr.table(heads, _parameter_rows(site, "loads", LOADS_KEYS)
-             + _parameter_rows(site, "materials", MATERIALS_KEYS), widths)
+    wr.table(heads, run.basis["loads"] + run.basis["materials"], widths)
     wr.h2("Criteria", toc=True)
-    wr.table(heads, _parameter_rows(site, "criteria", CRITERIA_KEYS), widths, size=7)
+    wr.table(heads, run.basis["criteria"], widths, size=7)
     wr.h2("Load factors and methods")
-    from ..engine.checks import LOAD_FACTORS
-
-    for line in LOAD_FACTORS:
+    for line in sd.load_factors:
         wr.para("- " + line, size=8.5)
     wr.para("- Active pressure on the vertical plane through the heel edge over the design "
             "height H (retained grade to bottom of footing); surcharge lateral pressure Ka·q "
@@ -859,11 +727,7 @@ def write_report(site, sd, path, *, diff=None, date: _dt.date | None = None) -> 
     # ---- bar list
     pdf.add_page()
     wr.h1("Bar list")
-    import pandas as pd
-
-    frames = [w.extra.get("bars") for w in sd.walls if w.extra.get("bars") is not None
-              and len(w.extra["bars"])]
-    bars = pd.concat(frames, ignore_index=True) if frames else None
+    bars = sd.bars if len(sd.bars) else None
     if bars is None:
         wr.para("No bars: no wall needed.")
     else:

@@ -191,14 +191,13 @@ def _jsonable(v):
     return v
 
 
-def run_record(site, sd, schedule: pd.DataFrame) -> dict:
-    """Inputs with hashes, the resolved criteria, versions, every segment's full design."""
+def run_record(run, sd, schedule: pd.DataFrame) -> dict:
+    """Inputs with hashes, the resolved criteria, versions, every segment's full design
+    (``run``: the :class:`~.run_info.RunInfo`, ``sd``: the engine's ``SiteDesign``)."""
     import platform
     from importlib import metadata
 
-    from .. import __version__
-
-    versions = {"wallsched": __version__, "python": platform.python_version()}
+    versions = {"wallsched": run.version, "python": platform.python_version()}
     for lib in ("numpy", "pandas", "shapely", "ezdxf", "matplotlib", "click", "geopandas",
                 "openpyxl"):
         try:
@@ -206,19 +205,20 @@ def run_record(site, sd, schedule: pd.DataFrame) -> dict:
         except metadata.PackageNotFoundError:
             versions[lib] = None
     walls = []
-    for spec, w in zip(site.walls, sd.walls, strict=True):
+    for wall_id, w in zip(run.wall_ids, sd.walls, strict=True):
+        tables = run.wall_tables[wall_id]
         segs = schedule[schedule["wall"] == w.wall].to_dict(orient="records")
         walls.append({
             "id": w.wall, "name": w.name, "retained_side": w.retained_side,
-            "soil": dict(spec.soil), "loads": dict(spec.loads),
-            "materials": dict(spec.materials), "criteria": dict(spec.criteria),
+            "soil": dict(tables["soil"]), "loads": dict(tables["loads"]),
+            "materials": dict(tables["materials"]), "criteria": dict(tables["criteria"]),
             "joints": [{"station_ft": j.station_ft, "kind": j.kind} for j in w.joints],
             "segments": [{k: _jsonable(v) for k, v in s.items()} for s in segs],
         })
     return {
-        "site": dict(site.meta), "cautions": list(CAUTIONS),
-        "inputs": site.input_hashes(), "versions": versions,
-        "costs": dict(site.costs), "sizing": dict(site.sizing),
+        "site": dict(run.meta), "cautions": list(run.cautions),
+        "inputs": dict(run.input_hashes), "versions": versions,
+        "costs": dict(run.costs), "sizing": dict(run.sizing),
         "passes": bool(sd.ok), "warnings": list(sd.warnings), "walls": walls,
     }
 

@@ -8,10 +8,13 @@ and expansion joints, existing ground given. All numbers are invented.
 from __future__ import annotations
 
 import math
+from dataclasses import replace
 
 import numpy as np
 from wallsched.engine.bars import BarSpec
+from wallsched.engine.detailing import section_detail, wall_bar_list
 from wallsched.engine.model import Joint, SectionDims, Segment, WallDesign
+from wallsched.engine.quantities import wall_quantities
 from wallsched.profile.sampling import WallStations
 
 SECTION_A = SectionDims(
@@ -71,11 +74,15 @@ def make_design(wall: str = "W1", *, existing_ground: bool = True) -> WallDesign
     joints = (Joint(125.0, "contraction"), Joint(160.0, "expansion"), Joint(185.0, "contraction"),
               Joint(207.5, "contraction"), Joint(230.0, "expansion"),
               Joint(255.0, "contraction"))
-    return WallDesign(wall=wall, name="Invented lot wall", retained_side="left",
+    design = WallDesign(wall=wall, name="Invented lot wall", retained_side="left",
                       stations=stations, segments=segs, joints=joints,
                       station_segment=idx.astype(int), station_utilization=util,
                       station_governing=tuple(segs[i].governing_check for i in idx),
                       station_status=tuple("ok" for _ in idx),
-                      extra={"station_checks": {
+                      station_checks={
                           "overturning": util * 0.75, "sliding": util,
-                          "bearing": util * 0.88, "stem flexure": util * 0.8}})
+                          "bearing": util * 0.88, "stem flexure": util * 0.8})
+    # the engine's bar list, quantity frame and bar details, as the design stage attaches them
+    bars = wall_bar_list(design)
+    return replace(design, bars=bars, quantities=wall_quantities(design, bars),
+                   details={m: section_detail(sec) for m, sec in design.marks().items()})

@@ -13,6 +13,7 @@ from wallsched.engine.checks import check_section
 from wallsched.exporters import report as rp
 from wallsched.exporters.schedule import schedule_frame
 
+from wallsched.basis import run_info
 from wallsched.cautions import CAUTIONS
 from wallsched.design import design_site
 from wallsched.pipeline import site_stations
@@ -38,7 +39,7 @@ def _flat(text: str) -> str:
 def made(tmp_path_factory):
     folder = tmp_path_factory.mktemp("report")
     site, sd = _design(folder / "site")
-    path = rp.write_report(site, sd, folder / "report.pdf")
+    path = rp.write_report(run_info(site), sd, folder / "report.pdf")
     text, reader = _text(path)
     return site, sd, path, text, reader
 
@@ -82,7 +83,7 @@ def test_clauses_and_cautions_are_printed(made):
     ):
         assert clause in flat, clause
     # every clause of every check row the engine makes appears (rows of one section)
-    case = rp.station_case(made[0], sd, next(iter(rp.mark_segments(sd))))
+    case = next(iter(sd.cases.values()))
     for row in case.checks.rows:
         assert _flat(row.clause) in flat, row.clause
     for name, digest in made[0].input_hashes().items():
@@ -94,8 +95,8 @@ def test_clauses_and_cautions_are_printed(made):
 def test_governing_station_rechecked_equals_the_design(made):
     site, sd, _, text, _ = made
     flat = _flat(text)
-    for mark, segs in rp.mark_segments(sd).items():
-        case = rp.station_case(site, sd, mark)
+    for case in sd.cases.values():
+        segs = case.segments
         worst = max(s.utilization_max for _, s in segs)
         # the design stage checked this station with this section: same ratio
         assert float(case.checks.utilization_max) == pytest.approx(worst, rel=1e-9)
@@ -117,7 +118,7 @@ def test_governing_station_rechecked_equals_the_design(made):
 
 def test_check_texts_cover_every_row_with_its_verdict(made):
     site, sd, _, _, _ = made
-    case = rp.station_case(site, sd, next(iter(rp.mark_segments(sd))))
+    case = next(iter(sd.cases.values()))
     texts = rp.check_texts(case)
     assert [t.name for t in texts] == list(case.checks.names)
     for t, row in zip(texts, case.checks.rows, strict=True):
@@ -135,7 +136,7 @@ def test_a_failing_segment_is_shown_as_failing(tmp_path):
     site, sd = _design(tmp_path / "site", extra=extra)
     bad = [s for w in sd.walls for s in w.segments if not s.ok]
     assert bad, "the invented site should fail with this grid"
-    path = rp.write_report(site, sd, tmp_path / "report.pdf")
+    path = rp.write_report(run_info(site), sd, tmp_path / "report.pdf")
     text, _ = _text(path)
     flat = _flat(text)
     assert "SOME SEGMENTS FAIL" in flat and "FAILING SEGMENTS" in flat
@@ -151,10 +152,10 @@ def test_a_failing_segment_is_shown_as_failing(tmp_path):
 def test_section_check_fails_when_forced(made):
     """A section that fails a check at the governing station prints FAILS for that row."""
     site, sd, _, _, _ = made
-    case = rp.station_case(site, sd, next(iter(rp.mark_segments(sd))))
+    case = next(iter(sd.cases.values()))
     from dataclasses import replace
 
-    from wallsched.design import reinforcement
+    from wallsched.engine.wall_design import reinforcement
 
     weak = replace(case.inputs, allowable_bearing_psf=100.0)  # far below any q_max
     checks = check_section(case.geometry, weak, reinforcement(case.segment.section))
@@ -165,7 +166,7 @@ def test_section_check_fails_when_forced(made):
 
 def test_sketch_png_and_page_image(made, tmp_path):
     site, sd, _, _, reader = made
-    case = rp.station_case(site, sd, next(iter(rp.mark_segments(sd))))
+    case = next(iter(sd.cases.values()))
     png = rp.section_sketch_png(case, dpi=80)
     out = tmp_path / "section.png"
     out.write_bytes(png)  # for a person to look at
@@ -176,7 +177,7 @@ def test_sketch_png_and_page_image(made, tmp_path):
     dark = (img[..., :3].mean(axis=2) < 0.5).mean()
     assert 0.002 < dark < 0.5  # lines and text on a white ground
     with_images = [p for p in reader.pages if len(p.images)]
-    assert len(with_images) == len(rp.mark_segments(sd))  # one sketch per section mark
+    assert len(with_images) == len(sd.cases)  # one sketch per section mark
 
 
 def test_revision_chapter_with_a_diff(tmp_path):
@@ -186,7 +187,7 @@ def test_revision_chapter_with_a_diff(tmp_path):
     site, sd = _design(tmp_path / "site")
     tables = RunTables.from_frames(schedule_frame(sd.walls), stations_frame(sd.walls))
     d = diff_tables(tables, tables)
-    text, _ = _text(rp.write_report(site, sd, tmp_path / "r.pdf", diff=d))
+    text, _ = _text(rp.write_report(run_info(site), sd, tmp_path / "r.pdf", diff=d))
     flat = _flat(text)
     assert "Revision: changes against the earlier run" in flat
     assert "no changes: every segment and retained height matches" in flat

@@ -17,8 +17,7 @@ from wallsched.engine.sizing import (
     exhaustive_optimum,
     parse_sizes,
 )
-
-from wallsched.design import reinforcement, station_geometry
+from wallsched.engine.wall_design import reinforcement, station_geometry
 
 
 def small_grid(batter=False):

@@ -14,3 +14,7 @@ CAUTIONS: tuple[str, ...] = (
 def caution_text(prefix: str = "") -> str:
     """The cautions as lines, each starting with ``prefix``."""
     return "\n".join(f"{prefix}{line}" for line in CAUTIONS)
+
+
+# the cautions as the epilog of every command's --help (click keeps "\b" paragraphs as written)
+EPILOG = "\b\nCAUTIONS\n" + "\n".join(f"- {c}" for c in CAUTIONS)

@@ -12,10 +12,8 @@ from pathlib import Path
 import click
 
 from . import __version__
-from .cautions import CAUTIONS
+from .cautions import EPILOG
 from .errors import InputError
-
-EPILOG = "\b\nCAUTIONS\n" + "\n".join(f"- {c}" for c in CAUTIONS)
 
 
 class WallGroup(click.Group):

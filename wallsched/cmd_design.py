@@ -7,8 +7,7 @@ from pathlib import Path
 
 import click
 
-from .cautions import CAUTIONS
-from .cli import EPILOG
+from .cautions import CAUTIONS, EPILOG
 
 
 def _progress_enabled(quiet: bool) -> bool:

@@ -12,10 +12,9 @@ from pathlib import Path
 
 import click
 
-from .cautions import CAUTIONS
+from .cautions import EPILOG
 from .errors import InputError
 
-EPILOG = "\b\nCAUTIONS\n" + "\n".join(f"- {c}" for c in CAUTIONS)
 EXIT_CHANGED = 4
 
 

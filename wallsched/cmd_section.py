@@ -12,9 +12,7 @@ from pathlib import Path
 
 import click
 
-from .cautions import CAUTIONS
-
-EPILOG = "\b\nCAUTIONS\n" + "\n".join(f"- {c}" for c in CAUTIONS)
+from .cautions import CAUTIONS, EPILOG
 
 CONVENTIONS = {
     "count_toe_soil": ("soil over the toe resists", "soil over the toe neglected"),

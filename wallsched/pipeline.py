@@ -100,8 +100,8 @@ def wall_summary(w) -> str:
 
 def write_design(site, sd, out: Path, *, drawings: bool = True, compare_dir=None) -> list[str]:
     """Every output of ``wallsched design`` into ``out``; returns the summary lines."""
-    import pandas as pd
-
+    from .basis import run_info
+    from .exporters.rebar import write_rebar_csv
     from .exporters.schedule import (
         run_record,
         stations_frame,
@@ -109,25 +109,14 @@ def write_design(site, sd, out: Path, *, drawings: bool = True, compare_dir=None
         write_schedule,
         write_xlsx,
     )
-    from .exporters.tables import write_csv
+    from .exporters.tables import FLOAT_FORMAT, write_csv
 
+    run = run_info(site)
     write_csv(stations_frame(sd.walls), out / "stations.csv")
     schedule = write_schedule(sd.walls, out, sd.warnings)
-    bars = pd.concat([w.extra["bars"] for w in sd.walls if len(w.extra["bars"])],
-                     ignore_index=True) if any(len(w.extra["bars"]) for w in sd.walls) else None
-    from .engine.detailing import REBAR_COLUMNS
-
-    if bars is None:
-        bars = pd.DataFrame(columns=REBAR_COLUMNS)
-    write_csv(bars, out / "rebar.csv")
-    from .engine.quantities import quantity_totals, wall_quantities
-
-    quantities = pd.concat([wall_quantities(w, bars[bars["wall"] == w.wall])
-                            for w in sd.walls if w.segments], ignore_index=True) \
-        if any(w.segments for w in sd.walls) else None
-    totals = quantity_totals(quantities) if quantities is not None else None
-    write_xlsx(schedule, bars, totals, out / "schedule.xlsx", site.name)
-    write_run_json(run_record(site, sd, schedule), out / "run.json")
+    write_rebar_csv(sd.bars, out / "rebar.csv", float_format=FLOAT_FORMAT)
+    write_xlsx(schedule, sd.bars, sd.quantity_totals, out / "schedule.xlsx", run.site_name)
+    write_run_json(run_record(run, sd, schedule), out / "run.json")
     lines = [wall_summary(w) for w in sd.walls]
     d = None
     if compare_dir is not None:
@@ -141,30 +130,26 @@ def write_design(site, sd, out: Path, *, drawings: bool = True, compare_dir=None
         write_diff(d, out / "diff.csv")
         lines += d.summary_lines()
     if drawings:
-        write_drawings(site, sd, out, bars, diff=d)
+        write_drawings(run, sd, out, diff=d)
     from .exporters.report import write_report
 
-    write_report(site, sd, out / "report.pdf", diff=d)
+    write_report(run, sd, out / "report.pdf", diff=d)
     return lines
 
 
-def write_drawings(site, sd, out: Path, bars, *, diff=None) -> None:
+def write_drawings(run, sd, out: Path, *, diff=None) -> None:
     """The DXF elevation and the plots of every wall; with ``diff`` (a RunDiff against an
     earlier run) each changed wall's DXF gets a revision cloud around every changed range."""
-    from .engine.quantities import wall_quantities
     from .exporters.design_plots import write_design_plots
     from .exporters.dxf_elevation import write_elevation_dxf
     from .exporters.plots import plot_stations
 
-    hash_text = ", ".join(f"{k} sha256 {v[:16]}" for k, v in site.input_hashes().items())
     for w in sd.walls:
         name = safe_name(w.wall)
         plot_stations(w.stations, out / f"{name}-profile.png")
         if not w.segments:
             continue
-        wb = bars[bars["wall"] == w.wall]
         revisions = diff.changed_station_ranges(w.wall) if diff is not None else None
-        write_elevation_dxf(w, out / f"{name}-elevation.dxf", input_hash=hash_text,
-                            site_name=site.name, bars=wb, quantities=wall_quantities(w, wb),
-                            revisions=revisions)
+        write_elevation_dxf(w, out / f"{name}-elevation.dxf", input_hash=run.hash_text,
+                            site_name=run.site_name, revisions=revisions)
         write_design_plots(w, out)

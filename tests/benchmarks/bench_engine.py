@@ -49,8 +49,8 @@ def main(argv=None) -> int:
     from wallsched.engine.section import DesignInputs
     from wallsched.engine.segments import plan_segments, plan_segments_many
     from wallsched.engine.sizing import CostRates, SizingGrid, design_table
+    from wallsched.engine.wall_design import reinforcement, segment_rules, station_geometry
 
-    from wallsched.design import reinforcement, segment_rules, station_geometry
     from wallsched.keys import CRITERIA_KEYS
 
     crit = {k: v.default for k, v in CRITERIA_KEYS.items()}
@@ -73,9 +73,8 @@ def main(argv=None) -> int:
 
     # sizing: the design table for the heights the site needs, then every station's look-up
     t0 = time.perf_counter()
+    from wallsched.engine.site_design import needed_height_ft
     from wallsched.profile.sampling import WallStations
-
-    from wallsched.design import needed_height_ft
 
     need = max(needed_height_ft(WallStations("B", s, s, s, rg, fg, np.full(s.size, np.nan),
                                              np.zeros(s.size, bool)), crit)

@@ -1,0 +1,294 @@
+"""One wall designed from its planned segments: every station of every segment checked with
+the segment's section, footing and top at that station's own grades (``check_section``), and
+checked again by the independent scalar implementation (``engine.audit``); a disagreement
+between the two is a bug (DesignError, exit 1), never a silent pass.
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Mapping
+from dataclasses import dataclass
+from typing import Any
+
+import numpy as np
+
+from ..errors import DesignError
+from .bars import BarSpec
+from .checks import SectionChecks, check_section
+from .model import Joint, SectionDims, Segment, StationSeries, WallDesign
+from .section import BarArrays, DesignInputs, Reinforcement, SectionGeometry
+from .segments import SegmentRules, place_joints, plan_segments
+from .sizing import CostRates, DesignTable
+
+MIN_CHECK_HEIGHT_FT = 0.05  # a station with less (or a flipped side) is checked at this height
+NO_WALL_STATUS = "no_wall: retained height below min_retained_height_ft"
+OVER_LIMIT_STATUS = "over_limit: retained height exceeds max_retained_height_ft"
+
+
+@dataclass(frozen=True)
+class WallToDesign:
+    """One wall as the design stage takes it: its id and side, its validated inputs and
+    criteria (the ``[criteria]`` keys), and its sampled stations."""
+
+    wall: str
+    name: str | None
+    retained_side: str
+    inputs: DesignInputs
+    criteria: Mapping[str, Any]
+    stations: StationSeries
+
+
+def segment_rules(crit, rates: CostRates) -> SegmentRules:
+    emb = max(crit["min_embedment_ft"], crit.get("frost_depth_ft") or 0.0)
+    return SegmentRules(
+        embedment_ft=emb, freeboard_ft=crit["freeboard_ft"],
+        footing_step_max_ft=crit["footing_step_max_ft"],
+        bf_round_ft=crit["bottom_of_footing_round_ft"],
+        top_of_wall=crit["top_of_wall"], top_step_in=crit["top_step_in"],
+        segment_min_ft=crit["segment_min_ft"], segment_max_ft=crit["segment_max_ft"],
+        step_cost_usd=rates.step_usd)
+
+
+def station_geometry(sec: SectionDims, h, emb, fb) -> SectionGeometry:
+    return SectionGeometry(
+        retained_height_ft=np.maximum(h, MIN_CHECK_HEIGHT_FT), embedment_ft=emb,
+        footing_thickness_in=sec.footing_thickness_in, stem_top_in=sec.stem_top_in,
+        stem_base_in=sec.stem_base_in, toe_ft=sec.toe_ft, heel_ft=sec.heel_ft,
+        key_width_in=sec.key_width_in, key_depth_in=sec.key_depth_in,
+        key_offset_ft=sec.key_offset_ft if sec.has_key else None, freeboard_ft=fb)
+
+
+def reinforcement(sec: SectionDims) -> Reinforcement:
+    def arr(b: BarSpec):
+        return BarArrays(b.size, b.spacing_in)
+
+    return Reinforcement(stem=arr(sec.stem_bars), heel=arr(sec.heel_bars), toe=arr(sec.toe_bars),
+                         horizontal=arr(sec.horizontal_bars),
+                         longitudinal=arr(sec.footing_long_bars))
+
+
+def station_cases(ws: StationSeries, idx, bf, tw, fb_crit, top_mode):
+    """Retained height, embedment and freeboard at the stations ``idx`` of a segment."""
+    rg, fg = ws.retained_grade_ft[idx], ws.front_grade_ft[idx]
+    h = rg - fg
+    emb = fg - bf
+    fb = (tw - rg) if top_mode == "stepped" else np.full(idx.size, fb_crit)
+    return h, emb, fb
+
+
+def audit_stations(inputs, sec: SectionDims, h, emb, fb, res: SectionChecks, wall, station_ft):
+    """The scalar re-check of every station; raises DesignError where it disagrees."""
+    from .audit import audit_section
+
+    geo = {"footing_thickness_in": sec.footing_thickness_in, "stem_top_in": sec.stem_top_in,
+           "stem_base_in": sec.stem_base_in, "toe_ft": sec.toe_ft, "heel_ft": sec.heel_ft,
+           "key_width_in": sec.key_width_in, "key_depth_in": sec.key_depth_in}
+    if sec.has_key:
+        geo["key_offset_ft"] = sec.key_offset_ft
+    bars = {"stem": str(sec.stem_bars), "heel": str(sec.heel_bars), "toe": str(sec.toe_bars),
+            "horizontal": str(sec.horizontal_bars), "longitudinal": str(sec.footing_long_bars)}
+    for k in range(h.size):
+        g = dict(geo, retained_height_ft=max(float(h[k]), MIN_CHECK_HEIGHT_FT),
+                 embedment_ft=float(emb[k]), freeboard_ft=float(fb[k]))
+        rows = audit_section(inputs, g, bars)
+        for name in res.names:
+            if name in rows:
+                _agree(rows[name], res, name, k, wall, station_ft[k])
+
+
+def _agree(a, res: SectionChecks, name: str, k: int, wall, station_ft: float) -> None:
+    row = res.row(name)
+    v_ok = bool(np.broadcast_to(row.passes, res.shape)[k])
+    if a.passes == v_ok:
+        return
+    r = float(np.broadcast_to(row.ratio, res.shape)[k])
+    ra = a.demand / a.capacity if a.capacity else math.inf
+    # a ratio on the edge (within rounding of 1.0) may fall either side
+    if not (math.isfinite(r) and abs(r - 1.0) < 1e-6 and abs(ra - 1.0) < 1e-6):
+        raise DesignError(
+            f"audit disagrees with the engine on wall {wall} at station "
+            f"{station_ft:.2f}, check {name}: engine ratio {r:.6f} "
+            f"({'pass' if v_ok else 'fail'}), audit {a.demand:.6g} / "
+            f"{a.capacity:.6g} ({'pass' if a.passes else 'fail'})")
+
+
+def merge_identical(plan, run, station_ft, table: DesignTable, segment_max_ft: float):
+    """The plan's segments as (first station, last station, BF, TW, design height), with
+    neighbours that came out identical (same section, footing and top: a boundary without a
+    step or a change costs nothing, so the optimum may split anywhere) joined again while the
+    joined length stays within ``segment_max_ft``."""
+    out: list[list] = []
+    for q in range(len(plan)):
+        i0, i1 = int(run[plan.start_index[q]]), int(run[plan.end_index[q]])
+        bf, tw = float(plan.bottom_of_footing_ft[q]), float(plan.top_of_wall_ft[q])
+        hc = float(plan.design_height_ft[q])
+        if out:
+            p = out[-1]
+            same_top = (math.isnan(tw) and math.isnan(p[3])) or abs(tw - p[3]) < 1e-9
+            if (abs(bf - p[2]) < 1e-9 and same_top
+                    and int(table.index(hc)) == int(table.index(p[4]))
+                    and station_ft[i1] - station_ft[p[0]] <= segment_max_ft + 1e-9):
+                p[1], p[4] = i1, max(p[4], hc)
+                continue
+        out.append([i0, i1, bf, tw, hc])
+    return [tuple(p) for p in out]
+
+
+def wall_run(ws: StationSeries, c) -> np.ndarray | None:
+    """The stations of a wall from the first to the last that needs a wall (None if none)."""
+    n = len(ws)
+    need = np.nonzero(ws.retained_height_ft >= c["min_retained_height_ft"])[0]
+    if need.size == 0:
+        return None
+    first, last = int(need[0]), int(need[-1])
+    if first == last:  # one station needs a wall: give it a neighbour
+        first, last = (first - 1, last) if first > 0 else (first, min(last + 1, n - 1))
+    return np.arange(first, last + 1)
+
+
+def section_for(table: DesignTable, hc: float, geometry_at, inputs: DesignInputs):
+    """The envelope section of the design table for ``hc`` checked at the segment's stations;
+    if a station still fails, the next taller one (rare). Returns (section, checks, reason):
+    section and checks None with a ``no_section`` reason when nothing on the grid holds."""
+    k0 = int(table.index(hc))
+    tries = []
+    for k in range(k0 if k0 >= 0 else len(table.choices), len(table.choices)):
+        cand = table.choices[k].section
+        if cand is None:
+            break
+        r = check_section(geometry_at(cand), inputs, reinforcement(cand))
+        tries.append((cand, r))
+        if bool(np.all(r.passes)):
+            break
+    if not tries:
+        return None, None, (
+            f"no_section: nothing on the sizing grid holds a design height of "
+            f"{hc:.2f} ft; widen [sizing] (footing_thickness_max_in, heel_max_ft, "
+            f"toe_max_ft, stem_max_in) or revisit the soil and loads")
+    sec, res = tries[-1] if bool(np.all(tries[-1][1].passes)) else tries[0]
+    return sec, res, ""
+
+
+@dataclass
+class _StationResults:
+    """The per-station arrays of a wall, filled segment by segment."""
+
+    n: int
+
+    def __post_init__(self):
+        self.segment = np.full(self.n, -1)
+        self.utilization = np.full(self.n, np.nan)
+        self.checks: dict[str, np.ndarray] = {}
+        self.governing = [""] * self.n
+        self.status = [NO_WALL_STATUS] * self.n
+
+
+def _segment_fields(res: SectionChecks, station_ft) -> dict:
+    st = res.stability
+    ratio = np.asarray(res.utilization_max, float)
+    kmax = int(np.argmax(np.where(np.isfinite(ratio), ratio, np.inf)))
+    return dict(
+        fs_overturning=float(np.min(st.fs_overturning)),
+        fs_sliding=float(np.min(st.fs_sliding)),
+        q_max_psf=float(np.max(st.q_max_psf)),
+        utilization_max=float(np.max(ratio)),
+        governing_check=str(res.governing[kmax]),
+        governing_station_ft=float(station_ft[kmax]))
+
+
+def _record_stations(out: _StationResults, q, idx, own, over, res, reason) -> None:
+    """The segment's own stations (its end station goes to the next) into ``out``."""
+    local = {int(j): jl for jl, j in enumerate(idx)}
+    if res is not None:
+        ratio = np.asarray(res.utilization_max, float)
+        g_names = res.governing
+        own_local = np.array([local[int(j)] for j in own])
+        for row in res.rows:
+            arr = out.checks.setdefault(row.name, np.full(out.n, np.nan))
+            arr[own] = np.broadcast_to(row.ratio, res.shape)[own_local]
+    for j in own:
+        jl = local[int(j)]
+        out.segment[j] = q
+        if over[jl]:
+            out.status[j] = OVER_LIMIT_STATUS
+        elif res is None:
+            out.status[j] = reason
+        else:
+            out.utilization[j] = float(ratio[jl])
+            out.governing[j] = str(g_names[jl])
+            out.status[j] = "ok" if bool(np.asarray(res.passes)[jl]) else f"fails: {g_names[jl]}"
+
+
+def _design_segment(wall: WallToDesign, table: DesignTable, q, piece, last: bool, out,
+                    audit: bool) -> Segment:
+    i0, i1, bf, tw, hc = piece
+    c, ws = wall.criteria, wall.stations
+    idx = np.arange(i0, i1 + 1)  # both ends are checked
+    own = idx if last else idx[:-1]  # the end station goes to the next
+    hs, emb, fb = station_cases(ws, idx, bf, tw, c["freeboard_ft"], c["top_of_wall"])
+    sec, res, reason = section_for(table, hc, lambda cand: station_geometry(cand, hs, emb, fb),
+                                   wall.inputs)
+    if res is not None and not bool(np.all(res.passes)):
+        bad = int(np.argmax(~np.asarray(res.passes)))
+        reason = f"fails: {res.governing[bad]} at station {ws.station_ft[idx][bad]:.2f}"
+    over = hs > c["max_retained_height_ft"] + 1e-9
+    if over.any():
+        kk = int(np.argmax(hs))
+        reason = (f"over_limit: retained height {hs[kk]:.2f} ft at station "
+                  f"{ws.station_ft[idx][kk]:.2f} exceeds max_retained_height_ft "
+                  f"{c['max_retained_height_ft']:g}")
+    fields: dict = {}
+    if res is not None:
+        fields = _segment_fields(res, ws.station_ft[idx])
+        if audit:
+            audit_stations(wall.inputs, sec, hs, emb, fb, res, wall.wall, ws.station_ft[idx])
+    _record_stations(out, q, idx, own, over, res, reason)
+    t_ft = (sec.footing_thickness_in / 12.0) if sec is not None else 0.0
+    rg_seg = ws.retained_grade_ft[idx]
+    tw_start = tw if c["top_of_wall"] == "stepped" else float(rg_seg[0] + c["freeboard_ft"])
+    tw_end = tw if c["top_of_wall"] == "stepped" else float(rg_seg[-1] + c["freeboard_ft"])
+    return Segment(
+        wall=wall.wall, segment=f"{wall.wall}-{q + 1:02d}", mark="",
+        station_start_ft=float(ws.station_ft[i0]), station_end_ft=float(ws.station_ft[i1]),
+        retained_height_max_ft=float(np.max(hs)),
+        top_of_wall_ft=tw, top_of_footing_ft=bf + t_ft, bottom_of_footing_ft=bf,
+        section=sec, design_height_ft=hc, status=reason or "ok",
+        top_of_wall_start_ft=tw_start, top_of_wall_end_ft=tw_end, **fields)
+
+
+def _joints(segments: list[Segment], c) -> tuple[Joint, ...]:
+    boundaries = []
+    for a, b in zip(segments[:-1], segments[1:], strict=True):
+        step = (abs(a.bottom_of_footing_ft - b.bottom_of_footing_ft) > 1e-9
+                or (c["top_of_wall"] == "stepped" and abs(a.top_of_wall_ft - b.top_of_wall_ft)
+                    > 1e-9))
+        boundaries.append((b.station_start_ft, step))
+    joints = place_joints(segments[0].station_start_ft, segments[-1].station_end_ft, boundaries,
+                          c["contraction_joint_max_ft"], c["expansion_joint_max_ft"])
+    return tuple(Joint(st, k) for st, k in joints)
+
+
+def design_wall(wall: WallToDesign, table: DesignTable, rates: CostRates, *,
+                audit: bool = True, plan=None) -> WallDesign:
+    """Segments, sections and per-station checks of one wall (``plan``: its segments from
+    :func:`~.segments.plan_segments_many`, planned here when not given)."""
+    c, ws = wall.criteria, wall.stations
+    out = _StationResults(len(ws))
+    run = wall_run(ws, c)
+    if run is None:
+        return WallDesign(wall.wall, wall.name, wall.retained_side, ws, (), (), out.segment,
+                          out.utilization, tuple(out.governing), tuple(out.status))
+    if plan is None:
+        plan = plan_segments(ws.station_ft[run], ws.retained_grade_ft[run],
+                             ws.front_grade_ft[run], segment_rules(c, rates),
+                             table.cost_per_ft, table.embedment_of)
+    pieces = merge_identical(plan, run, ws.station_ft, table, c["segment_max_ft"])
+    segments = [_design_segment(wall, table, q, piece, q == len(pieces) - 1, out, audit)
+                for q, piece in enumerate(pieces)]
+    return WallDesign(
+        wall=wall.wall, name=wall.name, retained_side=wall.retained_side, stations=ws,
+        segments=tuple(segments), joints=_joints(segments, c),
+        station_segment=out.segment, station_utilization=out.utilization,
+        station_governing=tuple(out.governing), station_status=tuple(out.status),
+        station_checks=out.checks)
