@@ -15,13 +15,13 @@ from __future__ import annotations
 
 import csv
 import math
-from dataclasses import dataclass
 from pathlib import Path
 
 import numpy as np
 import shapely
 
 from ..errors import ProfileError
+from .core import Alignment, GradeProfile
 from .stationing import parse_station
 
 MAX_CSV_BYTES = 20 * 1024 * 1024  # refuse larger files (stated in the README)
@@ -36,30 +36,6 @@ STATION_NAMES = ("station", "sta", "station_ft", "sta_ft", "stationing")
 ELEVATION_NAMES = ("elevation", "elev", "elevation_ft", "elev_ft", "z")
 X_NAMES = ("x", "easting", "x_ft")
 Y_NAMES = ("y", "northing", "y_ft")
-
-
-@dataclass(frozen=True)
-class GradeProfile:
-    """A piecewise-linear profile: elevation (ft) against station (ft), stations increasing."""
-
-    station_ft: np.ndarray
-    elevation_ft: np.ndarray
-    label: str  # file (and layer) for messages
-
-    def at(self, station_ft) -> np.ndarray:
-        return np.interp(station_ft, self.station_ft, self.elevation_ft)
-
-
-@dataclass(frozen=True)
-class Alignment:
-    """A wall alignment in plan: a shapely LineString, vertices in up-station order."""
-
-    line: shapely.LineString
-    label: str
-
-    @property
-    def length_ft(self) -> float:
-        return float(self.line.length)
 
 
 def _read_rows(path: Path, label: str):

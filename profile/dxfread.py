@@ -23,21 +23,24 @@ from __future__ import annotations
 
 import math
 import re
-import warnings as _warnings
 from collections.abc import Mapping
-from dataclasses import dataclass
 from functools import lru_cache
 from pathlib import Path
 from typing import Any
 
 import numpy as np
-import shapely
 
 from ..errors import ProfileError
+from .core import (
+    Alignment,
+    DrawingAlignment,
+    DrawingProfile,
+    Projector,
+    project_polyline,
+    warn,
+)
 from .csvread import (
     MAX_PROFILE_POINTS,
-    Alignment,
-    GradeProfile,
     alignment_from_xy,
     grade_jump,
     jump_limit_text,
@@ -49,10 +52,8 @@ from .csvread import (
 ARC_CHORD_ERROR_FT = 0.002
 GAP_TOLERANCE_FT = 0.1  # default: ends closer than this are one joint of the alignment
 MAX_OFFSET_FT = 10.0  # default: grade vertices and labels farther from the wall are ignored
-DENSIFY_STEP_FT = 0.25  # a grade chord that leaves the band is cut at this resolution
 SAME_STATION_FT = 1e-3  # projected points closer than this are one station
 SAME_ELEVATION_FT = 0.01  # ... and must agree within this
-EXTENSION_FT = 1000.0  # the alignment is extended straight past both ends for projection
 MAX_DXF_BYTES = 50 * 1024 * 1024  # larger drawings are refused unread (stated in the README)
 MAX_DXF_ENTITIES = 200_000  # entities in model space (stated in the README)
 MAX_DXF_POINTS = 500_000  # point tags (group code 10) in a text DXF, counted before parsing
@@ -71,30 +72,6 @@ INSUNITS_LABELS = {0: "unitless", 1: "inches", 2: "feet", 3: "miles", 4: "millim
                    5: "centimetres", 6: "metres", 7: "kilometres", 8: "microinches", 9: "mils",
                    10: "yards", 14: "decimetres", 21: "US survey feet"}
 LINEAR_TYPES = ("LWPOLYLINE", "POLYLINE", "LINE", "ARC")
-
-
-class ProfileWarning(UserWarning):
-    """Something in a drawing or GIS file was ignored; the run goes on."""
-
-
-@dataclass(frozen=True)
-class DrawingProfile(GradeProfile):
-    """A grade profile read from a drawing, with the warnings raised while reading it."""
-
-    warnings: tuple[str, ...] = ()
-
-
-@dataclass(frozen=True)
-class DrawingAlignment(Alignment):
-    """An alignment read from a drawing or GIS file, with its reading warnings."""
-
-    warnings: tuple[str, ...] = ()
-
-
-def warn(messages: list[str], text: str) -> None:
-    """Record one warning and issue it as a ProfileWarning."""
-    messages.append(text)
-    _warnings.warn(text, ProfileWarning, stacklevel=3)
 
 
 # --------------------------------------------------------------------------- reading
@@ -358,70 +335,6 @@ def read_alignment_dxf(path: Path, options: Mapping[str, Any], label: str) -> Dr
 
 
 # --------------------------------------------------------------------------- projection
-
-
-@dataclass(frozen=True)
-class Projector:
-    """Station and signed offset (left of up-station positive) of plan points on a wall."""
-
-    alignment: Alignment
-    start_station_ft: float
-
-    def __post_init__(self):
-        xy = np.asarray(self.alignment.line.coords, dtype=float)[:, :2]
-        d0 = xy[1] - xy[0]
-        d1 = xy[-1] - xy[-2]
-        d0 /= np.hypot(*d0)
-        d1 /= np.hypot(*d1)
-        ext = np.vstack([xy[0] - EXTENSION_FT * d0, xy, xy[-1] + EXTENSION_FT * d1])
-        object.__setattr__(self, "_xy", ext)
-        object.__setattr__(self, "_line", shapely.LineString(ext))
-        seg = np.hypot(*np.diff(ext, axis=0).T)
-        object.__setattr__(self, "_cum", np.r_[0.0, np.cumsum(seg)])
-
-    def project(self, xy: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
-        """(station_ft, offset_ft) of each point (n x 2)."""
-        xy = np.asarray(xy, dtype=float).reshape(-1, 2)
-        pts = shapely.points(xy)
-        s = shapely.line_locate_point(self._line, pts)
-        k = np.clip(np.searchsorted(self._cum, s, side="right") - 1, 0, len(self._cum) - 2)
-        a, b = self._xy[k], self._xy[k + 1]
-        t = (s - self._cum[k]) / (self._cum[k + 1] - self._cum[k])
-        foot = a + (b - a) * t[:, None]
-        dirn = b - a
-        rel = xy - foot
-        cross = dirn[:, 0] * rel[:, 1] - dirn[:, 1] * rel[:, 0]
-        dist = np.hypot(rel[:, 0], rel[:, 1])
-        offset = np.where(cross < 0, -dist, dist)
-        return self.start_station_ft + s - EXTENSION_FT, offset
-
-
-def project_polyline(proj: Projector, pts: np.ndarray, max_offset_ft: float):
-    """Project one grade polyline's vertices (n x 3); return (station, elevation, dropped).
-
-    Vertices within ``max_offset_ft`` of the wall (extended straight past its ends) count.
-    A chord from a counted vertex to one farther out is densified and cut where it leaves
-    the band, so a line drawn longer than the wall still covers the wall's ends.
-    """
-    st, off = proj.project(pts[:, :2])
-    inside = np.abs(off) <= max_offset_ft
-    out_st = list(st[inside])
-    out_el = list(pts[inside, 2])
-    for k in range(len(pts) - 1):
-        if inside[k] == inside[k + 1]:
-            continue
-        a, b = (pts[k], pts[k + 1]) if inside[k] else (pts[k + 1], pts[k])
-        n = int(math.ceil(np.hypot(*(b[:2] - a[:2])) / DENSIFY_STEP_FT))
-        if n < 2:
-            continue
-        t = np.arange(1, n) / n
-        mid = a + (b - a) * t[:, None]
-        mst, moff = proj.project(mid[:, :2])
-        ok = np.abs(moff) <= max_offset_ft
-        stop = int(np.argmin(ok)) if not ok.all() else ok.size
-        out_st.extend(mst[:stop])
-        out_el.extend(mid[:stop, 2])
-    return np.array(out_st), np.array(out_el), int((~inside).sum())
 
 
 def build_profile(st: np.ndarray, el: np.ndarray, tags: list[str], *, label: str,

@@ -20,16 +20,20 @@ import numpy as np
 import shapely
 
 from ..errors import ProfileError
-from .csvread import Alignment, alignment_from_xy
-from .dxfread import (
-    FT_PER_UNIT,
-    MAX_OFFSET_FT,
+from .core import (
+    Alignment,
     DrawingAlignment,
     DrawingProfile,
     Projector,
+    project_polyline,
+    warn,
+)
+from .csvread import alignment_from_xy
+from .dxfread import (
+    FT_PER_UNIT,
+    MAX_OFFSET_FT,
     build_profile,
     orient,
-    project_polyline,
 )
 
 FOOT_UNITS = {"foot": "ft", "us survey foot": "us-ft", "metre": "m", "meter": "m"}
@@ -142,8 +146,6 @@ def read_grade_gis(path: Path, options: Mapping[str, Any], label: str, *,
     if coords.shape[1] < 3:
         raise ProfileError("the feature has no z values; a grade line needs elevations",
                            file=label, where=where)
-    from .dxfread import warn
-
     messages: list[str] = []
     max_off = float(options.get("max_offset_ft", MAX_OFFSET_FT))
     st, el, dropped = project_polyline(Projector(alignment, start_station_ft), coords[:, :3],

@@ -24,16 +24,13 @@ import numpy as np
 import shapely
 
 from ..errors import ProfileError
-from .csvread import Alignment
+from .core import Alignment, DrawingProfile, Projector, warn
 from .dxfread import (
     MAX_OFFSET_FT,
-    DrawingProfile,
-    Projector,
     build_profile,
     layer_entities,
     open_dxf,
     unit_factor,
-    warn,
 )
 
 LABEL_KINDS = ("TW", "BW")

@@ -14,7 +14,7 @@ import pandas as pd
 import shapely
 
 from ..errors import ProfileError
-from .csvread import Alignment, GradeProfile
+from .core import Alignment, GradeProfile
 from .stationing import format_station, format_stations
 
 MERGE_TOL_FT = 1e-6  # stations closer than this are one station

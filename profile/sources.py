@@ -10,7 +10,8 @@ from collections.abc import Mapping
 from typing import Any
 
 from ..errors import InputError
-from .csvread import Alignment, GradeProfile, read_alignment_csv, read_grade_csv
+from .core import Alignment, GradeProfile
+from .csvread import read_alignment_csv, read_grade_csv
 
 # Option keys an inline source table may carry besides its file key, per kind.
 OPTION_KEYS: dict[str, tuple[str, ...]] = {

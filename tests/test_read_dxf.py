@@ -14,9 +14,9 @@ import pandas as pd
 import pytest
 import shapely
 from sitekit import SOIL, write
+from wallsched.profile.core import ProfileWarning
 from wallsched.profile.csvread import alignment_from_xy
 from wallsched.profile.dxfread import (
-    ProfileWarning,
     read_alignment_dxf,
     read_plan_grade,
     read_profile_view,

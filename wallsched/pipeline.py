@@ -66,7 +66,7 @@ class collect_warnings:  # noqa: N801 - used as a context manager
         return self.lines
 
     def __exit__(self, *exc) -> None:
-        from .profile.dxfread import ProfileWarning
+        from .profile.core import ProfileWarning
 
         self._cm.__exit__(*exc)
         for w in self._rec:
