@@ -17,6 +17,7 @@ from typing import TYPE_CHECKING, Protocol
 import numpy as np
 
 from .bars import BarSpec
+from .status import OK, Status, StatusCode  # noqa: F401 - StatusCode: for the exporters
 
 if TYPE_CHECKING:
     import pandas as pd
@@ -132,7 +133,7 @@ class Segment:
     excavation_cy: float = math.nan
     backfill_cy: float = math.nan
     cost_usd: float = math.nan
-    status: str = "ok"  # exactly "ok" when every check passes, else "code: reason"
+    status: Status = OK  # prints "ok" when every check passes, else "code: reason"
     top_of_wall_start_ft: float = math.nan  # top of wall at the segment ends (for drawing)
     top_of_wall_end_ft: float = math.nan
 
@@ -142,7 +143,7 @@ class Segment:
 
     @property
     def ok(self) -> bool:
-        return self.status == "ok"
+        return self.status == OK
 
 
 @dataclass(frozen=True)
@@ -158,7 +159,7 @@ class WallDesign:
     station_segment: np.ndarray  # index into segments per station, -1 where no wall is needed
     station_utilization: np.ndarray  # largest check ratio per station (NaN where no wall)
     station_governing: tuple[str, ...]  # governing check per station ("" where no wall)
-    station_status: tuple[str, ...]  # "ok", "no_wall: ...", or a failing code
+    station_status: tuple[Status, ...]  # "ok", "no_wall: ...", or a failing code
     # check name -> ratio per station (NaN where the station has no checked section)
     station_checks: Mapping[str, np.ndarray] = field(default_factory=dict)
     bars: pd.DataFrame | None = None  # the bar list (REBAR_COLUMNS), one row per segment and mark
@@ -248,5 +249,4 @@ class SiteDesign:
     @property
     def ok(self) -> bool:
         return all(w.ok for w in self.walls) and all(
-            not s.startswith(("over_limit", "no_section", "fails")) for w in self.walls
-            for s in w.station_status)
+            not s.failing for w in self.walls for s in w.station_status)

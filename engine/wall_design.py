@@ -20,10 +20,12 @@ from .model import Joint, SectionDims, Segment, StationSeries, WallDesign
 from .section import BarArrays, DesignInputs, Reinforcement, SectionGeometry
 from .segments import SegmentRules, place_joints, plan_segments
 from .sizing import CostRates, DesignTable
+from .status import OK, Status, StatusCode
 
 MIN_CHECK_HEIGHT_FT = 0.05  # a station with less (or a flipped side) is checked at this height
-NO_WALL_STATUS = "no_wall: retained height below min_retained_height_ft"
-OVER_LIMIT_STATUS = "over_limit: retained height exceeds max_retained_height_ft"
+NO_WALL_STATUS = Status(StatusCode.NO_WALL, "retained height below min_retained_height_ft")
+OVER_LIMIT_STATUS = Status(StatusCode.OVER_LIMIT,
+                           "retained height exceeds max_retained_height_ft")
 
 
 @dataclass(frozen=True)
@@ -149,8 +151,8 @@ def wall_run(ws: StationSeries, c) -> np.ndarray | None:
 
 def section_for(table: DesignTable, hc: float, geometry_at, inputs: DesignInputs):
     """The envelope section of the design table for ``hc`` checked at the segment's stations;
-    if a station still fails, the next taller one (rare). Returns (section, checks, reason):
-    section and checks None with a ``no_section`` reason when nothing on the grid holds."""
+    if a station still fails, the next taller one (rare). Returns (section, checks, status):
+    section and checks None with a ``no_section`` status when nothing on the grid holds."""
     k0 = int(table.index(hc))
     tries = []
     for k in range(k0 if k0 >= 0 else len(table.choices), len(table.choices)):
@@ -162,12 +164,12 @@ def section_for(table: DesignTable, hc: float, geometry_at, inputs: DesignInputs
         if bool(np.all(r.passes)):
             break
     if not tries:
-        return None, None, (
-            f"no_section: nothing on the sizing grid holds a design height of "
+        return None, None, Status(StatusCode.NO_SECTION, (
+            f"nothing on the sizing grid holds a design height of "
             f"{hc:.2f} ft; widen [sizing] (footing_thickness_max_in, heel_max_ft, "
-            f"toe_max_ft, stem_max_in) or revisit the soil and loads")
+            f"toe_max_ft, stem_max_in) or revisit the soil and loads"))
     sec, res = tries[-1] if bool(np.all(tries[-1][1].passes)) else tries[0]
-    return sec, res, ""
+    return sec, res, OK
 
 
 @dataclass
@@ -197,7 +199,7 @@ def _segment_fields(res: SectionChecks, station_ft) -> dict:
         governing_station_ft=float(station_ft[kmax]))
 
 
-def _record_stations(out: _StationResults, q, idx, own, over, res, reason) -> None:
+def _record_stations(out: _StationResults, q, idx, own, over, res, status) -> None:
     """The segment's own stations (its end station goes to the next) into ``out``."""
     local = {int(j): jl for jl, j in enumerate(idx)}
     if res is not None:
@@ -213,11 +215,12 @@ def _record_stations(out: _StationResults, q, idx, own, over, res, reason) -> No
         if over[jl]:
             out.status[j] = OVER_LIMIT_STATUS
         elif res is None:
-            out.status[j] = reason
+            out.status[j] = status
         else:
             out.utilization[j] = float(ratio[jl])
             out.governing[j] = str(g_names[jl])
-            out.status[j] = "ok" if bool(np.asarray(res.passes)[jl]) else f"fails: {g_names[jl]}"
+            out.status[j] = OK if bool(np.asarray(res.passes)[jl]) else Status(
+                StatusCode.FAILS, str(g_names[jl]))
 
 
 def _design_segment(wall: WallToDesign, table: DesignTable, q, piece, last: bool, out,
@@ -227,23 +230,25 @@ def _design_segment(wall: WallToDesign, table: DesignTable, q, piece, last: bool
     idx = np.arange(i0, i1 + 1)  # both ends are checked
     own = idx if last else idx[:-1]  # the end station goes to the next
     hs, emb, fb = station_cases(ws, idx, bf, tw, c["freeboard_ft"], c["top_of_wall"])
-    sec, res, reason = section_for(table, hc, lambda cand: station_geometry(cand, hs, emb, fb),
+    sec, res, status = section_for(table, hc, lambda cand: station_geometry(cand, hs, emb, fb),
                                    wall.inputs)
     if res is not None and not bool(np.all(res.passes)):
         bad = int(np.argmax(~np.asarray(res.passes)))
-        reason = f"fails: {res.governing[bad]} at station {ws.station_ft[idx][bad]:.2f}"
+        status = Status(StatusCode.FAILS,
+                        f"{res.governing[bad]} at station {ws.station_ft[idx][bad]:.2f}")
     over = hs > c["max_retained_height_ft"] + 1e-9
     if over.any():
         kk = int(np.argmax(hs))
-        reason = (f"over_limit: retained height {hs[kk]:.2f} ft at station "
-                  f"{ws.station_ft[idx][kk]:.2f} exceeds max_retained_height_ft "
-                  f"{c['max_retained_height_ft']:g}")
+        status = Status(StatusCode.OVER_LIMIT, (
+            f"retained height {hs[kk]:.2f} ft at station "
+            f"{ws.station_ft[idx][kk]:.2f} exceeds max_retained_height_ft "
+            f"{c['max_retained_height_ft']:g}"))
     fields: dict = {}
     if res is not None:
         fields = _segment_fields(res, ws.station_ft[idx])
         if audit:
             audit_stations(wall.inputs, sec, hs, emb, fb, res, wall.wall, ws.station_ft[idx])
-    _record_stations(out, q, idx, own, over, res, reason)
+    _record_stations(out, q, idx, own, over, res, status)
     t_ft = (sec.footing_thickness_in / 12.0) if sec is not None else 0.0
     rg_seg = ws.retained_grade_ft[idx]
     tw_start = tw if c["top_of_wall"] == "stepped" else float(rg_seg[0] + c["freeboard_ft"])
@@ -253,7 +258,7 @@ def _design_segment(wall: WallToDesign, table: DesignTable, q, piece, last: bool
         station_start_ft=float(ws.station_ft[i0]), station_end_ft=float(ws.station_ft[i1]),
         retained_height_max_ft=float(np.max(hs)),
         top_of_wall_ft=tw, top_of_footing_ft=bf + t_ft, bottom_of_footing_ft=bf,
-        section=sec, design_height_ft=hc, status=reason or "ok",
+        section=sec, design_height_ft=hc, status=status,
         top_of_wall_start_ft=tw_start, top_of_wall_end_ft=tw_end, **fields)
 
 
