@@ -2,16 +2,11 @@
 
 from __future__ import annotations
 
-import sys
 from pathlib import Path
 
 import click
 
 from .cautions import CAUTIONS, EPILOG
-
-
-def _progress_enabled(quiet: bool) -> bool:
-    return not quiet and sys.stdout.isatty()
 
 
 @click.command(epilog=EPILOG)
@@ -36,9 +31,12 @@ def design(ctx, site_file: Path, out_dir: Path, compare_dir: Path | None, replac
     from .outdir import staged_output
     from .pipeline import collect_warnings, site_stations, write_design
     from .site import load_site
+    from .stages import Stages, progress_wanted
 
-    site = load_site(site_file)
-    with collect_warnings() as warns:
+    stages = Stages(show=progress_wanted(quiet))
+    with stages.stage("reading"):
+        site = load_site(site_file)
+    with stages.stage("sampling", f"{len(site.walls)} walls"), collect_warnings() as warns:
         walls = site_stations(site)
     if compare_dir is not None:
         from .errors import InputError
@@ -46,15 +44,15 @@ def design(ctx, site_file: Path, out_dir: Path, compare_dir: Path | None, replac
         if not (compare_dir / "schedule.csv").is_file():
             raise InputError("is not a wallsched run folder (no schedule.csv)", file=compare_dir,
                              where="--compare")
-    if _progress_enabled(quiet):
-        with click.progressbar(length=len(walls), label="designing walls") as bar:
-            sd = design_site(site, walls, progress=bar.update)
-    else:
-        sd = design_site(site, walls)
+    n = sum(len(w) for w in walls)
+    with stages.items("designing", len(walls), f"walls ({n} stations)") as tick:
+        sd = design_site(site, walls, progress=tick)
     sd.warnings.extend(warns)
     sd.warnings.extend(site_warnings(site, walls))
     with staged_output(out_dir, replace=replace, protect=site.input_files()) as tmp:
-        summary = write_design(site, sd, tmp, drawings=not no_drawings, compare_dir=compare_dir)
+        summary = write_design(site, sd, tmp, drawings=not no_drawings, compare_dir=compare_dir,
+                               stages=stages)
+    stages.write_times()
     if not quiet:
         for line in sd.warnings:
             click.echo(f"warning: {line}")

@@ -98,8 +98,11 @@ def wall_summary(w) -> str:
     return text
 
 
-def write_design(site, sd, out: Path, *, drawings: bool = True, compare_dir=None) -> list[str]:
-    """Every output of ``wallsched design`` into ``out``; returns the summary lines."""
+def write_design(site, sd, out: Path, *, drawings: bool = True, compare_dir=None,
+                 stages=None) -> list[str]:
+    """Every output of ``wallsched design`` into ``out``; returns the summary lines.
+
+    ``stages`` (a ``wallsched.stages.Stages``) times each output and shows the progress."""
     from .basis import run_info
     from .exporters.rebar import write_rebar_csv
     from .exporters.schedule import (
@@ -110,34 +113,40 @@ def write_design(site, sd, out: Path, *, drawings: bool = True, compare_dir=None
         write_xlsx,
     )
     from .exporters.tables import FLOAT_FORMAT, write_csv
+    from .stages import QUIET
 
+    stages = stages or QUIET
     run = run_info(site)
-    write_csv(stations_frame(sd.walls), out / "stations.csv")
-    schedule = write_schedule(sd.walls, out, sd.warnings)
-    write_rebar_csv(sd.bars, out / "rebar.csv", float_format=FLOAT_FORMAT)
-    write_xlsx(schedule, sd.bars, sd.quantity_totals, out / "schedule.xlsx", run.site_name)
-    write_run_json(run_record(run, sd, schedule), out / "run.json")
+    with stages.stage("writing tables"):
+        write_csv(stations_frame(sd.walls), out / "stations.csv")
+        schedule = write_schedule(sd.walls, out, sd.warnings)
+        write_rebar_csv(sd.bars, out / "rebar.csv", float_format=FLOAT_FORMAT)
+        write_xlsx(schedule, sd.bars, sd.quantity_totals, out / "schedule.xlsx", run.site_name)
+        write_run_json(run_record(run, sd, schedule), out / "run.json")
     lines = [wall_summary(w) for w in sd.walls]
     d = None
     if compare_dir is not None:
         from .exporters.diff import RunTables, diff_tables, read_run, write_diff
 
-        # the new run as written (the same rounding as the earlier run's files), so that an
-        # unchanged wall compares equal
-        written = read_run(out)
-        new = RunTables(written.schedule, written.stations, None)
-        d = diff_tables(read_run(compare_dir), new)
-        write_diff(d, out / "diff.csv")
+        with stages.stage("comparing"):
+            # the new run as written (the same rounding as the earlier run's files), so that
+            # an unchanged wall compares equal
+            written = read_run(out)
+            new = RunTables(written.schedule, written.stations, None)
+            d = diff_tables(read_run(compare_dir), new)
+            write_diff(d, out / "diff.csv")
         lines += d.summary_lines()
     if drawings:
-        write_drawings(run, sd, out, diff=d)
+        with stages.items("drawing", len(sd.walls), "walls") as tick:
+            write_drawings(run, sd, out, diff=d, progress=tick)
     from .exporters.report import write_report
 
-    write_report(run, sd, out / "report.pdf", diff=d)
+    with stages.stage("calc package"):
+        write_report(run, sd, out / "report.pdf", diff=d)
     return lines
 
 
-def write_drawings(run, sd, out: Path, *, diff=None) -> None:
+def write_drawings(run, sd, out: Path, *, diff=None, progress=None) -> None:
     """The DXF elevation and the plots of every wall; with ``diff`` (a RunDiff against an
     earlier run) each changed wall's DXF gets a revision cloud around every changed range."""
     from .exporters.design_plots import write_design_plots
@@ -153,3 +162,5 @@ def write_drawings(run, sd, out: Path, *, diff=None) -> None:
         write_elevation_dxf(w, out / f"{name}-elevation.dxf", input_hash=run.hash_text,
                             site_name=run.site_name, revisions=revisions)
         write_design_plots(w, out)
+        if progress is not None:
+            progress(1)
