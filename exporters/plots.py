@@ -9,6 +9,7 @@ import numpy as np
 
 from ..cautions import CAUTIONS
 from ..profile.stationing import format_station
+from .envelope import envelope, envelope_indices
 
 
 @contextlib.contextmanager
@@ -40,27 +41,32 @@ def station_ticks(ax, start: float, end: float) -> None:
 
 def plot_stations(ws, path: Path) -> None:
     """Both grades and the retained height against station for one wall."""
-    st = ws.station_ft
+    st = np.asarray(ws.station_ft, dtype=float)
     with figure(path, nrows=2, gridspec_kw={"height_ratios": [2, 1]}) as (fig, (ax1, ax2)):
-        ax1.plot(st, ws.retained_grade_ft, color="tab:brown", lw=1.6, label="retained grade")
-        ax1.plot(st, ws.front_grade_ft, color="tab:green", lw=1.6, label="front grade")
+        # every line thinned to its per-pixel envelope: the same picture, whatever the count
+        ax1.plot(*envelope(st, ws.retained_grade_ft), color="tab:brown", lw=1.6,
+                 label="retained grade")
+        ax1.plot(*envelope(st, ws.front_grade_ft), color="tab:green", lw=1.6,
+                 label="front grade")
         if not np.isnan(ws.existing_ground_ft).all():
-            ax1.plot(st, ws.existing_ground_ft, color="0.5", lw=1, ls="--",
+            ax1.plot(*envelope(st, ws.existing_ground_ft), color="0.5", lw=1, ls="--",
                      label="existing ground")
-        brk = ws.is_break
-        for x in st[brk]:
-            ax1.axvline(x, color="0.8", lw=0.5, zorder=0)
-        ax1.plot([], [], color="0.8", lw=0.5, label="station at a grade break")
+        breaks = np.unique(np.round(st[np.asarray(ws.is_break, dtype=bool)], 1))
+        ax1.vlines(breaks, 0, 1, transform=ax1.get_xaxis_transform(), color="0.8", lw=0.5,
+                   zorder=0, label="station at a grade break")
         ax1.set_ylabel("elevation (ft)")
         ax1.set_title(f"Wall {ws.wall}: grades along the wall")
         ax1.grid(True, lw=0.3)
         ax1.legend(loc="best", fontsize=8)
-        h = ws.retained_height_ft
-        ax2.fill_between(st, 0, h, where=h >= 0, color="tab:blue", alpha=0.3, lw=0)
-        ax2.fill_between(st, 0, h, where=h < 0, color="tab:red", alpha=0.5, lw=0,
+        h_all = np.asarray(ws.retained_height_ft, dtype=float)
+        k = int(np.argmax(h_all))
+        i = envelope_indices(st, h_all)
+        x, h = st[i], h_all[i]
+        ax2.fill_between(x, 0, h, where=h >= 0, color="tab:blue", alpha=0.3, lw=0)
+        ax2.fill_between(x, 0, h, where=h < 0, color="tab:red", alpha=0.5, lw=0,
                          label="retained side flips")
-        ax2.plot(st, h, color="tab:blue", lw=1.2)
-        k = int(np.argmax(h))
+        ax2.plot(x, h, color="tab:blue", lw=1.2)
+        h = h_all
         ax2.annotate(f"max {h[k]:.2f} ft at {format_station(st[k])}", (st[k], h[k]),
                      textcoords="offset points", xytext=(5, -12), fontsize=8)
         ax2.axhline(0, color="k", lw=0.6)
