@@ -1,0 +1,44 @@
+"""The stations the scalar audit re-checks: ends, failures, the near-largest ratios, a sample."""
+
+from __future__ import annotations
+
+import numpy as np
+from wallsched.engine.audit_selection import audit_stations
+
+
+def test_ends_sample_and_the_largest_ratio_of_each_check():
+    n = 101
+    h = np.linspace(5.0, 10.0, n)
+    grows = (h / 10.0) ** 3  # largest at the last station
+    peaks = 0.5 + 0.4 * np.exp(-((np.arange(n) - 40) / 3.0) ** 2)  # largest at station 40
+    const = np.full(n, 0.97)  # a detailing row: the same everywhere
+    got = audit_stations(np.vstack([grows, peaks, const]), np.ones(n, bool), sample=3)
+    assert {0, 100, 25, 50, 75, 40} <= set(got)
+    # within 5 % of the largest: h^3 >= 0.95 -> h >= 9.830 ft -> the last 4 stations
+    assert {97, 98, 99, 100} <= set(got) and 96 not in got
+    # the constant row adds nothing beyond the ends and the sample
+    assert len(got) < 20
+
+
+def test_every_failing_station_is_audited():
+    n = 50
+    r = np.full((1, n), 0.5)
+    r[0, [7, 33]] = 1.2
+    passes = r[0] <= 1.0
+    got = audit_stations(r, passes, sample=0)
+    assert {0, 7, 33, 49} <= set(got)
+
+
+def test_infinite_ratio_and_nan_rows():
+    r = np.full((2, 10), np.nan)
+    r[0, 4] = np.inf
+    got = audit_stations(r, np.ones(10, bool), sample=0)
+    assert set(got) == {0, 4, 9}
+
+
+def test_deterministic():
+    rng = np.random.default_rng(3)
+    r = rng.random((6, 300))
+    a = audit_stations(r, np.ones(300, bool))
+    b = audit_stations(r.copy(), np.ones(300, bool))
+    assert np.array_equal(a, b) and np.all(np.diff(a) > 0)
