@@ -243,6 +243,7 @@ class SiteDesign:
     inputs: Mapping[str, DesignInputs]  # wall id -> its inputs
     bars: pd.DataFrame  # every wall's bar list (REBAR_COLUMNS), possibly empty
     quantity_totals: pd.DataFrame | None  # per wall and the site; None without segments
+    barlist: pd.DataFrame | None = None  # bending schedule, one row per bar mark (engine.bending)
     load_factors: tuple[str, ...] = ()
     warnings: list[str] = field(default_factory=list)
 

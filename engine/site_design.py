@@ -176,6 +176,23 @@ def _site_bars(walls: Sequence[WallDesign]):
     return pd.concat(frames, ignore_index=True)
 
 
+def _bar_marks(walls):
+    """Bar marks site-wide (engine/bending.py): each wall's placing rows with their
+    ``bar_mark`` and the wall's own bending rows in ``extra["bending"]``; the site's placing
+    list and bending schedule."""
+    from .bending import bending_rows_of, bending_schedule
+
+    marked, barlist = bending_schedule(_site_bars(walls))
+    out = []
+    for w in walls:
+        if w.bars is None:
+            out.append(w)
+            continue
+        own = marked[marked["wall"] == w.wall].reset_index(drop=True)
+        out.append(replace(w, bars=own, extra={**w.extra, "bending": bending_rows_of(own)}))
+    return tuple(out), marked, barlist
+
+
 def _quantity_totals(walls: Sequence[WallDesign]):
     import pandas as pd
 
@@ -200,9 +217,10 @@ def design_site(walls: Sequence[WallToDesign], grid: SizingGrid, rates: CostRate
             progress(1)
     designs = assign_marks(designs)
     out = tuple(detailed(d, wall.inputs, rates) for wall, d in zip(walls, designs, strict=True))
+    out, marked, barlist = _bar_marks(out)
     inputs = {wall.wall: wall.inputs for wall in walls}
     criteria = {wall.wall: wall.criteria for wall in walls}
     return SiteDesign(
         walls=out, cases=governing_cases(out, inputs, criteria), inputs=inputs,
-        bars=_site_bars(out), quantity_totals=_quantity_totals(out),
+        bars=marked, barlist=barlist, quantity_totals=_quantity_totals(out),
         load_factors=tuple(LOAD_FACTORS))

@@ -34,7 +34,9 @@ def write_rebar_csv(bars_or_designs, path, *, float_format: str | None = None) -
     ``path`` is a file or a folder (then ``rebar.csv`` inside it).
     """
     if isinstance(bars_or_designs, pd.DataFrame):
-        bars = bars_or_designs[REBAR_COLUMNS].reset_index(drop=True)
+        # the placing list, naming the bending schedule's mark when the engine gave one
+        cols = REBAR_COLUMNS + (["bar_mark"] if "bar_mark" in bars_or_designs.columns else [])
+        bars = bars_or_designs[cols].reset_index(drop=True)
     else:
         bars = rebar_frame(bars_or_designs)
     path = Path(path)

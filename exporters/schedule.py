@@ -123,13 +123,15 @@ def write_schedule(walls, out: Path, warnings=()) -> pd.DataFrame:
 
 
 def write_xlsx(schedule: pd.DataFrame, bars: pd.DataFrame, quantities: pd.DataFrame | None,
-               path: Path, site_name: str) -> None:
+               path: Path, site_name: str, *, barlist: pd.DataFrame | None = None) -> None:
     """The schedule (and bar list, quantities) as a workbook formatted for printing: units in
     the header row, the cautions in the page footer and below the table."""
     from openpyxl.styles import Alignment, Font
     from openpyxl.utils import get_column_letter
 
     sheets = [("schedule", schedule), ("bar list", bars)]
+    if barlist is not None:
+        sheets.append(("bending schedule", barlist))
     if quantities is not None:
         sheets.append(("quantities", quantities))
     with pd.ExcelWriter(path, engine="openpyxl") as xw:

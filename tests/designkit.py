@@ -12,6 +12,7 @@ from dataclasses import replace
 
 import numpy as np
 from wallsched.engine.bars import BarSpec
+from wallsched.engine.bending import bending_schedule
 from wallsched.engine.detailing import section_detail, wall_bar_list
 from wallsched.engine.model import Joint, SectionDims, Segment, WallDesign
 from wallsched.engine.quantities import wall_quantities
@@ -84,5 +85,7 @@ def make_design(wall: str = "W1", *, existing_ground: bool = True) -> WallDesign
                           "bearing": util * 0.88, "stem flexure": util * 0.8})
     # the engine's bar list, quantity frame and bar details, as the design stage attaches them
     bars = wall_bar_list(design)
-    return replace(design, bars=bars, quantities=wall_quantities(design, bars),
-                   details={m: section_detail(sec) for m, sec in design.marks().items()})
+    marked, bending = bending_schedule(bars)
+    return replace(design, bars=marked, quantities=wall_quantities(design, bars),
+                   details={m: section_detail(sec) for m, sec in design.marks().items()},
+                   extra={**design.extra, "bending": bending})

@@ -121,7 +121,12 @@ def write_design(site, sd, out: Path, *, drawings: bool = True, compare_dir=None
         write_csv(stations_frame(sd.walls), out / "stations.csv")
         schedule = write_schedule(sd.walls, out, sd.warnings)
         write_rebar_csv(sd.bars, out / "rebar.csv", float_format=FLOAT_FORMAT)
-        write_xlsx(schedule, sd.bars, sd.quantity_totals, out / "schedule.xlsx", run.site_name)
+        if sd.barlist is not None:
+            from .exporters.barlist import write_barlist_csv
+
+            write_barlist_csv(sd.barlist, out / "barlist.csv", float_format=FLOAT_FORMAT)
+        write_xlsx(schedule, sd.bars, sd.quantity_totals, out / "schedule.xlsx", run.site_name,
+                   barlist=sd.barlist)
         write_run_json(run_record(run, sd, schedule), out / "run.json")
     lines = [wall_summary(w) for w in sd.walls]
     d = None
@@ -138,7 +143,8 @@ def write_design(site, sd, out: Path, *, drawings: bool = True, compare_dir=None
         lines += d.summary_lines()
     if drawings:
         with stages.items("drawing", len(sd.walls), "walls") as tick:
-            write_drawings(run, sd, out, diff=d, progress=tick)
+            write_drawings(run, sd, out, diff=d, progress=tick,
+                           drawing=getattr(site, "drawing", None))
     from .exporters.report import write_report
 
     with stages.stage("calc package"):
@@ -146,7 +152,7 @@ def write_design(site, sd, out: Path, *, drawings: bool = True, compare_dir=None
     return lines
 
 
-def write_drawings(run, sd, out: Path, *, diff=None, progress=None) -> None:
+def write_drawings(run, sd, out: Path, *, diff=None, progress=None, drawing=None) -> None:
     """The DXF elevation and the plots of every wall; with ``diff`` (a RunDiff against an
     earlier run) each changed wall's DXF gets a revision cloud around every changed range."""
     from .exporters.design_plots import write_design_plots
@@ -159,8 +165,13 @@ def write_drawings(run, sd, out: Path, *, diff=None, progress=None) -> None:
         if not w.segments:
             continue
         revisions = diff.changed_station_ranges(w.wall) if diff is not None else None
+        dr = dict(drawing or {})
         write_elevation_dxf(w, out / f"{name}-elevation.dxf", input_hash=run.hash_text,
-                            site_name=run.site_name, revisions=revisions)
+                            site_name=run.site_name, revisions=revisions,
+                            vertical_exaggeration=dr.get("vertical_exaggeration") or 2.0,
+                            sheet_size=dr.get("sheet_size") or "ARCH D",
+                            label_interval_ft=dr.get("label_interval_ft") or 50.0,
+                            date=dr.get("date") or "", revision=dr.get("revision") or "")
         write_design_plots(w, out)
         if progress is not None:
             progress(1)

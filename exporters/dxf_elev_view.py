@@ -1,0 +1,358 @@
+"""The wall elevation in model space (x = station, y = elevation with vertical exaggeration),
+annotated by drafting practice.
+
+Labels stand at the segment ends (both sides of a step), and every ``label_interval_ft``
+between them: above the wall ``STA`` and ``TW``, below it ``BW``, ``TF`` and ``BF``, read
+upward. Each label is offered positions beside its station, then higher tiers with a leader;
+the interval labels give way to the segment-end labels. Segment tags (section mark in a
+circle, segment id above) stand in a band above the labels; revision clouds are grown until
+no edge runs through a text.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+import numpy as np
+
+from ..profile.stationing import format_station
+from .dxf_style import TEXT_IN, TEXT_SMALL_IN, Pen
+from .label_layout import Box, text_box
+
+REVISION_LAYER = "C-ANNO-REVS"
+
+
+def _tw_ends(seg) -> tuple[float, float]:
+    if math.isfinite(seg.top_of_wall_ft):
+        return seg.top_of_wall_ft, seg.top_of_wall_ft
+    return seg.top_of_wall_start_ft, seg.top_of_wall_end_ft
+
+
+def _bottom_ft(seg) -> float:
+    sec = seg.section
+    key = sec.key_depth_in / 12.0 if sec is not None and sec.has_key else 0.0
+    return seg.bottom_of_footing_ft - key
+
+
+def _runs(segments):
+    """Contiguous runs of segments (a gap where no wall is needed splits a run)."""
+    runs, cur = [], []
+    for s in segments:
+        if cur and abs(s.station_start_ft - cur[-1].station_end_ft) > 1e-6:
+            runs.append(cur)
+            cur = []
+        cur.append(s)
+    if cur:
+        runs.append(cur)
+    return runs
+
+
+def grid_interval_ft(range_ft: float) -> float:
+    return next(s for s in (1.0, 2.0, 5.0, 10.0, 20.0, 50.0, 100.0) if range_ft / s <= 12)
+
+
+def station_grid_ft(length_ft: float, scale_ft_per_in: float) -> float:
+    """Station grid and labels about every inch and a half of paper."""
+    want = 1.5 * scale_ft_per_in
+    return next((s for s in (10.0, 25.0, 50.0, 100.0, 200.0, 500.0, 1000.0) if s >= want),
+                1000.0)
+
+
+@dataclass
+class ElevationView:
+    x0: float
+    y0: float
+    x1: float
+    y1: float
+    datum_ft: float
+    ve: float
+    label_count: int
+
+    def y(self, elev_ft):
+        return self.datum_ft + (np.asarray(elev_ft, dtype=float) - self.datum_ft) * self.ve
+
+
+@dataclass(frozen=True)
+class _Label:
+    station_ft: float
+    side: int  # -1 left of a step, +1 right of it, 0 on the station
+    tw: float
+    bw: float
+    tf: float
+    bf: float
+    bottom: float
+    required: bool
+
+
+def _label_stations(segs, s, fg, interval_ft: float) -> list[_Label]:
+    out: list[_Label] = []
+
+    def lab(g, x, side, required):
+        a, b = _tw_ends(g)
+        t = (x - g.station_start_ft) / max(g.length_ft, 1e-9)
+        tw = a + (b - a) * t
+        out.append(_Label(x, side, tw, float(np.interp(x, s, fg)), g.top_of_footing_ft,
+                          g.bottom_of_footing_ft, _bottom_ft(g), required))
+
+    for i, g in enumerate(segs):
+        prev = segs[i - 1] if i else None
+        joined = prev is not None and abs(prev.station_end_ft - g.station_start_ft) < 1e-6
+        if joined:
+            step = (abs(prev.bottom_of_footing_ft - g.bottom_of_footing_ft) > 1e-9
+                    or abs(_tw_ends(prev)[1] - _tw_ends(g)[0]) > 1e-9)
+            if step:
+                lab(prev, prev.station_end_ft, -1, True)
+                lab(g, g.station_start_ft, +1, True)
+            else:
+                lab(g, g.station_start_ft, 0, True)
+        else:
+            if prev is not None:
+                lab(prev, prev.station_end_ft, 0, True)
+            lab(g, g.station_start_ft, 0, True)
+    if segs:
+        lab(segs[-1], segs[-1].station_end_ft, 0, True)
+    if interval_ft > 0:
+        for g in segs:
+            x = math.ceil(g.station_start_ft / interval_ft + 1e-9) * interval_ft
+            while x < g.station_end_ft - 1e-6:
+                lab(g, x, 0, False)
+                x += interval_ft
+    return out
+
+
+def draw_elevation(pen: Pen, design, *, ve: float, interval_ft: float,
+                   revisions=(), revision_tag: str = "1") -> ElevationView:
+    """Draw the elevation of ``design`` with ``pen`` (model space, its scale the elevation's
+    horizontal scale); returns the view's extents."""
+    st = design.stations
+    s = np.asarray(st.station_ft, dtype=float)
+    fg = np.asarray(st.front_grade_ft, dtype=float)
+    rg = np.asarray(st.retained_grade_ft, dtype=float)
+    segs = [g for g in design.segments if g.section is not None] or list(design.segments)
+    h = pen.h(TEXT_SMALL_IN)
+    gap = 0.6 * h
+    hi = max(max(max(_tw_ends(g)) for g in segs), float(np.nanmax(rg)))
+    lo = min(min(_bottom_ft(g) for g in segs), float(np.nanmin(fg)))
+    step = grid_interval_ft(hi - lo)
+    datum = math.floor(lo / step) * step - step
+    top_el = math.ceil(hi / step) * step
+    view = ElevationView(0, 0, 0, 0, datum, ve, 0)
+    Y = view.y
+    s0, s1 = float(s[0]), float(s[-1])
+    pad = 2.0 * pen.h(TEXT_IN) * 4
+    gx0, gx1 = s0 - pad, s1 + pad
+    # grades and the wall first: the geometry
+    pen.poly(zip(s, Y(fg), strict=True), "C-GRAD-FRNT")
+    pen.poly(zip(s, Y(rg), strict=True), "C-GRAD-RETD")
+    eg = np.asarray(st.existing_ground_ft, dtype=float)
+    ok = np.isfinite(eg)
+    if ok.sum() >= 2:
+        pen.poly(zip(s[ok], Y(eg[ok]), strict=True), "C-GRAD-EXST")
+    for run in _runs(segs):
+        top, tf, bf = [], [], []
+        for g in run:
+            a, b = _tw_ends(g)
+            top += [(g.station_start_ft, float(Y(a))), (g.station_end_ft, float(Y(b)))]
+            tf += [(g.station_start_ft, float(Y(g.top_of_footing_ft))),
+                   (g.station_end_ft, float(Y(g.top_of_footing_ft)))]
+            bf += [(g.station_start_ft, float(Y(g.bottom_of_footing_ft))),
+                   (g.station_end_ft, float(Y(g.bottom_of_footing_ft)))]
+        pen.poly(top + tf[::-1], "C-WALL-OTLN", closed=True)
+        pen.poly(tf + bf[::-1], "C-WALL-FTNG", closed=True)
+        for g in run:
+            if g.section is not None and g.section.has_key:
+                kb = float(Y(g.bottom_of_footing_ft - g.section.key_depth_in / 12.0))
+                b0 = float(Y(g.bottom_of_footing_ft))
+                pen.poly([(g.station_start_ft, b0), (g.station_start_ft, kb),
+                          (g.station_end_ft, kb), (g.station_end_ft, b0)], "C-WALL-FTNG")
+    for i, g in enumerate(segs[1:], 1):
+        prev = segs[i - 1]
+        if abs(prev.station_end_ft - g.station_start_ft) < 1e-6:
+            y0 = min(_bottom_ft(prev), _bottom_ft(g))
+            y1 = max(_tw_ends(prev)[1], _tw_ends(g)[0])
+            pen.line((g.station_start_ft, Y(y0)), (g.station_start_ft, Y(y1)), "C-WALL-BNDY")
+    # elevation grid, its labels both sides, station grid and labels below the datum
+    e = datum
+    while e <= top_el + 1e-9:
+        pen.line((gx0, Y(e)), (gx1, Y(e)), "C-WALL-GRID")
+        pen.text_forced(f"{e:.0f}", (gx0 - gap, Y(e)), "C-WALL-GRID", size_in=TEXT_SMALL_IN,
+                        align="MIDDLE_RIGHT")
+        pen.text_forced(f"{e:.0f}", (gx1 + gap, Y(e)), "C-WALL-GRID", size_in=TEXT_SMALL_IN,
+                        align="MIDDLE_LEFT")
+        e += step
+    interval = station_grid_ft(s1 - s0, pen.scale)
+    x = math.ceil(s0 / interval - 1e-9) * interval
+    while x <= s1 + 1e-9:
+        pen.line((x, Y(datum)), (x, Y(datum) - h), "C-WALL-GRID")
+        pen.text(format_station(x, 0), (x, Y(datum) - 1.5 * h), "C-WALL-GRID",
+                 size_in=TEXT_SMALL_IN, align="TOP_CENTER")
+        x += interval
+    # labels: the segment ends first, then the interval labels where they fit
+    labels = _label_stations(segs, s, fg, interval_ft)
+    labels.sort(key=lambda q: (not q.required, q.station_ft))
+    count = 0
+    band_top = float(Y(hi))
+    for q in labels:
+        above = f"STA {format_station(q.station_ft)}  TW {q.tw:.2f}"
+        below = f"BW {q.bw:.2f}  TF {q.tf:.2f}  BF {q.bf:.2f}"
+        placed = 0
+        for text, y_start, up in ((above, float(Y(q.tw)) + gap, True),
+                                  (below, float(Y(min(q.bottom, q.bw))) - gap, False)):
+            got = _place_vertical(pen, text, q, y_start, up, h, required=q.required)
+            if got is not None:
+                placed += 1
+                if up:
+                    band_top = max(band_top, got)
+        count += placed
+    _draw_joints(pen, design, segs, Y, h)
+    band_top = _draw_tags(pen, segs, Y, band_top + 2 * gap)
+    view.label_count = count
+    # revision clouds and their tags
+    y_low = float(Y(datum)) - 3.5 * h
+    for a, b in _ranges(revisions, s0, s1):
+        _draw_cloud(pen, segs, Y, a, b, y_low + 1.8 * h, band_top, h, revision_tag)
+    boxes = pen.labels.boxes
+    view.x0 = min([gx0] + [bx.x0 for bx in boxes]) - h
+    view.x1 = max([gx1] + [bx.x1 for bx in boxes]) + h
+    view.y0 = min([y_low] + [bx.y0 for bx in boxes]) - h
+    view.y1 = max([band_top] + [bx.y1 for bx in boxes]) + h
+    return view
+
+
+def _place_vertical(pen: Pen, text, q: _Label, y_start, up, h, *, required):
+    """A label read upward beside ``q.station_ft``; returns the far end's y, or None."""
+    x = q.station_ft
+    cap_off = (1.0 - 0.2853) / 2.0 * h  # centres the glyph box on the insert's x
+    width = pen.width(text, TEXT_SMALL_IN)
+    shifts = [0.0]
+    for k in range(1, 6):
+        shifts += [k * 1.25 * h, -k * 1.25 * h]
+    if q.side:
+        shifts = [q.side * (0.9 * h + abs(d)) for d in shifts if d * q.side >= 0]
+    tiers = range(4) if required else range(1)
+    for tier in tiers:
+        y0 = y_start + (tier * (width + h) if up else -tier * (width + h))
+        for d in shifts:
+            insert = (x + d + cap_off, y0)
+            align = "LEFT" if up else "RIGHT"
+            got = pen.labels.first_clear(text, h, [(insert, align)], rotation=90.0)
+            if got is None:
+                pen.labels.dropped.pop()
+                continue
+            pen._add_text(text, insert, h, "C-WALL-ELEV", align, 90.0)
+            if d or tier:
+                pen.line((x, y_start), (x + d, y0), "C-WALL-ELEV")
+            return y0 + width if up else y0 - width
+    pen.labels.dropped.append(text)
+    return None
+
+
+def _draw_joints(pen: Pen, design, segs, Y, h) -> None:
+    for j in design.joints:
+        near = [q for q in segs
+                if q.station_start_ft - 1e-6 <= j.station_ft <= q.station_end_ft + 1e-6]
+        if not near:
+            continue
+        tw = max(np.interp(j.station_ft, [q.station_start_ft, q.station_end_ft], _tw_ends(q))
+                 for q in near)
+        expansion = j.kind == "expansion"
+        layer = "C-WALL-JNTE" if expansion else "C-WALL-JNTC"
+        low = (min(q.bottom_of_footing_ft for q in near) if expansion
+               else max(q.top_of_footing_ft for q in near))
+        pen.line((j.station_ft, Y(low)), (j.station_ft, Y(tw)), layer)
+        tf = float(Y(max(q.top_of_footing_ft for q in near)))
+        x = j.station_ft
+        pen.text("EJ" if expansion else "CJ", (x + 0.3 * h, tf + 0.3 * h), layer,
+                 size_in=0.08, align="BOTTOM_LEFT",
+                 alternatives=[((x - 0.3 * h, tf + 0.3 * h), "BOTTOM_RIGHT"),
+                               ((x + 0.3 * h, tf + 1.8 * h), "BOTTOM_LEFT")])
+
+
+def _draw_tags(pen: Pen, segs, Y, y_band: float) -> float:
+    """Mark in a circle and segment id above it, per segment, in rows above ``y_band``;
+    returns the top of the band."""
+    h = pen.h(TEXT_IN)
+    r = 0.9 * h
+    top = y_band
+    for g in segs:
+        mid = (g.station_start_ft + g.station_end_ft) / 2.0
+        a, b = _tw_ends(g)
+        wall_top = float(Y(max(a, b)))
+        small = pen.h(TEXT_SMALL_IN)
+        for row in range(6):
+            cy = y_band + r + row * (2 * r + 2.2 * small)
+            done = False
+            for dx in (0.0, 2.4 * r, -2.4 * r, 4.8 * r, -4.8 * r):
+                c = (mid + dx, cy)
+                circle = Box(c[0] - r, c[1] - r, c[0] + r, c[1] + r)
+                idb = text_box(g.segment, (c[0], c[1] + r + 0.3 * small), small, "BOTTOM_CENTER")
+                if pen.labels.is_clear(circle) and pen.labels.is_clear(idb):
+                    pen.labels.reserve(circle)
+                    pen.circle(c, r, "C-WALL-TAGS")
+                    pen.text_forced(g.mark, c, "C-WALL-TAGS", align="MIDDLE_CENTER")
+                    pen.text_forced(g.segment, (c[0], c[1] + r + 0.3 * small), "C-WALL-TAGS",
+                                    size_in=TEXT_SMALL_IN, align="BOTTOM_CENTER")
+                    if dx or row:
+                        pen.line((c[0], c[1] - r), (mid, wall_top), "C-WALL-TAGS")
+                    top = max(top, idb.y1)
+                    done = True
+                    break
+            if done:
+                break
+        else:
+            pen.labels.dropped.append(g.segment)
+    return top
+
+
+def _ranges(revisions, s_lo, s_hi):
+    out = []
+    for a, b in sorted((float(min(r[0], r[1])), float(max(r[0], r[1]))) for r in revisions):
+        if b - a < 0.01:
+            continue
+        a, b = max(a, s_lo), min(b, s_hi)
+        if b - a < 2.0:
+            mid = min(max((a + b) / 2.0, s_lo), s_hi)
+            a, b = mid - 1.0, mid + 1.0
+        out.append((a, b))
+    return out
+
+
+def _draw_cloud(pen: Pen, segs, Y, a, b, y_low, y_high, h, tag) -> None:
+    """A cloud around stations a-b from ``y_low`` to above the tags, each side moved out
+    until it runs through no text."""
+    from .dxf_elevation import cloud_arcs
+
+    x0, x1, y0, y1 = a - h, b + h, y_low, y_high + h
+    lab = pen.labels
+    for _ in range(60):
+        moved = False
+        if lab.hits_line((x0, y0), (x0, y1)):
+            x0 -= 0.6 * h
+            moved = True
+        if lab.hits_line((x1, y0), (x1, y1)):
+            x1 += 0.6 * h
+            moved = True
+        if lab.hits_line((x0, y1), (x1, y1)):
+            y1 += 0.6 * h
+            moved = True
+        if lab.hits_line((x0, y0), (x1, y0)):
+            y0 -= 0.6 * h
+            moved = True
+        if not moved:
+            break
+    chord = 2.5 * h
+    for cx, cy, r, a0, a1 in cloud_arcs(x0, y0, x1, y1, chord_ft=chord):
+        pen.space.add_arc((cx, cy), r, a0, a1, dxfattribs={"layer": REVISION_LAYER})
+    side = 2.6 * h
+    for k in range(8):
+        tx, ty = x1 + 0.5 * h + k * side, y1 + 0.5 * h
+        tri = Box(tx, ty, tx + side, ty + side)
+        if lab.is_clear(tri):
+            break
+    lab.reserve(tri)
+    pts = [(tx, ty), (tx + side, ty), (tx + side / 2.0, ty + side * math.sqrt(3) / 2.0)]
+    for p, q in zip(pts, pts[1:] + pts[:1], strict=True):
+        pen.line(p, q, REVISION_LAYER)
+    pen._add_text(tag, (tx + side / 2.0, ty + side * 0.3), pen.h(TEXT_SMALL_IN),
+                  REVISION_LAYER, "MIDDLE_CENTER", 0.0)

@@ -1,0 +1,115 @@
+"""Plan view of a wall in model space: the alignment with station ticks and labels, the
+retained side marked by short ticks, segment ends and section marks.
+
+The plan is drawn at true size, moved by a stated offset so that it lies clear of the
+elevation (plan coordinates = drawn coordinates - offset); the offset is written on the sheet.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+import numpy as np
+
+from ..profile.stationing import format_station
+from .dxf_style import TEXT_SMALL_IN, Pen
+
+PLAN_LAYER = "C-WALL-ALGN"
+
+
+@dataclass(frozen=True)
+class PlanView:
+    x0: float
+    y0: float
+    x1: float
+    y1: float
+    shift: tuple[float, float]  # added to the plan coordinates
+
+
+def plan_extent(design) -> tuple[float, float, float, float]:
+    st = design.stations
+    x, y = np.asarray(st.x, float), np.asarray(st.y, float)
+    return float(x.min()), float(y.min()), float(x.max()), float(y.max())
+
+
+def _frame(s, x, y, at):
+    """Point and unit tangent of the alignment at station ``at``."""
+    px, py = float(np.interp(at, s, x)), float(np.interp(at, s, y))
+    k = int(np.clip(np.searchsorted(s, at), 1, len(s) - 1))
+    dx, dy = x[k] - x[k - 1], y[k] - y[k - 1]
+    n = math.hypot(dx, dy) or 1.0
+    return px, py, dx / n, dy / n
+
+
+def draw_plan(pen: Pen, design, origin, *, interval_ft: float) -> PlanView:
+    """Draw the plan with its lower-left extent at ``origin``."""
+    st = design.stations
+    s = np.asarray(st.station_ft, float)
+    x0, y0, x1, y1 = plan_extent(design)
+    shift = (origin[0] - x0, origin[1] - y0)
+    x = np.asarray(st.x, float) + shift[0]
+    y = np.asarray(st.y, float) + shift[1]
+    pen.poly(zip(x, y, strict=True), PLAN_LAYER)
+    h = pen.h(TEXT_SMALL_IN)
+    retained = 1.0 if design.retained_side == "left" else -1.0  # left of up-station
+
+    def normal(tx, ty):
+        return -ty * retained, tx * retained  # toward the retained side
+
+    # retained side: short ticks every ~0.2 in of paper
+    tick_step = 0.2 * pen.scale
+    for at in np.arange(s[0], s[-1] + 1e-9, tick_step):
+        px, py, tx, ty = _frame(s, x, y, at)
+        nx, ny = normal(tx, ty)
+        pen.line((px, py), (px + nx * 0.5 * h, py + ny * 0.5 * h), PLAN_LAYER)
+    # station ticks and labels on the front side
+    at = math.ceil(s[0] / interval_ft - 1e-9) * interval_ft
+    stations = sorted({float(s[0]), float(s[-1])}
+                      | set(np.arange(at, s[-1] + 1e-9, interval_ft).tolist()))
+    for at in stations:
+        px, py, tx, ty = _frame(s, x, y, at)
+        nx, ny = normal(tx, ty)
+        pen.line((px, py), (px - nx * h, py - ny * h), PLAN_LAYER)
+        far = (px - nx * 1.6 * h, py - ny * 1.6 * h)
+        align = _away(-nx, -ny)
+        pen.text(format_station(at, 0), far, PLAN_LAYER, size_in=TEXT_SMALL_IN, align=align,
+                 alternatives=[(px - nx * 3.2 * h, py - ny * 3.2 * h),
+                               (px - nx * 4.8 * h, py - ny * 4.8 * h)])
+    # segment ends across the line, marks on the retained side
+    for g in design.segments:
+        for at in (g.station_start_ft, g.station_end_ft):
+            px, py, tx, ty = _frame(s, x, y, at)
+            nx, ny = normal(tx, ty)
+            pen.line((px - nx * 0.6 * h, py - ny * 0.6 * h), (px + nx * 1.4 * h, py + ny * 1.4 * h),
+                     "C-WALL-BNDY")
+        if g.section is None:
+            continue
+        mid = (g.station_start_ft + g.station_end_ft) / 2.0
+        px, py, tx, ty = _frame(s, x, y, mid)
+        nx, ny = normal(tx, ty)
+        pen.text(g.mark, (px + nx * 2.2 * h, py + ny * 2.2 * h), "C-WALL-TAGS",
+                 size_in=TEXT_SMALL_IN, align=_away(nx, ny),
+                 alternatives=[(px + nx * k * h, py + ny * k * h) for k in (3.6, 5.0, 6.4)])
+    # "RETAINED SIDE" beside the first segment's mark
+    g = next((q for q in design.segments if q.section is not None), None)
+    if g is not None:
+        cands = []
+        for frac in (0.25, 0.75, 0.1, 0.9, 0.5):
+            at = s[0] + frac * (s[-1] - s[0])
+            px, py, tx, ty = _frame(s, x, y, at)
+            nx, ny = normal(tx, ty)
+            for k in (2.2, 4.0, 6.0):
+                cands.append(((px + nx * k * h, py + ny * k * h), _away(nx, ny)))
+        pen.text("RETAINED SIDE", cands[0][0], PLAN_LAYER, size_in=TEXT_SMALL_IN,
+                 align=cands[0][1], alternatives=cands[1:])
+    pad = 8 * h
+    return PlanView(origin[0] - pad, origin[1] - pad, origin[0] + (x1 - x0) + pad,
+                    origin[1] + (y1 - y0) + pad, shift)
+
+
+def _away(nx: float, ny: float) -> str:
+    """The text alignment that puts a label on the side of its insert pointed to by (nx, ny)."""
+    if abs(nx) >= abs(ny):
+        return "MIDDLE_LEFT" if nx > 0 else "MIDDLE_RIGHT"
+    return "BOTTOM_CENTER" if ny > 0 else "TOP_CENTER"

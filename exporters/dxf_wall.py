@@ -1,0 +1,186 @@
+"""A wall's drawing set: model space (elevation, plan, true-size sections) and its sheets.
+
+Sheets of one wall, in order: 1 plan and elevation; more elevation sheets where the wall is
+longer than one strip; typical sections; the wall schedule and the bending schedule of the
+wall's bars. Scales are standard: the elevation and plan at engineering scales (1" = N'),
+the sections at an architectural scale; every text is sized for its view's plotted scale.
+"""
+
+from __future__ import annotations
+
+import math
+
+from ..profile.stationing import format_station
+from .dxf_elev_view import _tw_ends, draw_elevation
+from .dxf_plan import draw_plan, plan_extent
+from .dxf_sections import draw_sections, plan_grid
+from .dxf_sheets import (
+    Area,
+    TitleInfo,
+    add_viewport,
+    check_sheet_size,
+    draw_frame,
+    draw_table,
+    drawing_area,
+    new_sheet,
+    pages,
+    rows_per_page,
+    view_title,
+)
+from .dxf_style import ENGINEERING_SCALES_FT, TEXT_IN, TEXT_SMALL_IN, Pen, engineering_scale_text
+from .label_layout import LabelLayout
+
+ELEV_ROOM_IN = 3.6  # plotted room of an elevation strip beyond the wall: labels, tags, stations
+TITLE_ROOM_IN = 0.75  # under a viewport: its title and scale
+
+
+def elevation_scale(design, ve: float, strip_h_in: float) -> float:
+    st = design.stations
+    segs = [g for g in design.segments if g.section is not None] or list(design.segments)
+    hi = max(max(st.retained_grade_ft), max(max(_tw_ends(g)) for g in segs))
+    lo = min(min(st.front_grade_ft), min(g.bottom_of_footing_ft for g in segs) - 2.0)
+    rng = (hi - lo) * ve
+    for s in ENGINEERING_SCALES_FT:
+        if rng / s + ELEV_ROOM_IN <= strip_h_in:
+            return s
+    return ENGINEERING_SCALES_FT[-1]
+
+
+def _plan_scale(design, area_w: float, area_h: float) -> float:
+    x0, y0, x1, y1 = plan_extent(design)
+    for s in ENGINEERING_SCALES_FT:
+        if (x1 - x0) / s + 1.6 <= area_w and (y1 - y0) / s + 1.6 <= area_h:
+            return s
+    return ENGINEERING_SCALES_FT[-1]
+
+
+def _strips(x0: float, x1: float, width_ft: float) -> list[tuple[float, float]]:
+    n = max(1, math.ceil((x1 - x0) / width_ft - 1e-9))
+    step = (x1 - x0) / n
+    return [(x0 + i * step, x0 + (i + 1) * step) for i in range(n)]
+
+
+def draw_wall(doc, design, *, site_name: str, ve: float, sheet_size: str,
+              label_interval_ft: float, revisions, revision_tag: str, date: str,
+              revision: str, notes: list[str], schedule_rows, bending_rows,
+              schedule_headers, bending_headers) -> dict:
+    """Everything of one wall into ``doc``; returns counts for the caller (labels, sheets)."""
+    size = check_sheet_size(sheet_size)
+    area = drawing_area(size)
+    msp = doc.modelspace()
+    model_labels = LabelLayout(TEXT_IN * 20.0)
+    # sheet 1 holds the plan (upper part) and the first elevation strip (lower part)
+    strip_h = (area.h - 2 * TITLE_ROOM_IN) * 0.55
+    scale = elevation_scale(design, ve, strip_h)
+    pen = Pen(msp, scale, model_labels)
+    view = draw_elevation(pen, design, ve=ve, interval_ft=label_interval_ft,
+                          revisions=revisions, revision_tag=revision_tag)
+    elev_h_in = (view.y1 - view.y0) / scale
+    plan_h_in = area.h - elev_h_in - 2 * TITLE_ROOM_IN - 0.3
+    plan_scale = _plan_scale(design, area.w, max(plan_h_in, 2.0))
+    plan_pen = Pen(msp, plan_scale, model_labels)
+    plan = draw_plan(plan_pen, design, (view.x0 + 20 * plan_scale, view.y1 + 40 * plan_scale),
+                     interval_ft=label_interval_ft)
+    strips = _strips(view.x0, view.x1, area.w * scale)
+    # sections: right of everything drawn so far
+    sec_area_h = area.h - TITLE_ROOM_IN
+    gx = max(view.x1, plan.x1) + 60.0
+    grid = plan_grid(design, area.w, sec_area_h, (gx, view.y0))
+    draw_sections(lambda sc: Pen(msp, sc, model_labels), design, grid, design.extra.get(
+        "_bars_for_drawing"))
+    n_marks = len(design.marks())
+    sec_sheets = max(1, math.ceil(n_marks / grid.per_sheet))
+    sched_per = rows_per_page(area.h / 2.0 - 0.2)
+    bend_per = rows_per_page(area.h / 2.0 - 0.2)
+    sched_pages = pages(schedule_rows, sched_per)
+    bend_pages = pages(bending_rows, bend_per)
+    table_sheets = max(len(sched_pages), len(bend_pages))
+    elev_sheets = 1 + math.ceil((len(strips) - 1) / 2)
+    total = elev_sheets + sec_sheets + table_sheets
+    hscale = engineering_scale_text(scale)
+    vscale = engineering_scale_text(scale / ve)
+    elev_detail = (f"HORIZONTAL {hscale}, VERTICAL {vscale} (VERTICAL EXAGGERATION {ve:g}:1); "
+                   + ("VIEWED FROM THE FRONT (LOW) SIDE" if design.retained_side == "left"
+                      else "STATIONS TO THE RIGHT, VIEWED FROM THE RETAINED SIDE"))
+    number = 0
+    wall_text = f"{design.wall}" + (f" - {design.name}" if design.name else "")
+
+    def sheet(title, scale_text):
+        nonlocal number
+        number += 1
+        name = _layout_name(design.wall, number)
+        psp = new_sheet(doc, name, size)
+        info = TitleInfo(site_name, wall_text, title, scale_text, date, revision, number, total)
+        ppen, _ = draw_frame(psp, size, info, notes)
+        return psp, ppen
+
+    # sheet 1: plan above, first strip below
+    psp, ppen = sheet("PLAN AND ELEVATION", "AS NOTED")
+    plan_area = Area(area.x0, area.y1 - plan_h_in, area.x1, area.y1)
+    got = add_viewport(psp, plan_area, (plan.x0, plan.y0, plan.x1, plan.y1), plan_scale)
+    view_title(ppen, got.x0, got.y0 - 0.1, f"PLAN - WALL {design.wall}",
+               f"SCALE {engineering_scale_text(plan_scale)}; PLAN COORDINATES = DRAWN - "
+               f"({plan.shift[0]:.2f}, {plan.shift[1]:.2f}) FT; TICKS ON THE RETAINED SIDE")
+    top = got.y0 - TITLE_ROOM_IN - 0.2
+    strip_list = list(strips)
+    first = [strip_list.pop(0)]
+    _elev_strips(psp, ppen, first, view, scale, area, top, design, elev_detail, total=len(strips))
+    k = 1
+    while strip_list:
+        chunk, strip_list = strip_list[:2], strip_list[2:]
+        psp, ppen = sheet("ELEVATION", f"H {hscale}, V {vscale}")
+        _elev_strips(psp, ppen, chunk, view, scale, area, area.y1, design, elev_detail,
+                     total=len(strips), first_index=k)
+        k += len(chunk)
+    # sections
+    marks = list(design.marks())
+    for i in range(sec_sheets):
+        psp, ppen = sheet("TYPICAL SECTIONS", grid.scale_text)
+        window = grid.block_window(i)
+        got = add_viewport(psp, Area(area.x0, area.y0 + TITLE_ROOM_IN, area.x1, area.y1),
+                           window, grid.scale_ft_per_in)
+        shown = marks[i * grid.per_sheet:(i + 1) * grid.per_sheet]
+        view_title(ppen, got.x0, got.y0 - 0.1, f"TYPICAL SECTIONS {', '.join(shown)}",
+                   f"SCALE {grid.scale_text}; LOOKING UP-STATION; DIMENSIONS IN INCHES (\") "
+                   "AND FEET (')")
+    # schedules
+    for i in range(table_sheets):
+        psp, ppen = sheet("WALL SCHEDULE AND BENDING SCHEDULE", "NONE")
+        y = area.y1 - 0.3
+        if i < len(sched_pages) and sched_pages[i]:
+            more = f" ({i + 1} OF {len(sched_pages)})" if len(sched_pages) > 1 else ""
+            _, th = draw_table(ppen, area.x0, y, f"WALL {design.wall} SCHEDULE{more}",
+                               schedule_headers, sched_pages[i])
+            y -= th + 0.4
+        if i < len(bend_pages) and bend_pages[i]:
+            more = f" ({i + 1} OF {len(bend_pages)})" if len(bend_pages) > 1 else ""
+            draw_table(ppen, area.x0, y, f"WALL {design.wall} BENDING SCHEDULE{more}",
+                       bending_headers, bend_pages[i])
+    if "Layout1" in doc.layouts and len(doc.layouts) > 2:
+        doc.layouts.delete("Layout1")  # ezdxf's default sheet, empty
+    return {"sheets": total, "labels": view.label_count, "dropped": list(model_labels.dropped)}
+
+
+def _elev_strips(psp, ppen, strips, view, scale, area, top, design, detail, *, total,
+                 first_index=0):
+    h_in = (view.y1 - view.y0) / scale
+    y_top = top
+    for j, (a, b) in enumerate(strips):
+        strip_area = Area(area.x0, y_top - h_in, area.x1, y_top)
+        got = add_viewport(psp, strip_area, (a, view.y0, b, view.y1), scale)
+        n = first_index + j + 1
+        part = f" ({n} OF {total})" if total > 1 else ""
+        lo = max(a, float(design.stations.station_ft[0]))
+        hi = min(b, float(design.stations.station_ft[-1]))
+        view_title(ppen, got.x0, got.y0 - 0.1,
+                   f"ELEVATION - WALL {design.wall}, STA {format_station(lo)} TO "
+                   f"{format_station(hi)}{part}", detail)
+        y_top = got.y0 - TITLE_ROOM_IN - 0.2
+
+
+def _layout_name(wall: str, n: int) -> str:
+    keep = "".join(c if c.isalnum() or c in "-_ ." else "_" for c in wall)
+    return f"{keep} sheet {n}"
+
+
+__all__ = ["draw_wall", "elevation_scale", "TEXT_SMALL_IN"]
