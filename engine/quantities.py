@@ -8,14 +8,18 @@ Method (stated here so the estimator can check it by hand):
 - **Formwork** (contact area): both stem faces (the battered face measured along its slope), the
   stem's two end bulkheads, both long footing edges, the footing's two end bulkheads and both key
   sides. Each segment is a separate pour with a bulkhead at each end (conservative).
-- **Excavation** (only with existing ground): a vertical-sided cut from existing ground down to
-  the bottom of footing over the footing width plus ``working_room_ft`` each side (default 2 ft,
-  common practice), plus the key trench; nothing where existing ground lies below the bottom of
-  footing. Integrated along the segment (existing ground is linear between stations).
+- **Excavation** (only with existing ground): a trench from existing ground down to the bottom
+  of footing, its floor the footing width plus ``working_room_ft`` each side (default 2 ft,
+  common practice), its sides laid back at ``side_slope_h_per_v`` horizontal to 1 vertical
+  (default 1.0: 1H:1V, OSHA 29 CFR 1926 Subpart P Appendix B, Type B soil, from memory; 0 for
+  vertical sides), plus the key trench; nothing where existing ground lies below the bottom of
+  footing. Cross-section d x (floor + slope x d) at depth d; integrated along the segment
+  (existing ground is linear between stations). No trench-end slopes (the wall runs on).
 - **Structural backfill** (only with existing ground): the excavation refilled less the concrete
   inside it, plus the fill placed above existing ground behind the stem (from the back face to
   the heel edge plus working room, up to the retained grade but not above the top of wall).
   Fill below the footing where existing ground lies below it is a geotechnical item, not counted.
+- Without existing ground both are blank (NaN) and :data:`NO_EARTHWORK` says why.
 - **Steel** is the bar list's weight (engine/detailing.py).
 
 1 CY = 27 cf.
@@ -34,7 +38,9 @@ from .model import Segment, WallDesign
 
 CF_PER_CY = 27.0
 WORKING_ROOM_FT = 2.0  # each side of the footing, for forming and inspection (common practice)
+SIDE_SLOPE_H_PER_V = 1.0  # 1H:1V (OSHA 29 CFR 1926 Subpart P App. B, Type B; from memory)
 INTEGRATION_STEP_FT = 0.25
+NO_EARTHWORK = "no existing ground given (existing_ground in [[walls]])"
 
 QUANTITY_COLUMNS = ["wall", "segment", "mark", "station_start_ft", "station_end_ft", "length_ft",
                     "stem_cy", "footing_cy", "key_cy", "concrete_cy", "steel_lb", "formwork_sf",
@@ -98,7 +104,8 @@ def formwork_sf(seg: Segment) -> float:
     return vertical_face + battered_face + stem_ends + footing_edges + footing_ends + key_sides
 
 
-def _earthwork_cf(seg: Segment, stations, working_room_ft: float) -> tuple[float, float]:
+def _earthwork_cf(seg: Segment, stations, working_room_ft: float,
+                  side_slope_h_per_v: float = SIDE_SLOPE_H_PER_V) -> tuple[float, float]:
     sec = seg.section
     st = np.asarray(stations.station_ft, dtype=float)
     eg_all = np.asarray(stations.existing_ground_ft, dtype=float)
@@ -118,7 +125,8 @@ def _earthwork_cf(seg: Segment, stations, working_room_ft: float) -> tuple[float
     top_w, base_w = sec.stem_top_in / 12.0, sec.stem_base_in / 12.0
     h = np.maximum(tw - tf, 1e-9)
 
-    cut = (width + 2.0 * working_room_ft) * np.maximum(eg - bf, 0.0) + key_area
+    depth = np.maximum(eg - bf, 0.0)
+    cut = depth * (width + 2.0 * working_room_ft + side_slope_h_per_v * depth) + key_area
     # concrete inside the cut: footing, key, and the stem below existing ground
     y_stem = np.clip(eg - tf, 0.0, h)  # stem height below existing ground
     stem_below = base_w * y_stem - (base_w - top_w) * y_stem**2 / (2.0 * h)
@@ -136,25 +144,28 @@ def _earthwork_cf(seg: Segment, stations, working_room_ft: float) -> tuple[float
 
 
 def segment_quantities(seg: Segment, stations=None, *,
-                       working_room_ft: float = WORKING_ROOM_FT) -> SegmentQuantities:
+                       working_room_ft: float = WORKING_ROOM_FT,
+                       side_slope_h_per_v: float = SIDE_SLOPE_H_PER_V) -> SegmentQuantities:
     """Concrete, formwork and (with ``stations`` holding existing ground) earthwork quantities."""
     stem, footing, key = concrete_cf(seg)
     exc, bkf = (math.nan, math.nan) if stations is None else _earthwork_cf(
-        seg, stations, working_room_ft)
+        seg, stations, working_room_ft, side_slope_h_per_v)
     return SegmentQuantities(stem_cy=stem / CF_PER_CY, footing_cy=footing / CF_PER_CY,
                              key_cy=key / CF_PER_CY, formwork_sf=formwork_sf(seg),
                              excavation_cy=exc / CF_PER_CY, backfill_cy=bkf / CF_PER_CY)
 
 
 def wall_quantities(design: WallDesign, bars: pd.DataFrame | None = None, *,
-                    working_room_ft: float = WORKING_ROOM_FT, **bar_kw) -> pd.DataFrame:
+                    working_room_ft: float = WORKING_ROOM_FT,
+                    side_slope_h_per_v: float = SIDE_SLOPE_H_PER_V, **bar_kw) -> pd.DataFrame:
     """One row per segment (:data:`QUANTITY_COLUMNS`); steel from ``bars`` (or a new bar list)."""
     if bars is None:
         bars = wall_bar_list(design, **bar_kw)
     steel = steel_by_segment_lb(bars[bars["wall"] == design.wall] if len(bars) else bars)
     rows = []
     for seg in design.segments:
-        q = segment_quantities(seg, design.stations, working_room_ft=working_room_ft)
+        q = segment_quantities(seg, design.stations, working_room_ft=working_room_ft,
+                               side_slope_h_per_v=side_slope_h_per_v)
         rows.append({"wall": seg.wall, "segment": seg.segment, "mark": seg.mark,
                      "station_start_ft": seg.station_start_ft,
                      "station_end_ft": seg.station_end_ft, "length_ft": seg.length_ft,
@@ -177,10 +188,12 @@ def quantity_totals(frame: pd.DataFrame) -> pd.DataFrame:
 
 
 def with_quantities(design: WallDesign, bars: pd.DataFrame | None = None, *,
-                    working_room_ft: float = WORKING_ROOM_FT, **bar_kw) -> WallDesign:
+                    working_room_ft: float = WORKING_ROOM_FT,
+                    side_slope_h_per_v: float = SIDE_SLOPE_H_PER_V, **bar_kw) -> WallDesign:
     """The design with every segment's concrete_cy, steel_lb, formwork_sf, excavation_cy and
     backfill_cy filled from these quantities and the bar list."""
-    q = wall_quantities(design, bars, working_room_ft=working_room_ft, **bar_kw)
+    q = wall_quantities(design, bars, working_room_ft=working_room_ft,
+                        side_slope_h_per_v=side_slope_h_per_v, **bar_kw)
     by_id = {r.segment: r for r in q.itertuples(index=False)}
     segs = tuple(replace(s, concrete_cy=by_id[s.segment].concrete_cy,
                          steel_lb=by_id[s.segment].steel_lb,

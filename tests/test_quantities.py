@@ -62,7 +62,7 @@ def test_earthwork_flat_existing_ground_prisms():
     flat = replace(st, existing_ground_ft=np.full_like(st.station_ft, 100.0),
                    retained_grade_ft=np.full_like(st.station_ft, 103.0))
     seg = design.segments[0]  # BF 96.75, TF 98.0, TW 104, B 6.5, heel 3.5, stem 1 ft
-    q = qt.segment_quantities(seg, flat, working_room_ft=2.0)
+    q = qt.segment_quantities(seg, flat, working_room_ft=2.0, side_slope_h_per_v=0.0)
     # vertical cut: (B + 2 x 2) x (100 - 96.75) x 60  # prism, method in engine/quantities.py
     cut = (6.5 + 4) * 3.25 * 60
     assert q.excavation_cy == pytest.approx(cut / 27)
@@ -70,6 +70,22 @@ def test_earthwork_flat_existing_ground_prisms():
     # (heel 3.5 + 2 working room) x (103 - 100)
     refill = cut - 6.5 * 1.25 * 60 - 1 * 2 * 60 + 5.5 * 3 * 60
     assert q.backfill_cy == pytest.approx(refill / 27)
+
+
+def test_earthwork_trench_with_sloped_sides():
+    design = make_design()
+    st = design.stations
+    flat = replace(st, existing_ground_ft=np.full_like(st.station_ft, 100.0),
+                   retained_grade_ft=np.full_like(st.station_ft, 103.0))
+    seg = design.segments[0]  # BF 96.75, B 6.5, 60 ft long, depth 3.25 ft
+    q = qt.segment_quantities(seg, flat, working_room_ft=2.0, side_slope_h_per_v=1.5)
+    # trapezoid: floor 10.5 ft, each side out 1.5 x 3.25 at the top  # prismoid, flat ground
+    area = 3.25 * (10.5 + 10.5 + 2 * 1.5 * 3.25) / 2
+    assert q.excavation_cy == pytest.approx(area * 60 / 27)
+    vertical = qt.segment_quantities(seg, flat, working_room_ft=2.0, side_slope_h_per_v=0.0)
+    # the sloped sides add exactly their two wedges to the refill too
+    wedges = 1.5 * 3.25**2 * 60 / 27
+    assert q.backfill_cy - vertical.backfill_cy == pytest.approx(wedges)
 
 
 def test_earthwork_needs_existing_ground():

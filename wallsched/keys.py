@@ -187,6 +187,29 @@ SIZING_KEYS = {
     "bar_spacing_step_in": Key(float, 1.0, lo=0.5, hi=12, doc="bar spacing increments, in"),
 }
 
+# [quantities]: how excavation and backfill are measured (engine/quantities.py)
+QUANTITIES_KEYS = {
+    "working_room_ft": Key(float, 2.0, lo=0, hi=20,
+                           doc="trench floor beyond each footing edge, ft (common practice)"),
+    "side_slope_h_per_v": Key(float, 1.0, lo=0, hi=5,
+                              doc="trench sides, horizontal per 1 vertical (1.0: OSHA 29 CFR "
+                                  "1926 Subpart P App. B Type B soil; 0: vertical sides)"),
+}
+
+# [drawing]: the DXF sheet set (exporters/dxf_wall.py)
+DRAWING_KEYS = {
+    "sheet_size": Key(str, "ARCH D", choices=("ARCH D", "ANSI D"),
+                      doc="sheet size: ARCH D (36 x 24 in) or ANSI D (34 x 22 in)"),
+    "label_interval_ft": Key(float, 50.0, lo=5, hi=1000,
+                             doc="elevation labels between segment ends every, ft"),
+    "vertical_exaggeration": Key(float, 2.0, lo=1, hi=20,
+                                 doc="vertical scale of the elevation over its horizontal "
+                                     "scale (common practice for wall profiles: 2 to 10)"),
+    "date": Key(str, None, doc="issue date for the title blocks (blank: not issued)"),
+    "revision": Key(str, None, doc="revision for the title blocks (default 0, or 1 with "
+                                   "--compare)"),
+}
+
 # [geometry] of a section file (DESIGN.md sections 3 and 4)
 SECTION_GEOMETRY_KEYS = {
     "retained_height_ft": Key(float, REQUIRED, lo=0, hi=40, lo_open=True,
