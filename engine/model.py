@@ -165,6 +165,7 @@ class WallDesign:
     bars: pd.DataFrame | None = None  # the bar list (REBAR_COLUMNS), one row per segment and mark
     quantities: pd.DataFrame | None = None  # one row per segment (engine.quantities)
     details: Mapping[str, SectionDetail] = field(default_factory=dict)  # per section mark
+    bending: pd.DataFrame | None = None  # this wall's rows of the bending schedule (its counts)
 
     @property
     def ok(self) -> bool:

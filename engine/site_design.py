@@ -178,7 +178,7 @@ def _site_bars(walls: Sequence[WallDesign]):
 
 def _bar_marks(walls):
     """Bar marks site-wide (engine/bending.py): each wall's placing rows with their
-    ``bar_mark`` and the wall's own bending rows in ``extra["bending"]``; the site's placing
+    ``bar_mark`` and the wall's own bending rows (``bending``); the site's placing
     list and bending schedule."""
     from .bending import bending_rows_of, bending_schedule
 
@@ -189,7 +189,7 @@ def _bar_marks(walls):
             out.append(w)
             continue
         own = marked[marked["wall"] == w.wall].reset_index(drop=True)
-        out.append(replace(w, bars=own, extra={**w.extra, "bending": bending_rows_of(own)}))
+        out.append(replace(w, bars=own, bending=bending_rows_of(own)))
     return tuple(out), marked, barlist
 
 

@@ -321,8 +321,6 @@ def _ranges(revisions, s_lo, s_hi):
 def _draw_cloud(pen: Pen, segs, Y, a, b, y_low, y_high, h, tag) -> None:
     """A cloud around stations a-b from ``y_low`` to above the tags, each side moved out
     until it runs through no text."""
-    from .dxf_elevation import cloud_arcs
-
     x0, x1, y0, y1 = a - h, b + h, y_low, y_high + h
     lab = pen.labels
     for _ in range(60):
@@ -356,3 +354,29 @@ def _draw_cloud(pen: Pen, segs, Y, a, b, y_low, y_high, h, tag) -> None:
         pen.line(p, q, REVISION_LAYER)
     pen._add_text(tag, (tx + side / 2.0, ty + side * 0.3), pen.h(TEXT_SMALL_IN),
                   REVISION_LAYER, "MIDDLE_CENTER", 0.0)
+
+
+def cloud_arcs(x0: float, y0: float, x1: float, y1: float, *, chord_ft: float = 6.0,
+               arc_deg: float = 120.0):
+    """Scallops of a revision cloud around the rectangle (x0, y0)-(x1, y1): a list of
+    ``(centre_x, centre_y, radius, start_deg, end_deg)`` arcs, counter-clockwise, each bulging
+    outward and meeting the next at a point of the rectangle."""
+    corners = [(x0, y0), (x1, y0), (x1, y1), (x0, y1)]
+    half = math.radians(arc_deg) / 2.0
+    out = []
+    for (ax, ay), (bx, by) in zip(corners, corners[1:] + corners[:1], strict=True):
+        side = math.hypot(bx - ax, by - ay)
+        n = max(1, round(side / chord_ft))
+        dx, dy = (bx - ax) / side, (by - ay) / side
+        nx, ny = dy, -dx  # outward normal of a counter-clockwise outline
+        c = side / n
+        r = c / (2.0 * math.sin(half))
+        off = r * math.cos(half)  # the centre lies inside the outline
+        for i in range(n):
+            px, py = ax + dx * c * i, ay + dy * c * i
+            qx, qy = px + dx * c, py + dy * c
+            cx, cy = (px + qx) / 2 - nx * off, (py + qy) / 2 - ny * off
+            a0 = math.degrees(math.atan2(py - cy, px - cx)) % 360.0
+            a1 = math.degrees(math.atan2(qy - cy, qx - cx)) % 360.0
+            out.append((cx, cy, r, a0, a1))
+    return out

@@ -16,7 +16,6 @@ Output is deterministic: fixed header dates and GUIDs, handles in creation order
 
 from __future__ import annotations
 
-import math
 from fractions import Fraction
 from pathlib import Path
 
@@ -86,7 +85,7 @@ def station_interval_ft(length_ft: float) -> float:
     return 100.0
 
 
-from .dxf_elev_view import _bottom_ft, _runs, _tw_ends  # noqa: E402,F401 - shared helpers
+from .dxf_elev_view import _bottom_ft, _runs, _tw_ends, cloud_arcs  # noqa: E402,F401 - shared
 
 
 def write_elevation_dxf(design, path, *, input_hash: str, site_name: str,
@@ -161,20 +160,16 @@ def _write(design, path: Path, *, input_hash, site_name, ve, bars, quantities,
     setup_dimstyles(doc)
     # the placing list names the bending schedule's marks (assigned site-wide by the engine;
     # for this wall alone when the caller gave none)
-    bending = design.extra.get("bending")
-    design.extra["_bars_for_drawing"] = bars
-    try:
-        draw_wall(doc, design, site_name=site_name, ve=ve, sheet_size=sheet_size,
-                  label_interval_ft=label_interval_ft, revisions=revisions,
-                  revision_tag=revision_tag, date=date,
-                  revision=revision or (revision_tag if revisions else "0"),
-                  notes=_notes(ve, input_hash, site_name),
-                  schedule_headers=SCHEDULE_HEADERS,
-                  schedule_rows=_schedule_rows(design, quantities),
-                  bending_headers=BENDING_HEADERS,
-                  bending_rows=_bending_rows(bending) if bending is not None else [])
-    finally:
-        design.extra.pop("_bars_for_drawing", None)
+    bending = design.bending
+    draw_wall(doc, design, bars=bars, site_name=site_name, ve=ve, sheet_size=sheet_size,
+              label_interval_ft=label_interval_ft, revisions=revisions,
+              revision_tag=revision_tag, date=date,
+              revision=revision or (revision_tag if revisions else "0"),
+              notes=_notes(ve, input_hash, site_name),
+              schedule_headers=SCHEDULE_HEADERS,
+              schedule_rows=_schedule_rows(design, quantities),
+              bending_headers=BENDING_HEADERS,
+              bending_rows=_bending_rows(bending) if bending is not None else [])
     path.parent.mkdir(parents=True, exist_ok=True)
     # ezdxf adds the CLASSES entries of the entity types in use from a set, whose order
     # changes with the process's hash seed: add them now, in a fixed order
@@ -273,31 +268,5 @@ def _notes(ve: float, input_hash: str, site_name: str) -> list[str]:
         "CJ contraction joint, EJ expansion joint.",
         f"Site: {site_name}. Made with wallsched. Inputs: {input_hash}",
     ]
-
-
-def cloud_arcs(x0: float, y0: float, x1: float, y1: float, *, chord_ft: float = CLOUD_CHORD_FT,
-               arc_deg: float = CLOUD_ARC_DEG):
-    """Scallops of a revision cloud around the rectangle (x0, y0)-(x1, y1): a list of
-    ``(centre_x, centre_y, radius, start_deg, end_deg)`` arcs, counter-clockwise, each bulging
-    outward and meeting the next at a point of the rectangle."""
-    corners = [(x0, y0), (x1, y0), (x1, y1), (x0, y1)]
-    half = math.radians(arc_deg) / 2.0
-    out = []
-    for (ax, ay), (bx, by) in zip(corners, corners[1:] + corners[:1], strict=True):
-        side = math.hypot(bx - ax, by - ay)
-        n = max(1, round(side / chord_ft))
-        dx, dy = (bx - ax) / side, (by - ay) / side
-        nx, ny = dy, -dx  # outward normal of a counter-clockwise outline
-        c = side / n
-        r = c / (2.0 * math.sin(half))
-        off = r * math.cos(half)  # the centre lies inside the outline
-        for i in range(n):
-            px, py = ax + dx * c * i, ay + dy * c * i
-            qx, qy = px + dx * c, py + dy * c
-            cx, cy = (px + qx) / 2 - nx * off, (py + qy) / 2 - ny * off
-            a0 = math.degrees(math.atan2(py - cy, px - cx)) % 360.0
-            a1 = math.degrees(math.atan2(qy - cy, qx - cx)) % 360.0
-            out.append((cx, cy, r, a0, a1))
-    return out
 
 

@@ -261,21 +261,9 @@ def _draw_one(pen: Pen, design, mark, sec, cx, cy, grid: SectionGrid, bars) -> N
             if got is not None:
                 pen.line((got[0] - sgn * 0.05 * k_in, got[1]), target, "C-WALL-RBAR")
                 y = got[1] - step
-    # dimensions: measured lengths, no text overrides
-    yd = oy - t - kd
-    row1, row2 = yd - 0.3 * k_in, yd - 0.6 * k_in
-    for a, b in ((0.0, xf_base), (xf_base, xb_base), (xb_base, width)):
-        _dim(pen, P(a, -t - kd), P(b, -t - kd), (ox, row1))
-    _dim(pen, P(0, -t - kd), P(width, -t - kd), (ox, row2))
-    if sec.has_key:
-        _dim(pen, P(ko + kw, -t), P(ko + kw, -t - kd), (ox + ko + kw + 0.25 * k_in, yd),
-             angle=90.0)
-    _dim(pen, P(0, 0), P(0, -t), (ox - 0.3 * k_in, oy), angle=90.0)
-    _dim(pen, P(xf_top, h), P(xb_top, h), (ox, oy + h + 0.25 * k_in))
-    _dim(pen, P(xf_base, 0), P(xf_top, h), (ox + xf_base - 0.3 * k_in, oy), angle=90.0)
     # title under the cell
     used = ", ".join(g.segment for g in segs)
-    ty = cy + 0.25 * k_in
+    ty = cy + 0.1 * k_in
     pen.text_forced(f"SECTION {mark}", (cx + grid.cell_w_ft / 2, ty + 0.32 * k_in), "C-WALL-NOTE",
                     size_in=TEXT_TITLE_IN, align="BOTTOM_CENTER")
     seg_text = f"TYPICAL - SEGMENTS {used}"
@@ -285,3 +273,15 @@ def _draw_one(pen: Pen, design, mark, sec, cx, cy, grid: SectionGrid, bars) -> N
                     size_in=TEXT_SMALL_IN, align="BOTTOM_CENTER")
     pen.text_forced(f"SCALE {grid.scale_text}", (cx + grid.cell_w_ft / 2, ty), "C-WALL-NOTE",
                     size_in=TEXT_SMALL_IN, align="BOTTOM_CENTER")
+    # dimensions: measured lengths, no text overrides
+    yd = oy - t - kd
+    row1, row2 = yd - 0.25 * k_in, yd - 0.45 * k_in
+    for a, b in ((0.0, xf_base), (xf_base, xb_base), (xb_base, width)):
+        _dim(pen, P(a, -t - kd), P(b, -t - kd), (ox, row1))
+    _dim(pen, P(0, -t - kd), P(width, -t - kd), (ox, row2))
+    if sec.has_key:
+        _dim(pen, P(ko + kw, -t), P(ko + kw, -t - kd), (ox + ko + kw + 0.25 * k_in, yd),
+             angle=90.0)
+    _dim(pen, P(0, 0), P(0, -t), (ox - 0.3 * k_in, oy), angle=90.0)
+    _dim(pen, P(xf_top, h), P(xb_top, h), (ox, oy + h + 0.25 * k_in))
+    _dim(pen, P(xf_base, 0), P(xf_top, h), (ox + xf_base - 0.3 * k_in, oy), angle=90.0)

@@ -60,7 +60,7 @@ def _strips(x0: float, x1: float, width_ft: float) -> list[tuple[float, float]]:
     return [(x0 + i * step, x0 + (i + 1) * step) for i in range(n)]
 
 
-def draw_wall(doc, design, *, site_name: str, ve: float, sheet_size: str,
+def draw_wall(doc, design, *, bars, site_name: str, ve: float, sheet_size: str,
               label_interval_ft: float, revisions, revision_tag: str, date: str,
               revision: str, notes: list[str], schedule_rows, bending_rows,
               schedule_headers, bending_headers) -> dict:
@@ -86,8 +86,7 @@ def draw_wall(doc, design, *, site_name: str, ve: float, sheet_size: str,
     sec_area_h = area.h - TITLE_ROOM_IN
     gx = max(view.x1, plan.x1) + 60.0
     grid = plan_grid(design, area.w, sec_area_h, (gx, view.y0))
-    draw_sections(lambda sc: Pen(msp, sc, model_labels), design, grid, design.extra.get(
-        "_bars_for_drawing"))
+    draw_sections(lambda sc: Pen(msp, sc, model_labels), design, grid, bars)
     n_marks = len(design.marks())
     sec_sheets = max(1, math.ceil(n_marks / grid.per_sheet))
     sched_per = rows_per_page(area.h / 2.0 - 0.2)

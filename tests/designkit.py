@@ -88,4 +88,4 @@ def make_design(wall: str = "W1", *, existing_ground: bool = True) -> WallDesign
     marked, bending = bending_schedule(bars)
     return replace(design, bars=marked, quantities=wall_quantities(design, bars),
                    details={m: section_detail(sec) for m, sec in design.marks().items()},
-                   extra={**design.extra, "bending": bending})
+                   bending=bending)

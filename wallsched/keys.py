@@ -187,15 +187,6 @@ SIZING_KEYS = {
     "bar_spacing_step_in": Key(float, 1.0, lo=0.5, hi=12, doc="bar spacing increments, in"),
 }
 
-# [quantities]: how excavation and backfill are measured (engine/quantities.py)
-QUANTITIES_KEYS = {
-    "working_room_ft": Key(float, 2.0, lo=0, hi=20,
-                           doc="trench floor beyond each footing edge, ft (common practice)"),
-    "side_slope_h_per_v": Key(float, 1.0, lo=0, hi=5,
-                              doc="trench sides, horizontal per 1 vertical (1.0: OSHA 29 CFR "
-                                  "1926 Subpart P App. B Type B soil; 0: vertical sides)"),
-}
-
 # [drawing]: the DXF sheet set (exporters/dxf_wall.py)
 DRAWING_KEYS = {
     "sheet_size": Key(str, "ARCH D", choices=("ARCH D", "ANSI D"),

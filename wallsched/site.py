@@ -21,7 +21,6 @@ from .keys import (
     DRAWING_KEYS,
     LOADS_KEYS,
     MATERIALS_KEYS,
-    QUANTITIES_KEYS,
     SEISMIC_KEYS,
     SITE_KEYS,
     SIZING_KEYS,
@@ -35,13 +34,12 @@ from .schema import where_text as _where
 # Tables a wall may override, with their declared keys.
 OVERRIDABLE = {"soil": SOIL_KEYS, "loads": LOADS_KEYS, "materials": MATERIALS_KEYS,
                "criteria": CRITERIA_KEYS}
-SITE_ONLY = {"costs": COSTS_KEYS, "sizing": SIZING_KEYS, "quantities": QUANTITIES_KEYS,
-             "drawing": DRAWING_KEYS}  # site-wide tables
+SITE_ONLY = {"costs": COSTS_KEYS, "sizing": SIZING_KEYS, "drawing": DRAWING_KEYS}  # site-wide
 # [seismic] and [water]: optional tables a wall may also override; present only where given
 OPTIONAL_TABLES = {"seismic": SEISMIC_KEYS, "water": WATER_KEYS}
 TABLE_VALUED_LOADS = ("seismic", "water")  # filled from OPTIONAL_TABLES, never in [loads]
 TOP_LEVEL = ("site", "soil", "loads", "materials", "criteria", "costs", "sizing", "seismic",
-             "water", "walls", "quantities", "drawing")
+             "water", "walls", "drawing")
 SOURCE_KINDS = ("csv", "dxf", "gis")
 
 WALL_KEYS = {
@@ -103,7 +101,6 @@ class Site:
     raw: Mapping[str, Any]
     costs: Mapping[str, Any] = field(default_factory=dict)
     sizing: Mapping[str, Any] = field(default_factory=dict)
-    quantities: Mapping[str, Any] = field(default_factory=dict)
     drawing: Mapping[str, Any] = field(default_factory=dict)
 
     def input_files(self) -> list[Path]:
@@ -415,7 +412,7 @@ def load_site(path: str | Path) -> Site:
                  for t, keys in SITE_ONLY.items()}
     # the site-level soil, for the record (validated per wall above)
     return Site(costs=site_only["costs"], sizing=site_only["sizing"],
-        quantities=site_only["quantities"], drawing=site_only["drawing"],
+        drawing=site_only["drawing"],
         path=path.resolve(), folder=folder.resolve(), name=meta["name"],
         meta=MappingProxyType(meta), soil=MappingProxyType(tables["soil"]),
         loads=MappingProxyType(tables["loads"]), materials=MappingProxyType(tables["materials"]),
