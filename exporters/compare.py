@@ -120,6 +120,8 @@ class Field:
         a, b = _num(a), _num(b)
         if math.isnan(a) or math.isnan(b):
             return math.isnan(a) and math.isnan(b)
+        if math.isinf(a) or math.isinf(b):  # "inf -> inf" is no change; inf -> 3 is one
+            return a == b
         if self.kind == "qty":
             tol = max(QTY_REL_TOL * max(abs(a), abs(b)), QTY_ABS_TOL)
         else:

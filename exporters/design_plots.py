@@ -14,6 +14,7 @@ import numpy as np
 
 from ..cautions import CAUTIONS
 from .dxf_elevation import _bottom_ft, _runs, _tw_ends
+from .file_names import wall_file_stem
 from .plots import figure, station_ticks
 
 
@@ -148,10 +149,13 @@ def plot_utilization(design, path) -> Path:
     return path
 
 
-def write_design_plots(design, folder, *, vertical_exaggeration: float = 1.0) -> list[Path]:
-    """``<wall>-elevation.png`` and ``<wall>-utilization.png`` in ``folder``."""
+def write_design_plots(design, folder, *, vertical_exaggeration: float = 1.0,
+                       stem: str | None = None) -> list[Path]:
+    """``<stem>-elevation.png`` and ``<stem>-utilization.png`` in ``folder`` (``stem``: the
+    wall's file stem, :func:`~.file_names.wall_file_stems`; by default its id's alone)."""
     folder = Path(folder)
     folder.mkdir(parents=True, exist_ok=True)
-    return [plot_design_elevation(design, folder / f"{design.wall}-elevation.png",
+    stem = stem or wall_file_stem(design.wall)
+    return [plot_design_elevation(design, folder / f"{stem}-elevation.png",
                                   vertical_exaggeration=vertical_exaggeration),
-            plot_utilization(design, folder / f"{design.wall}-utilization.png")]
+            plot_utilization(design, folder / f"{stem}-utilization.png")]

@@ -38,6 +38,10 @@ def write_diff(diff: RunDiff, path: Path) -> Path:
     """Write ``diff.csv`` (header only when nothing changed) atomically; returns the path."""
     path = Path(path)
     tmp = path.with_name(f".{path.name}.tmp")
-    diff_frame(diff).to_csv(tmp, index=False, lineterminator="\n")
-    tmp.replace(path)
+    try:
+        diff_frame(diff).to_csv(tmp, index=False, lineterminator="\n")
+        tmp.replace(path)
+    except BaseException:
+        tmp.unlink(missing_ok=True)
+        raise
     return path

@@ -21,6 +21,7 @@ from pathlib import Path
 
 from ..profile.stationing import format_station
 from .dxf_style import TEXT_STYLE
+from .file_names import wall_file_stem
 
 # name: (ACI colour, linetype, what it holds)
 LAYERS: dict[str, tuple[int, str, str]] = {
@@ -57,7 +58,9 @@ POLYLINE_LAYERS = ("C-WALL-OTLN", "C-WALL-FTNG", "C-GRAD-RETD", "C-GRAD-FRNT", "
 
 
 def elevation_dxf_name(wall: str) -> str:
-    return f"{wall}-elevation.dxf"
+    """The file name of a wall's elevation written alone (the run names it by the stems of
+    all its walls, :func:`~.file_names.wall_file_stems`)."""
+    return f"{wall_file_stem(wall)}-elevation.dxf"
 
 
 def format_ft_in(value_ft: float) -> str:

@@ -11,6 +11,8 @@ from wallsched.cli import main
 from wallsched.errors import InputError
 from wallsched.outdir import staged_output
 
+MARKED = '{"format": "wallsched-run", "files": ["run.json", "stations.csv"]}\n'
+
 
 def _files(folder: Path) -> dict[str, bytes]:
     return {str(p.relative_to(folder)): p.read_bytes() for p in sorted(folder.rglob("*"))
@@ -21,6 +23,7 @@ def _previous(tmp_path: Path) -> Path:
     out = tmp_path / "out"
     out.mkdir()
     (out / "stations.csv").write_text("wall,station_ft\nA,0.0\n")
+    (out / "run.json").write_text(MARKED)
     return out
 
 
@@ -64,7 +67,8 @@ def test_replace_drops_the_old_folder_and_keeps_prev_alone(tmp_path: Path):
     (prev / "stations.csv").write_text("older\n")
     with staged_output(out, replace=True) as tmp:
         (tmp / "stations.csv").write_text("new\n")
-    assert _files(out) == {"stations.csv": b"new\n"}
+    assert _files(out).keys() == {"stations.csv", "run.json"}
+    assert (out / "stations.csv").read_text() == "new\n"
     assert (prev / "stations.csv").read_text() == "older\n"
     assert sorted(p.name for p in tmp_path.iterdir()) == ["out", "out.prev"]
 
@@ -84,7 +88,7 @@ def test_failure_while_swapping_restores_the_old_state(tmp_path: Path, monkeypat
         return real(src, dst)
 
     monkeypatch.setattr("wallsched.outdir.os.replace", flaky)
-    with pytest.raises(OSError), staged_output(out) as tmp:
+    with pytest.raises(InputError, match="No space left on device"), staged_output(out) as tmp:
         (tmp / "stations.csv").write_text("new\n")
     monkeypatch.undo()
     assert _files(out) == before

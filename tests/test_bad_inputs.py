@@ -22,7 +22,8 @@ from sitekit import make_site
 from wallsched.cli import main
 
 EXE = Path(sys.executable).with_name("wallsched")
-PREVIOUS = {"stations.csv": b"wall,station_ft\nA,0.0\n", "run.json": b"{}\n"}
+PREVIOUS = {"stations.csv": b"wall,station_ft\nA,0.0\n",
+            "run.json": b'{"format": "wallsched-run", "files": ["run.json", "stations.csv"]}\n'}
 
 
 def _snapshot(folder: Path) -> dict[str, bytes]:

@@ -9,6 +9,10 @@ import click
 from .cautions import CAUTIONS, EPILOG
 
 
+def _warn(quiet: bool):
+    return lambda line: None if quiet else click.echo(f"warning: {line}")
+
+
 @click.command(epilog=EPILOG)
 @click.argument("site_file", type=click.Path(dir_okay=False, path_type=Path))
 @click.option("--out", "out_dir", required=True, type=click.Path(file_okay=False, path_type=Path),
@@ -28,7 +32,7 @@ def design(ctx, site_file: Path, out_dir: Path, compare_dir: Path | None, replac
     """
     from .design import design_site
     from .guardrails import site_warnings
-    from .outdir import staged_output
+    from .outdir import claim_output, staged_output
     from .pipeline import collect_warnings, site_stations, write_design
     from .site import load_site
     from .stages import Stages, progress_wanted
@@ -36,6 +40,7 @@ def design(ctx, site_file: Path, out_dir: Path, compare_dir: Path | None, replac
     stages = Stages(show=progress_wanted(quiet))
     with stages.stage("reading"):
         site = load_site(site_file)
+    claim_output(ctx, out_dir, protect=site.input_files(), replace=replace, warn=_warn(quiet))
     with stages.stage("sampling", f"{len(site.walls)} walls"), collect_warnings() as warns:
         walls = site_stations(site)
     if compare_dir is not None:
@@ -49,7 +54,8 @@ def design(ctx, site_file: Path, out_dir: Path, compare_dir: Path | None, replac
         sd = design_site(site, walls, progress=tick)
     sd.warnings.extend(warns)
     sd.warnings.extend(site_warnings(site, walls))
-    with staged_output(out_dir, replace=replace, protect=site.input_files()) as tmp:
+    with staged_output(out_dir, replace=replace, protect=site.input_files(),
+                       warn=_warn(quiet)) as tmp:
         summary = write_design(site, sd, tmp, drawings=not no_drawings, compare_dir=compare_dir,
                                stages=stages)
     stages.write_times()

@@ -18,19 +18,37 @@ from .errors import InputError
 EXIT_CHANGED = 4
 
 
-def diff_output_path(new_dir: Path, out: Path | None) -> Path:
-    """Where ``diff.csv`` goes: ``--out`` as a file, or inside it if it is a folder."""
+def diff_output_path(new_dir: Path, out: Path | None, old_dir: Path | None = None) -> Path:
+    """Where ``diff.csv`` goes: ``--out`` as a file, or inside it if it is a folder.
+
+    ``--out`` may not name a file inside either compared run (it would overwrite what it
+    compares), except ``NEW_DIR/diff.csv``, the default."""
+    default = Path(new_dir) / "diff.csv"
     if out is None:
-        return Path(new_dir) / "diff.csv"
+        return default
     out = Path(out)
     if out.is_dir() or str(out).endswith(("/", "\\")):
         if not out.is_dir():
             raise InputError("folder does not exist", file=out, where="--out")
-        return out / "diff.csv"
-    parent = out.parent if str(out.parent) else Path(".")
-    if not parent.is_dir():
-        raise InputError(f"the parent folder {parent} does not exist", file=out, where="--out")
-    return out
+        target = out / "diff.csv"
+    else:
+        parent = out.parent if str(out.parent) else Path(".")
+        if not parent.is_dir():
+            raise InputError(f"the parent folder {parent} does not exist", file=out,
+                             where="--out")
+        target = out
+    full = target.resolve()
+    if full == default.resolve():
+        return target
+    for run in (old_dir, new_dir):
+        if run is None:
+            continue
+        root = Path(run).resolve()
+        if full == root or root in full.parents:
+            raise InputError(f"is inside the compared run {run}; writing there would change "
+                             "what is compared - give a file outside both runs (without "
+                             "--out: NEW_DIR/diff.csv)", file=out, where="--out")
+    return target
 
 
 @click.command(epilog=EPILOG)
@@ -52,7 +70,7 @@ def diff(ctx: click.Context, old_dir: Path, new_dir: Path, out: Path | None,
 
     if not (math.isfinite(height_tol_ft) and height_tol_ft >= 0):
         raise InputError(f"must be a number >= 0, got {height_tol_ft:g}", where="--height-tol")
-    target = diff_output_path(new_dir, out)
+    target = diff_output_path(new_dir, out, old_dir)
     result = diff_runs(old_dir, new_dir, height_tol_ft=height_tol_ft)
     try:
         write_diff(result, target)

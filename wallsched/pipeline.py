@@ -33,6 +33,7 @@ def write_stations(walls: list[WallStations], out: Path, *, plots: bool = True) 
     """``stations.csv`` for the whole site and one profile PNG per wall, into ``out``."""
     import pandas as pd
 
+    from .exporters.file_names import wall_file_stems
     from .exporters.plots import plot_stations
     from .exporters.tables import write_csv
 
@@ -40,17 +41,12 @@ def write_stations(walls: list[WallStations], out: Path, *, plots: bool = True) 
     written = [out / "stations.csv"]
     write_csv(frame, written[0])
     if plots:
+        stems = wall_file_stems(w.wall for w in walls)
         for w in walls:
-            p = out / f"{safe_name(w.wall)}-profile.png"
+            p = out / f"{stems[w.wall]}-profile.png"
             plot_stations(w, p)
             written.append(p)
     return written
-
-
-def safe_name(wall_id: str) -> str:
-    """A file-name-safe form of a wall id (never a path)."""
-    keep = "".join(c if c.isalnum() or c in "-_." else "_" for c in wall_id)
-    return keep.strip(".") or "wall"
 
 
 class collect_warnings:  # noqa: N801 - used as a context manager
@@ -157,10 +153,12 @@ def write_drawings(run, sd, out: Path, *, diff=None, progress=None, drawing=None
     earlier run) each changed wall's DXF gets a revision cloud around every changed range."""
     from .exporters.design_plots import write_design_plots
     from .exporters.dxf_elevation import write_elevation_dxf
+    from .exporters.file_names import wall_file_stems
     from .exporters.plots import plot_stations
 
+    stems = wall_file_stems(w.wall for w in sd.walls)
     for w in sd.walls:
-        name = safe_name(w.wall)
+        name = stems[w.wall]
         plot_stations(w.stations, out / f"{name}-profile.png")
         if not w.segments:
             continue
@@ -172,6 +170,6 @@ def write_drawings(run, sd, out: Path, *, diff=None, progress=None, drawing=None
                             sheet_size=dr.get("sheet_size") or "ARCH D",
                             label_interval_ft=dr.get("label_interval_ft") or 50.0,
                             date=dr.get("date") or "", revision=dr.get("revision") or "")
-        write_design_plots(w, out)
+        write_design_plots(w, out, stem=name)
         if progress is not None:
             progress(1)

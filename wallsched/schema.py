@@ -11,6 +11,7 @@ import difflib
 import math
 import re
 import tomllib
+import unicodedata
 from collections.abc import Mapping
 from dataclasses import dataclass
 from pathlib import Path
@@ -20,6 +21,7 @@ from .errors import InputError
 
 REQUIRED = object()  # sentinel: the key must be given
 MAX_TOML_BYTES = 1024 * 1024  # a site or section file larger than this is refused unread
+MAX_TEXT = 4000  # characters of one text value (a name, a note, a path)
 
 
 @dataclass(frozen=True)
@@ -136,33 +138,65 @@ def where_text(src: SourceText | None, table: str | None, key: str) -> str:
     return label
 
 
+def _short(value: Any, limit: int = 60) -> str:
+    """``repr(value)`` cut to ``limit`` characters (a huge value is named, not printed)."""
+    if isinstance(value, int) and not isinstance(value, bool) and abs(value) >= 10 ** 15:
+        return f"a {len(str(abs(value)))}-digit number"
+    text = repr(value) if not isinstance(value, list | dict) or len(value) < 50 else (
+        f"a {type(value).__name__} of {len(value)} items")
+    return text if len(text) <= limit else text[:limit - 5] + "...'" + text[-1:]
+
+
+def _finite(value: int | float, spec: Key, *, file, where: str) -> float:
+    """A number as a finite float; NaN, infinity and integers past a float refused."""
+    try:
+        out = float(value)
+    except OverflowError:
+        out = math.inf
+    if not math.isfinite(out):
+        raise InputError(f"must be a finite number, got {_short(value)}; allowed: "
+                         f"{spec.range_text()}", file=file, where=where)
+    return out
+
+
 def check_value(value: Any, spec: Key, *, file, where: str) -> Any:
     """Check one value against its key; returns it converted (int -> float for floats)."""
     kind = spec.kind
     if kind is float:
         if isinstance(value, bool) or not isinstance(value, int | float):
             raise InputError(
-                f"must be a number, got {value!r}; allowed: {spec.range_text()}",
+                f"must be a number, got {_short(value)}; allowed: {spec.range_text()}",
                 file=file, where=where,
             )
-        value = float(value)
-        if not math.isfinite(value):
-            raise InputError(f"must be finite, got {value!r}", file=file, where=where)
+        value = _finite(value, spec, file=file, where=where)
     elif kind is int:
         if isinstance(value, bool) or not isinstance(value, int):
-            raise InputError(f"must be a whole number, got {value!r}", file=file, where=where)
+            raise InputError(f"must be a whole number, got {_short(value)}", file=file,
+                             where=where)
+        _finite(value, spec, file=file, where=where)
     elif kind is bool:
         if not isinstance(value, bool):
-            raise InputError(f"must be true or false, got {value!r}", file=file, where=where)
+            raise InputError(f"must be true or false, got {_short(value)}", file=file,
+                             where=where)
         return value
     elif kind is str:
         if not isinstance(value, str):
-            raise InputError(f"must be a text string, got {value!r}", file=file, where=where)
+            raise InputError(f"must be a text string, got {_short(value)}", file=file,
+                             where=where)
+        if len(value) > MAX_TEXT:
+            raise InputError(f"is {len(value):,} characters long; the limit is {MAX_TEXT:,} "
+                             "(a name or a note, not a document)", file=file, where=where)
+        bad = sorted({c for c in value if unicodedata.category(c) == "Cc"} - set("\t\n\r"))
+        if bad:
+            raise InputError("holds a control character ("
+                             + ", ".join(f"U+{ord(c):04X}" for c in bad)
+                             + "); remove it (tables and spreadsheets cannot hold it)",
+                             file=file, where=where)
         if spec.choices and value not in spec.choices:
             hint = difflib.get_close_matches(value, spec.choices, n=1)
             extra = f" (did you mean {hint[0]!r}?)" if hint else ""
             raise InputError(
-                f"{value!r} is not allowed; use {spec.range_text()}{extra}",
+                f"{_short(value)} is not allowed; use {spec.range_text()}{extra}",
                 file=file, where=where,
             )
         return value

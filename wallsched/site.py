@@ -276,8 +276,11 @@ def _wall(i: int, raw: Any, site: dict[str, dict], *, folder: Path, file, src: S
     base = check_table({k: v for k, v in own.items() if k in WALL_KEYS}, WALL_KEYS,
                        table="walls", file=file, src=src)
     wid = base["id"].strip()
-    if not wid:
-        raise InputError("wall id is empty", file=file, where=f"{label}.id")
+    from .exporters.file_names import id_problem
+
+    problem = id_problem(wid)
+    if problem:
+        raise InputError(problem, file=file, where=f"{label}.id")
     label = f"walls[{i + 1}] (id {wid!r})"
     resolved = {}
     for table, keys in OVERRIDABLE.items():
