@@ -18,13 +18,16 @@ OPTION_KEYS: dict[str, tuple[str, ...]] = {
     "csv": (),
     "dxf": ("layer", "start", "gap_tolerance_ft", "units", "max_offset_ft", "labels",
             "pattern", "allowance_ft", "view", "origin_station_ft", "origin_elevation_ft",
-            "vertical_exaggeration", "origin_xy"),
+            "vertical_exaggeration", "origin_xy", "offset_ft"),
     "gis": ("field", "value", "layer", "start", "units", "to_crs", "max_offset_ft"),
+    "landxml": ("alignment", "surface", "profile", "offset_ft"),
+    "points": ("offset_ft", "code", "max_edge_ft"),
 }
 UNIT_NAMES = ("ft", "us-ft", "m", "cm", "mm", "in")
 ALIGNMENT_ONLY = ("start", "gap_tolerance_ft")
 GRADE_ONLY = ("max_offset_ft", "labels", "pattern", "allowance_ft", "view",
-              "origin_station_ft", "origin_elevation_ft", "vertical_exaggeration", "origin_xy")
+              "origin_station_ft", "origin_elevation_ft", "vertical_exaggeration", "origin_xy",
+              "offset_ft", "surface", "profile", "code", "max_edge_ft")
 
 
 def check_source_options(kind: str, options: Mapping[str, Any], *, file, key: str) -> None:
@@ -71,6 +74,62 @@ def _point(options, name, *, file, key):
                          file=file, where=f"{key}.{name}")
 
 
+def check_surface_options(kind: str, options: Mapping[str, Any], *, file, key: str) -> None:
+    """The LandXML and survey-point sources, and a DXF TIN (a DXF grade with offset_ft)."""
+    is_alignment = key.endswith("alignment")
+    for name in ("alignment", "surface", "profile", "code"):
+        v = options.get(name)
+        if v is not None and (not isinstance(v, str) or not v.strip()):
+            raise InputError(f"'{name}' must be a non-empty string, got {v!r}", file=file,
+                             where=f"{key}.{name}")
+    _number(options, "offset_ft", file=file, key=key, lo=0.0)
+    _number(options, "max_edge_ft", file=file, key=key, positive=True)
+    existing = key.endswith("existing_ground")
+    need_offset = ("offset_ft is required for a surface: the plan distance from the wall "
+                   "line to where the grade is taken, on the grade's own side (the retained "
+                   "side for retained_grade, the front for front_grade)")
+    if kind == "points":
+        if is_alignment:
+            raise InputError("survey points are a surface, not an alignment; give the wall "
+                             "line as a CSV, DXF, GIS or LandXML alignment", file=file,
+                             where=key)
+        if "offset_ft" not in options and not existing:
+            raise InputError(need_offset, file=file, where=key)
+        return
+    if kind == "dxf":
+        if "offset_ft" in options:
+            for name in ("labels", "view", "max_offset_ft"):
+                if name in options:
+                    raise InputError(f"'{name}' does not apply to a TIN (a DXF grade with "
+                                     "offset_ft)", file=file, where=f"{key}.{name}")
+        return
+    # landxml
+    if is_alignment:
+        if "alignment" not in options:
+            raise InputError("a LandXML alignment needs alignment = \"...\" (its name in the "
+                             "file)", file=file, where=key)
+        return
+    has_surface, has_profile = "surface" in options, "profile" in options
+    if has_surface == has_profile:
+        raise InputError("a LandXML grade needs either surface = \"...\" (a TIN, with "
+                         "offset_ft) or profile = \"...\" (with alignment = \"...\")",
+                         file=file, where=key)
+    if has_surface:
+        if "alignment" in options:
+            raise InputError("'alignment' applies to a profile, not to a surface (the "
+                             "surface is sampled along the wall's own alignment)", file=file,
+                             where=f"{key}.alignment")
+        if "offset_ft" not in options and not existing:
+            raise InputError(need_offset, file=file, where=key)
+    else:
+        if "alignment" not in options:
+            raise InputError("a LandXML profile needs alignment = \"...\" (the alignment "
+                             "the profile belongs to)", file=file, where=key)
+        if "offset_ft" in options:
+            raise InputError("'offset_ft' applies to a surface; a profile is read by station",
+                             file=file, where=f"{key}.offset_ft")
+
+
 def check_option_values(kind: str, options: Mapping[str, Any], *, file, key: str) -> None:
     """Types, ranges and combinations of an inline source's options."""
     is_alignment = key.endswith("alignment")
@@ -81,6 +140,10 @@ def check_option_values(kind: str, options: Mapping[str, Any], *, file, key: str
         if not is_alignment and name in ALIGNMENT_ONLY:
             raise InputError(f"'{name}' applies to an alignment, not to a grade",
                              file=file, where=f"{key}.{name}")
+    if kind in ("landxml", "points") or "offset_ft" in options:
+        check_surface_options(kind, options, file=file, key=key)
+        if kind != "dxf":
+            return
     for name in ("layer", "field", "to_crs", "pattern"):
         v = options.get(name)
         if v is not None and (not isinstance(v, str) or not v.strip()):
@@ -178,7 +241,41 @@ def read_alignment(src, site_folder, *, start_hint=None) -> Alignment:
         from .gisread import read_alignment_gis
 
         return read_alignment_gis(src.path, options, label)
+    if src.kind == "landxml":
+        from .landxml import read_alignment_landxml
+
+        return read_alignment_landxml(src.path, options, label)
     raise InputError(f"{src.kind} alignments are not supported", file=label, where=src.key)
+
+
+def read_surface(src, site_folder):
+    """The TIN of a surface source (LandXML surface, DXF TIN or survey points)."""
+    label = _label(src, site_folder)
+    if src.kind == "landxml":
+        from .landxml import read_surface_landxml
+
+        return read_surface_landxml(src.path, src.options, label)
+    if src.kind == "dxf":
+        from .tinread import read_dxf_tin
+
+        return read_dxf_tin(src.path, src.options, label)
+    from .tinread import read_points
+
+    return read_points(src.path, src.options, label)
+
+
+def is_surface(src) -> bool:
+    """Whether a grade source is a surface, sampled at an offset from the wall."""
+    return src.kind == "points" or (src.kind == "landxml" and "surface" in src.options) or (
+        src.kind == "dxf" and "offset_ft" in src.options)
+
+
+def side_of(src, retained_side: str) -> tuple[float, str]:
+    """(sign, side) of a grade's offset: +1 left, -1 right, looking up-station. The retained
+    grade and existing ground are taken on the retained side, the front grade on the other."""
+    front = src.key.endswith("front_grade")
+    left = (retained_side == "left") != front
+    return (1.0, "left") if left else (-1.0, "right")
 
 
 def read_grade(src, site_folder, *, alignment: Alignment, start_station_ft: float,
@@ -189,6 +286,19 @@ def read_grade(src, site_folder, *, alignment: Alignment, start_station_ft: floa
         return read_grade_csv(src.path, label)
     options = src.options
     along = dict(alignment=alignment, start_station_ft=start_station_ft)
+    if is_surface(src):
+        from .surface import surface_grade
+
+        sign, side = side_of(src, retained_side)
+        what = src.key.rsplit(".", 1)[-1].replace("_", " ")
+        return surface_grade(read_surface(src, site_folder), alignment,
+                             start_station_ft=start_station_ft,
+                             offset_ft=float(options.get("offset_ft", 0.0)), sign=sign,
+                             what=what, side=side)
+    if src.kind == "landxml":
+        from .landxml import read_profile_landxml
+
+        return read_profile_landxml(src.path, options, label)
     if src.kind == "dxf":
         if options.get("labels") is not None:
             from .labels import read_label_grade

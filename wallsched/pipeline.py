@@ -12,14 +12,18 @@ from .site import Site, WallSpec
 def wall_stations(site: Site, wall: WallSpec) -> WallStations:
     """Read one wall's alignment and grades and sample them into stations."""
     alignment = read_alignment(wall.alignment, site.folder)
-    kw = dict(alignment=alignment, start_station_ft=wall.start_station_ft,
+    start = wall.start_station_ft
+    if start is None:  # the alignment's own start station (LandXML staStart), else 0
+        start = getattr(alignment, "start_station_ft", None)
+    start = 0.0 if start is None else float(start)
+    kw = dict(alignment=alignment, start_station_ft=start,
               retained_side=wall.retained_side)
     retained = read_grade(wall.retained_grade, site.folder, **kw)
     front = read_grade(wall.front_grade, site.folder, **kw)
     existing = (read_grade(wall.existing_ground, site.folder, **kw)
                 if wall.existing_ground is not None else None)
     c = wall.criteria
-    return sample_wall(wall.id, alignment, wall.start_station_ft, retained, front, existing,
+    return sample_wall(wall.id, alignment, start, retained, front, existing,
                        interval_ft=c["station_interval_ft"],
                        tolerance_ft=c["coverage_tolerance_ft"])
 

@@ -40,13 +40,15 @@ OPTIONAL_TABLES = {"seismic": SEISMIC_KEYS, "water": WATER_KEYS}
 TABLE_VALUED_LOADS = ("seismic", "water")  # filled from OPTIONAL_TABLES, never in [loads]
 TOP_LEVEL = ("site", "soil", "loads", "materials", "criteria", "costs", "sizing", "seismic",
              "water", "walls", "drawing")
-SOURCE_KINDS = ("csv", "dxf", "gis")
+SOURCE_KINDS = ("csv", "dxf", "gis", "landxml", "points")
 
 WALL_KEYS = {
     "id": Key(str, REQUIRED, doc="wall id, unique on the site"),
     "retained_side": Key(str, REQUIRED, choices=("left", "right"),
                          doc="side of the retained soil, looking up-station"),
-    "start_station_ft": Key(float, 0.0, lo=-1e7, hi=1e7, doc="station at the alignment's start"),
+    "start_station_ft": Key(float, None, lo=-1e7, hi=1e7,
+                            doc="station at the alignment's start (default: a LandXML "
+                                "alignment's staStart, else 0)"),
     "name": Key(str, None, doc="a longer name for the wall"),
 }
 WALL_SOURCES = ("alignment", "retained_grade", "front_grade", "existing_ground")
@@ -77,7 +79,7 @@ class WallSpec:
     retained_grade: Source
     front_grade: Source
     existing_ground: Source | None
-    start_station_ft: float
+    start_station_ft: float | None  # None: the alignment's own (LandXML staStart), else 0
     soil: Mapping[str, Any]
     loads: Mapping[str, Any]
     materials: Mapping[str, Any]
