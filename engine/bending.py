@@ -31,7 +31,6 @@ never the start of another size (3-11, 14, 18), so a mark reads back unambiguous
 from __future__ import annotations
 
 import math
-import re
 
 import numpy as np
 import pandas as pd
@@ -46,6 +45,7 @@ from .detailing import (
     hook_extension_in,
     unit_weight_plf,
 )
+from .model import natural_key
 
 BARLIST_COLUMNS = ["mark", "size", "count", "length_ft", "shape", "weight_lb", "a_in", "g_in",
                    "j_in", "bend_diameter_in", "used_in"]
@@ -125,19 +125,6 @@ def bending_schedule(bars: pd.DataFrame) -> tuple[pd.DataFrame, pd.DataFrame]:
     marks = _serial_marks(sorted(set(keys)))
     placing["bar_mark"] = [marks[k] for k in keys]
     return placing, bending_rows_of(placing)
-
-
-def natural_key(text: str) -> tuple:
-    """Sort key reading digit runs as numbers and letters by length first (A ... Z, AA ...):
-    ``W1-2 < W1-10``, ``Z < AA``."""
-    parts = re.findall(r"\d+|[^\d]+", str(text))
-    out = []
-    for p in parts:
-        if p.isdigit():
-            out.append((0, int(p), ""))
-        else:
-            out.append((1, len(p) if p.isalpha() else 0, p))
-    return tuple(out)
 
 
 def bending_rows_of(placing: pd.DataFrame) -> pd.DataFrame:

@@ -10,6 +10,7 @@ their names say.
 from __future__ import annotations
 
 import math
+import re
 from collections.abc import Mapping
 from dataclasses import dataclass, field
 from typing import TYPE_CHECKING, Protocol
@@ -25,6 +26,20 @@ if TYPE_CHECKING:
     from .checks import SectionChecks
     from .pressure import Thrust
     from .section import DesignInputs, SectionGeometry, Weights
+
+
+def natural_key(text: str) -> tuple:
+    """Sort key of marks and ids: digit runs read as numbers, letter runs by length first
+    (A ... Z, AA ...): ``W1-2 < W1-10``, ``Z < AA``."""
+    parts = re.findall(r"\d+|[^\d]+", str(text))
+    out = []
+    for p in parts:
+        if p.isdigit():
+            out.append((0, int(p), ""))
+        else:
+            out.append((1, len(p) if p.isalpha() else 0, p))
+    return tuple(out)
+
 
 REBAR_COLUMNS = ["wall", "segment", "mark", "size", "spacing_in", "count", "length_ft", "shape",
                  "weight_lb"]

@@ -1,9 +1,13 @@
-"""Plots per designed wall (PNG, matplotlib Agg): elevation, utilisation with segment bands and
-section marks along the station.
+"""Plots per designed wall (PNG, matplotlib Agg): the elevation, and the utilisation of the
+checks along the wall with the section marks.
 
-Per-check utilisation comes from ``design.station_checks`` (check name -> array per
-station) when the engine provides it; the largest ratio per station (``station_utilization``) is
-always drawn.
+The elevation is labelled by the DXF's rules (:func:`.dxf_elev_view.label_stations`: at the
+segment ends, both sides of a step, and every ``label_interval_ft`` between them); the
+segment-end labels come before the interval labels, and a label that would overlap another
+text is left out (:mod:`.plots`). The utilisation plot groups the checks into at most six
+lines (each the largest ratio of its group at every station) beside the largest ratio and
+the limit: eight legend entries at most. Every station series is drawn from its per-pixel
+envelope.
 """
 
 from __future__ import annotations
@@ -12,10 +16,28 @@ from pathlib import Path
 
 import numpy as np
 
-from ..cautions import CAUTIONS
-from .dxf_elevation import _bottom_ft, _runs, _tw_ends
+from ..engine.model import natural_key
+from ..profile.stationing import format_station
+from .dxf_elev_view import _bottom_ft, _runs, _tw_ends, label_stations
+from .envelope import envelope
 from .file_names import wall_file_stem
-from .plots import figure, station_ticks
+from .plots import finish, legend_outside, new_figure, optional_text, save, station_ticks
+
+LABEL_INTERVAL_FT = 50.0  # as the [drawing] key's default
+LABEL_PT = 6.0
+TAG_PT = 7.0
+
+# the utilisation plot's groups: (legend label, does a check name belong to it); a name goes
+# to the first group that takes it, every name to one group
+CHECK_GROUPS = (
+    ("overturning", lambda n: "overturning" in n),
+    ("sliding", lambda n: "sliding" in n),
+    ("bearing", lambda n: "bearing" in n),
+    ("stem strength", lambda n: n.startswith("stem_") and ("flexure" in n or "shear" in n)),
+    ("heel and toe strength",
+     lambda n: n.startswith(("heel_", "toe_")) and ("flexure" in n or "shear" in n)),
+    ("detailing and minimums", lambda n: True),
+)
 
 
 def elevation_series(design, vertical_exaggeration: float = 1.0) -> dict[str, list[np.ndarray]]:
@@ -59,97 +81,149 @@ def elevation_series(design, vertical_exaggeration: float = 1.0) -> dict[str, li
     return out
 
 
-def _caution_footer(fig) -> None:
-    rest = [c for i, c in enumerate(CAUTIONS) if i not in (0, 2)]  # figure() prints 0 and 2
-    fig.text(0.01, 0.022, " ".join(rest), fontsize=5.5, color="0.35", wrap=True)
+def _bands(ax, design) -> None:
+    """Alternating grey bands, one per segment (two collections)."""
+    for parity, colour in ((0, "0.86"), (1, "0.93")):
+        spans = [(g.station_start_ft, g.length_ft) for i, g in enumerate(design.segments)
+                 if i % 2 == parity]
+        if spans:
+            ax.broken_barh(spans, (0, 1), transform=ax.get_xaxis_transform(), color=colour,
+                           zorder=0, lw=0)
 
 
-def _bands(ax, design, label: bool) -> None:
+def _segment_ids(ax, design, y: float, priority: int) -> None:
+    """Each segment's id over its middle, in two staggered rows (kept where it fits)."""
     for i, g in enumerate(design.segments):
-        ax.axvspan(g.station_start_ft, g.station_end_ft, color=("0.93" if i % 2 else "0.86"),
-                   zorder=0, lw=0)
-        if label:
-            ax.text((g.station_start_ft + g.station_end_ft) / 2, 0.98, g.segment,
-                    transform=ax.get_xaxis_transform(), ha="center", va="top", fontsize=7)
+        optional_text(ax, (g.station_start_ft + g.station_end_ft) / 2.0, y - 0.045 * (i % 2),
+                      g.segment, xycoords=ax.get_xaxis_transform(), ha="center", va="top",
+                      fontsize=TAG_PT, priority=priority)
 
 
-def plot_design_elevation(design, path, *, vertical_exaggeration: float = 1.0) -> Path:
-    """Grades, stepped wall and footing, key, joints and segment tags, as in the DXF."""
-    path = Path(path)
-    series = elevation_series(design, vertical_exaggeration)
+def elevation_figure(design, *, vertical_exaggeration: float = 1.0,
+                     label_interval_ft: float = LABEL_INTERVAL_FT):
+    """Grades, stepped wall and footing, key, joints, section marks and the elevation labels
+    (station and top of wall), as in the DXF."""
+    ve = vertical_exaggeration
+    series = elevation_series(design, ve)
     styles = {"C-GRAD-FRNT": ("tab:green", "-", "front grade"),
               "C-GRAD-RETD": ("tab:brown", "-.", "retained grade"),
               "C-GRAD-EXST": ("0.5", ":", "existing ground"),
               "C-WALL-OTLN": ("k", "-", "stem"),
               "C-WALL-FTNG": ("tab:blue", "--", "footing / key")}
-    st = design.stations.station_ft
-    with figure(path) as (fig, (ax,)):
-        for layer, lines in series.items():
-            colour, ls, label = styles[layer]
-            for i, xy in enumerate(lines):
-                ax.plot(xy[:, 0], xy[:, 1], color=colour, ls=ls, lw=1.3,
-                        label=label if i == 0 else None)
-        for j in design.joints:
-            ax.axvline(j.station_ft, color="tab:purple" if j.kind == "expansion" else "tab:olive",
-                       ls="-" if j.kind == "expansion" else ":", lw=0.8)
-        ax.plot([], [], color="tab:olive", ls=":", lw=0.8, label="contraction joint")
-        ax.plot([], [], color="tab:purple", lw=0.8, label="expansion joint")
-        span = max(st[-1] - st[0], 1.0)
-        for i, g in enumerate(design.segments):
-            # the section mark on every segment; the segment number where there is room,
-            # staggered in two rows so that short segments do not overprint
-            wide = (g.station_end_ft - g.station_start_ft) / span > 0.06
-            text = f"{g.segment}\n{g.mark}" if wide else g.mark
-            ax.text((g.station_start_ft + g.station_end_ft) / 2, 0.985 - 0.05 * (i % 2),
-                    text, transform=ax.get_xaxis_transform(), ha="center", va="top",
-                    fontsize=7)
-        ax.set_ylabel("elevation (ft)" + (f", vertical x{vertical_exaggeration:g}"
-                                          if vertical_exaggeration != 1 else ""))
-        ax.set_xlabel("station")
-        ax.set_title(f"Wall {design.wall}: elevation (front view)")
-        ax.grid(True, lw=0.3)
-        ax.legend(loc="lower right", fontsize=7, ncol=2)
-        station_ticks(ax, float(st[0]), float(st[-1]))
-        fig.tight_layout(rect=(0, 0.05, 1, 1))
-        _caution_footer(fig)
-    return path
+    st = design.stations
+    s = np.asarray(st.station_ft, dtype=float)
+    fig, (ax,) = new_figure()
+    for layer, lines in series.items():
+        colour, ls, label = styles[layer]
+        for i, xy in enumerate(lines):
+            x, y = envelope(xy[:, 0], xy[:, 1]) if len(xy) > 64 else (xy[:, 0], xy[:, 1])
+            ax.plot(x, y, color=colour, ls=ls, lw=1.3, label=label if i == 0 else None)
+    for kind, colour, ls, label in (("contraction", "tab:olive", ":", "contraction joint"),
+                                    ("expansion", "tab:purple", "-", "expansion joint")):
+        xs = [j.station_ft for j in design.joints if j.kind == kind]
+        if xs:
+            ax.vlines(xs, 0, 1, transform=ax.get_xaxis_transform(), color=colour, ls=ls,
+                      lw=0.8, label=label)
+    segs = [g for g in design.segments if g.section is not None] or list(design.segments)
+    lo = min(min(_bottom_ft(g) for g in segs), float(np.nanmin(st.front_grade_ft)))
+    hi = max(max(max(_tw_ends(g)) for g in segs), float(np.nanmax(st.retained_grade_ft)))
+
+    def Y(e):
+        return lo + (e - lo) * ve
+
+    span = max((hi - lo) * ve, 1.0)
+    # room for the labels above the wall and the section marks below it
+    ax.set_ylim(lo - 0.14 * span, lo + span * 1.28)
+    for i, g in enumerate(design.segments):
+        optional_text(ax, (g.station_start_ft + g.station_end_ft) / 2.0,
+                      0.012 + 0.05 * (i % 2), g.mark or g.segment,
+                      xycoords=ax.get_xaxis_transform(), ha="center", va="bottom",
+                      fontsize=TAG_PT, fontweight="bold", priority=0)
+    fg = np.asarray(st.front_grade_ft, dtype=float)
+    for q in label_stations(segs, s, fg, label_interval_ft):
+        ha = {-1: "right", 0: "center", 1: "left"}[q.side]
+        optional_text(ax, q.station_ft, Y(q.tw),
+                      f"{format_station(q.station_ft)}  TW {q.tw:.2f}", xytext=(2 * q.side, 3),
+                      textcoords="offset points", rotation=90, ha=ha, va="bottom",
+                      fontsize=LABEL_PT, priority=1 if q.required else 2)
+    ax.set_ylabel("elevation (ft)" + (f", vertical x{ve:g}" if ve != 1 else ""))
+    ax.set_xlabel("station")
+    ax.set_title(f"Wall {design.wall}: elevation (front view); labels at segment ends, steps "
+                 f"and every {label_interval_ft:g} ft where they fit", fontsize=10)
+    ax.grid(True, lw=0.3)
+    legend_outside(ax)
+    station_ticks(ax, float(s[0]), float(s[-1]))
+    finish(fig)
+    return fig
+
+
+def check_groups(names) -> list[tuple[str, list[str]]]:
+    """The checks by :data:`CHECK_GROUPS`, in their order, empty groups left out."""
+    left = list(names)
+    out = []
+    for label, takes in CHECK_GROUPS:
+        mine = [n for n in left if takes(n)]
+        left = [n for n in left if n not in mine]
+        if mine:
+            out.append((label, mine))
+    return out
+
+
+def utilization_figure(design):
+    """Utilisation of the checks along the wall (grouped) with segment bands, and the section
+    marks in natural order (A ... Z, AA ...)."""
+    st = np.asarray(design.stations.station_ft, dtype=float)
+    checks = dict(design.station_checks or {})
+    marks = sorted({g.mark for g in design.segments if g.mark}, key=natural_key)
+    mark_h_in = max(1.1, 0.15 * len(marks) + 0.5)
+    fig, (ax1, ax2) = new_figure(nrows=2, figsize=(11.0, 5.4 + mark_h_in),
+                                 gridspec_kw={"height_ratios": [4.2, mark_h_in]})
+    _bands(ax1, design)
+    for k, (label, names) in enumerate(check_groups(checks)):
+        ratio = np.full(st.shape, np.nan)
+        for n in names:
+            ratio = np.fmax(ratio, np.asarray(checks[n], dtype=float))
+        text = label if len(names) == 1 and names[0] == label else f"{label} ({len(names)})"
+        ax1.plot(*envelope(st, ratio), lw=1.0, color=f"C{k}", label=text)
+    util = np.asarray(design.station_utilization, dtype=float)
+    ax1.plot(*envelope(st, util), color="k", lw=1.8, label="largest ratio")
+    ax1.axhline(1.0, color="tab:red", lw=1.0, ls="--", label="limit 1.0")
+    ax1.set_ylabel("demand / capacity")
+    top = float(np.nanmax(util)) if np.isfinite(util).any() else 1.0
+    ax1.set_ylim(0, max(1.1, top * 1.1) * 1.08)
+    ax1.set_title(f"Wall {design.wall}: utilisation of the checks along the wall "
+                  "(each line the largest ratio of its group; checks in brackets)", fontsize=10)
+    ax1.grid(True, lw=0.3)
+    legend_outside(ax1)
+    _segment_ids(ax1, design, 0.985, priority=1)
+    _bands(ax2, design)
+    level = {m: i for i, m in enumerate(marks)}
+    for m in marks:
+        spans = [(g.station_start_ft, g.length_ft) for g in design.segments if g.mark == m]
+        y = level[m]
+        ax2.broken_barh(spans, (y - 0.35, 0.7), color=f"C{y % 10}", lw=0)
+    step = max(1, int(np.ceil(len(marks) / 60)))
+    ax2.set_yticks(range(0, len(marks), step), marks[::step], fontsize=7)
+    ax2.set_ylim(len(marks) - 0.5, -0.5)  # A at the top
+    ax2.set_ylabel("section mark", fontsize=8)
+    ax2.set_xlabel("station")
+    station_ticks(ax2, float(st[0]), float(st[-1]))
+    finish(fig)
+    return fig
+
+
+def plot_design_elevation(design, path, *, vertical_exaggeration: float = 1.0,
+                          label_interval_ft: float = LABEL_INTERVAL_FT) -> Path:
+    return save(elevation_figure(design, vertical_exaggeration=vertical_exaggeration,
+                                 label_interval_ft=label_interval_ft), path)
 
 
 def plot_utilization(design, path) -> Path:
-    """Utilisation of each check along the wall with segment bands, and the section marks."""
-    path = Path(path)
-    st = np.asarray(design.stations.station_ft, dtype=float)
-    checks = dict(design.station_checks or {})
-    with figure(path, nrows=2, gridspec_kw={"height_ratios": [3, 1]}) as (fig, (ax1, ax2)):
-        _bands(ax1, design, label=True)
-        for name, values in checks.items():
-            ax1.plot(st, np.asarray(values, dtype=float), lw=1.0, label=name)
-        ax1.plot(st, design.station_utilization, color="k", lw=1.8, label="largest ratio")
-        ax1.axhline(1.0, color="tab:red", lw=1.0, ls="--", label="limit 1.0")
-        ax1.set_ylabel("demand / capacity")
-        ax1.set_ylim(0, max(1.1, float(np.nanmax(design.station_utilization)) * 1.1))
-        ax1.set_title(f"Wall {design.wall}: utilisation of each check along the wall")
-        ax1.grid(True, lw=0.3)
-        ax1.legend(loc="lower right", fontsize=7, ncol=3)
-        _bands(ax2, design, label=False)
-        marks = sorted({g.mark for g in design.segments})
-        level = {m: i for i, m in enumerate(marks)}
-        for g in design.segments:
-            y = level[g.mark]
-            ax2.plot([g.station_start_ft, g.station_end_ft], [y, y], lw=6, solid_capstyle="butt",
-                     color=f"C{y % 10}")
-            ax2.text((g.station_start_ft + g.station_end_ft) / 2, y + 0.3, g.mark, ha="center",
-                     fontsize=8)
-        ax2.set_yticks(range(len(marks)), [f"section {m}" for m in marks])
-        ax2.set_ylim(-0.7, len(marks) - 0.1 + 0.5)
-        ax2.set_xlabel("station")
-        station_ticks(ax2, float(st[0]), float(st[-1]))
-        fig.tight_layout(rect=(0, 0.05, 1, 1))
-        _caution_footer(fig)
-    return path
+    return save(utilization_figure(design), path)
 
 
 def write_design_plots(design, folder, *, vertical_exaggeration: float = 1.0,
+                       label_interval_ft: float = LABEL_INTERVAL_FT,
                        stem: str | None = None) -> list[Path]:
     """``<stem>-elevation.png`` and ``<stem>-utilization.png`` in ``folder`` (``stem``: the
     wall's file stem, :func:`~.file_names.wall_file_stems`; by default its id's alone)."""
@@ -157,5 +231,6 @@ def write_design_plots(design, folder, *, vertical_exaggeration: float = 1.0,
     folder.mkdir(parents=True, exist_ok=True)
     stem = stem or wall_file_stem(design.wall)
     return [plot_design_elevation(design, folder / f"{stem}-elevation.png",
-                                  vertical_exaggeration=vertical_exaggeration),
+                                  vertical_exaggeration=vertical_exaggeration,
+                                  label_interval_ft=label_interval_ft),
             plot_utilization(design, folder / f"{stem}-utilization.png")]

@@ -85,7 +85,10 @@ class _Label:
     required: bool
 
 
-def _label_stations(segs, s, fg, interval_ft: float) -> list[_Label]:
+def label_stations(segs, s, fg, interval_ft: float) -> list[_Label]:
+    """Where the elevation is labelled (the DXF and the PNG): both ends of every run of
+    segments, both sides of a step (in footing or top), a segment joint without a step, and
+    every ``interval_ft`` inside a segment (``required`` False: these give way)."""
     out: list[_Label] = []
 
     def lab(g, x, side, required):
@@ -189,7 +192,7 @@ def draw_elevation(pen: Pen, design, *, ve: float, interval_ft: float,
                  size_in=TEXT_SMALL_IN, align="TOP_CENTER")
         x += interval
     # labels: the segment ends first, then the interval labels where they fit
-    labels = _label_stations(segs, s, fg, interval_ft)
+    labels = label_stations(segs, s, fg, interval_ft)
     labels.sort(key=lambda q: (not q.required, q.station_ft))
     count = 0
     band_top = float(Y(hi))

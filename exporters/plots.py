@@ -1,8 +1,17 @@
-"""Plots per wall (matplotlib, Agg backend): PNG files a person looks at."""
+"""Plots per wall (matplotlib, Agg backend): PNG files a person looks at.
+
+Every plot is drawn by a ``*_figure`` function that returns the finished figure (tests read
+its text extents) and is saved by :func:`save`. A finished figure (:func:`finish`) carries
+every caution in its footer and holds no two texts that overlap: a text added with
+:func:`optional_text` is kept only where it overlaps no fixed text (titles, axis and tick
+labels, the legend) and no optional text kept before it (lower priority number first, then in
+the order added). Station series are drawn from their per-pixel envelope
+(:mod:`.envelope`), so the time to plot grows with the pixels, not the stations.
+"""
 
 from __future__ import annotations
 
-import contextlib
+import textwrap
 from pathlib import Path
 
 import numpy as np
@@ -11,22 +20,137 @@ from ..cautions import CAUTIONS
 from ..profile.stationing import format_station
 from .envelope import envelope, envelope_indices
 
+DPI = 110
+FIGSIZE_IN = (11.0, 6.5)
+FOOTER_PT = 5.5
+OPTIONAL = "wallsched-optional"
+GAP_PX = 1.0  # clear gap kept between two texts
 
-@contextlib.contextmanager
-def figure(path: Path, *, nrows: int = 1, figsize=(11, 6.5), sharex=True, **kw):
-    """Create a figure, yield its axes, save it to ``path`` and close it."""
+
+def new_figure(*, nrows: int = 1, figsize=FIGSIZE_IN, sharex=True, **kw):
+    """A figure (Agg, at the saved resolution) and its column of axes."""
     import matplotlib
 
     matplotlib.use("Agg")
     import matplotlib.pyplot as plt
 
-    fig, axes = plt.subplots(nrows, 1, figsize=figsize, sharex=sharex, squeeze=False, **kw)
+    fig, axes = plt.subplots(nrows, 1, figsize=figsize, sharex=sharex, squeeze=False, dpi=DPI,
+                             **kw)
+    return fig, axes[:, 0]
+
+
+def optional_text(ax, x, y, text, *, priority: int = 0, **kw):
+    """A text that :func:`finish` keeps only where it overlaps nothing (``ax.annotate``
+    arguments: ``xytext`` and ``textcoords`` offset it from the point)."""
+    t = ax.annotate(text, (x, y), **kw)
+    t.set_gid(f"{OPTIONAL}:{priority}")
+    return t
+
+
+def _footer(fig) -> float:
+    """Every caution at the foot of ``fig``, wrapped to its width; returns the height used
+    (figure fraction)."""
+    chars = int(fig.get_figwidth() * 72.0 / (0.52 * FOOTER_PT)) - 4  # a character ~0.52 em
+    lines = [line for c in CAUTIONS for line in textwrap.wrap(c, chars)]
+    line_h = 1.4 * FOOTER_PT / 72.0 / fig.get_figheight()
+    y = 0.005
+    for line in reversed(lines):
+        fig.text(0.01, y, line, fontsize=FOOTER_PT, color="0.3", va="bottom")
+        y += line_h
+    return y + 0.005
+
+
+def drawn_texts(fig) -> list:
+    """``(text, window extent)`` of every text ``fig`` draws (empty ones left out), read
+    while the figure draws itself."""
+    from matplotlib.text import Text
+
+    seen = []
+    draw = Text.draw
+
+    def recording(self, renderer):
+        draw(self, renderer)
+        if self.get_visible() and self.get_text().strip():
+            seen.append((self, self.get_window_extent(renderer)))
+
+    Text.draw = recording
     try:
-        yield fig, axes[:, 0]
-        fig.text(0.01, 0.005, CAUTIONS[0] + " " + CAUTIONS[2], fontsize=6, color="0.35")
-        fig.savefig(path, dpi=110, metadata={"Software": None})
+        fig.canvas.draw()
+    finally:
+        Text.draw = draw
+    return seen
+
+
+class _Boxes:
+    """Window extents kept in a grid of cells, for overlap checks among many texts."""
+
+    CELL = 40.0
+
+    def __init__(self):
+        self.cells: dict[tuple[int, int], list] = {}
+
+    def _keys(self, b):
+        c = self.CELL
+        for i in range(int(b.x0 // c), int(b.x1 // c) + 1):
+            for j in range(int(b.y0 // c), int(b.y1 // c) + 1):
+                yield i, j
+
+    def clear(self, b) -> bool:
+        for k in self._keys(b):
+            for o in self.cells.get(k, ()):
+                if (b.x0 < o.x1 + GAP_PX and o.x0 < b.x1 + GAP_PX and b.y0 < o.y1 + GAP_PX
+                        and o.y0 < b.y1 + GAP_PX):
+                    return False
+        return True
+
+    def add(self, b) -> None:
+        for k in self._keys(b):
+            self.cells.setdefault(k, []).append(b)
+
+
+def finish(fig) -> None:
+    """The footer with the cautions, the layout, and the optional texts placed clear of every
+    other text (see the module docstring)."""
+    foot = _footer(fig)
+    fig.tight_layout(rect=(0, foot, 1, 1))
+    optional = [t for t in fig.findobj(lambda a: str(a.get_gid() or "").startswith(OPTIONAL))]
+    for t in optional:
+        t.set_visible(False)
+    boxes = _Boxes()
+    for _, b in drawn_texts(fig):
+        boxes.add(b)
+    renderer = fig.canvas.get_renderer()
+    order = sorted(range(len(optional)),
+                   key=lambda i: (int(optional[i].get_gid().rsplit(":", 1)[1]), i))
+    fig_box = fig.bbox
+    for i in order:
+        t = optional[i]
+        t.set_visible(True)
+        b = t.get_window_extent(renderer)
+        inside = (b.x0 >= fig_box.x0 and b.x1 <= fig_box.x1 and b.y0 >= fig_box.y0
+                  and b.y1 <= fig_box.y1)
+        if inside and boxes.clear(b):
+            boxes.add(b)
+        else:
+            t.remove()
+
+
+def save(fig, path) -> Path:
+    """Save ``fig`` to ``path`` (PNG) and close it."""
+    import matplotlib.pyplot as plt
+
+    path = Path(path)
+    try:
+        fig.savefig(path, dpi=DPI, metadata={"Software": None})
     finally:
         plt.close(fig)
+    return path
+
+
+def legend_outside(ax, **kw):
+    """The legend right of ``ax``, clear of the data and its labels."""
+    return ax.legend(loc="upper left", bbox_to_anchor=(1.005, 1.0), borderaxespad=0.0,
+                     fontsize=7, **kw)
 
 
 def station_ticks(ax, start: float, end: float) -> None:
@@ -34,46 +158,51 @@ def station_ticks(ax, start: float, end: float) -> None:
     from matplotlib.ticker import FuncFormatter, MultipleLocator
 
     length = max(end - start, 1.0)
-    step = next(s for s in (10, 25, 50, 100, 200, 500, 1000, 5000) if length / s <= 12)
+    step = next((s for s in (10, 25, 50, 100, 200, 500, 1000, 2000, 5000, 10000, 20000, 50000)
+                 if length / s <= 12), 100000)
     ax.xaxis.set_major_locator(MultipleLocator(step))
     ax.xaxis.set_major_formatter(FuncFormatter(lambda v, _: format_station(v, 0)))
 
 
-def plot_stations(ws, path: Path) -> None:
+def stations_figure(ws):
     """Both grades and the retained height against station for one wall."""
     st = np.asarray(ws.station_ft, dtype=float)
-    with figure(path, nrows=2, gridspec_kw={"height_ratios": [2, 1]}) as (fig, (ax1, ax2)):
-        # every line thinned to its per-pixel envelope: the same picture, whatever the count
-        ax1.plot(*envelope(st, ws.retained_grade_ft), color="tab:brown", lw=1.6,
-                 label="retained grade")
-        ax1.plot(*envelope(st, ws.front_grade_ft), color="tab:green", lw=1.6,
-                 label="front grade")
-        if not np.isnan(ws.existing_ground_ft).all():
-            ax1.plot(*envelope(st, ws.existing_ground_ft), color="0.5", lw=1, ls="--",
-                     label="existing ground")
-        breaks = np.unique(np.round(st[np.asarray(ws.is_break, dtype=bool)], 1))
-        ax1.vlines(breaks, 0, 1, transform=ax1.get_xaxis_transform(), color="0.8", lw=0.5,
-                   zorder=0, label="station at a grade break")
-        ax1.set_ylabel("elevation (ft)")
-        ax1.set_title(f"Wall {ws.wall}: grades along the wall")
-        ax1.grid(True, lw=0.3)
-        ax1.legend(loc="best", fontsize=8)
-        h_all = np.asarray(ws.retained_height_ft, dtype=float)
-        k = int(np.argmax(h_all))
-        i = envelope_indices(st, h_all)
-        x, h = st[i], h_all[i]
-        ax2.fill_between(x, 0, h, where=h >= 0, color="tab:blue", alpha=0.3, lw=0)
-        ax2.fill_between(x, 0, h, where=h < 0, color="tab:red", alpha=0.5, lw=0,
-                         label="retained side flips")
-        ax2.plot(x, h, color="tab:blue", lw=1.2)
-        h = h_all
-        ax2.annotate(f"max {h[k]:.2f} ft at {format_station(st[k])}", (st[k], h[k]),
-                     textcoords="offset points", xytext=(5, -12), fontsize=8)
-        ax2.axhline(0, color="k", lw=0.6)
-        ax2.set_ylabel("retained height (ft)")
-        ax2.set_xlabel("station")
-        ax2.grid(True, lw=0.3)
-        if (h < 0).any():
-            ax2.legend(loc="best", fontsize=8)
-        station_ticks(ax2, float(st[0]), float(st[-1]))
-        fig.tight_layout(rect=(0, 0.02, 1, 1))
+    fig, (ax1, ax2) = new_figure(nrows=2, gridspec_kw={"height_ratios": [2, 1]})
+    # every line thinned to its per-pixel envelope: the same picture, whatever the count
+    ax1.plot(*envelope(st, ws.retained_grade_ft), color="tab:brown", lw=1.6,
+             label="retained grade")
+    ax1.plot(*envelope(st, ws.front_grade_ft), color="tab:green", lw=1.6, label="front grade")
+    if not np.isnan(ws.existing_ground_ft).all():
+        ax1.plot(*envelope(st, ws.existing_ground_ft), color="0.5", lw=1, ls="--",
+                 label="existing ground")
+    breaks = np.unique(np.round(st[np.asarray(ws.is_break, dtype=bool)], 1))
+    ax1.vlines(breaks, 0, 1, transform=ax1.get_xaxis_transform(), color="0.8", lw=0.5,
+               zorder=0, label="station at a grade break")
+    ax1.set_ylabel("elevation (ft)")
+    ax1.set_title(f"Wall {ws.wall}: grades along the wall")
+    ax1.grid(True, lw=0.3)
+    legend_outside(ax1)
+    h_all = np.asarray(ws.retained_height_ft, dtype=float)
+    k = int(np.argmax(h_all))
+    i = envelope_indices(st, h_all)
+    x, h = st[i], h_all[i]
+    ax2.fill_between(x, 0, h, where=h >= 0, color="tab:blue", alpha=0.3, lw=0)
+    ax2.fill_between(x, 0, h, where=h < 0, color="tab:red", alpha=0.5, lw=0,
+                     label="retained side flips")
+    ax2.plot(x, h, color="tab:blue", lw=1.2)
+    optional_text(ax2, st[k], h_all[k], f"max {h_all[k]:.2f} ft at {format_station(st[k])}",
+                  xytext=(5, -12), textcoords="offset points", fontsize=8)
+    ax2.axhline(0, color="k", lw=0.6)
+    ax2.set_ylabel("retained height (ft)")
+    ax2.set_xlabel("station")
+    ax2.grid(True, lw=0.3)
+    if (h_all < 0).any():
+        legend_outside(ax2)
+    station_ticks(ax2, float(st[0]), float(st[-1]))
+    finish(fig)
+    return fig
+
+
+def plot_stations(ws, path: Path) -> Path:
+    """``stations_figure`` saved to ``path``."""
+    return save(stations_figure(ws), path)

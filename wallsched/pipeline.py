@@ -174,6 +174,7 @@ def write_drawings(run, sd, out: Path, *, diff=None, progress=None, drawing=None
                             sheet_size=dr.get("sheet_size") or "ARCH D",
                             label_interval_ft=dr.get("label_interval_ft") or 50.0,
                             date=dr.get("date") or "", revision=dr.get("revision") or "")
-        write_design_plots(w, out, stem=name)
+        write_design_plots(w, out, stem=name,
+                           label_interval_ft=dr.get("label_interval_ft") or 50.0)
         if progress is not None:
             progress(1)
