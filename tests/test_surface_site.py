@@ -188,3 +188,34 @@ def test_points_are_not_an_alignment(runner, tmp_path):
     site.write_text(text)
     res = runner.invoke(main, ["stations", str(site), "--out", str(tmp_path / "o")])
     assert res.exit_code == 2 and "survey points are a surface, not an alignment" in res.output
+
+
+def test_sample_site_surface_wall_follows_its_invented_grading():
+    import importlib.util
+    import math
+
+    from wallsched.pipeline import wall_stations
+    from wallsched.site import load_site
+
+    root = Path(__file__).resolve().parents[1] / "sample_site"
+    spec = importlib.util.spec_from_file_location("make_grading_xml",
+                                                  root / "make_grading_xml.py")
+    gen = importlib.util.module_from_spec(spec)
+    spec.loader.exec_module(gen)
+    # the committed files are what the script writes
+    assert (root / "grading.xml").read_text() == gen.grading_xml()
+    assert (root / "survey.csv").read_text() == gen.survey_csv()
+    site = load_site(root / "site.toml")
+    w4 = next(w for w in site.walls if w.id == "W4")
+    ws = wall_stations(site, w4)
+    s = ws.station_ft - gen.STA_START_FT
+    assert ws.station_ft[0] == gen.STA_START_FT
+    assert s[-1] == pytest.approx(gen.LINE1_FT + gen.RADIUS_FT * math.radians(gen.TURN_DEG)
+                                  + gen.LINE2_FT, abs=0.01)  # lines + R theta
+    want_r = np.array([gen.finished_grade(v, 2.0) for v in s])
+    want_f = np.array([gen.finished_grade(v, -2.0) for v in s])
+    assert np.abs(ws.retained_grade_ft - want_r).max() < 0.01
+    assert np.abs(ws.front_grade_ft - want_f).max() < 0.01
+    xy = np.array([gen.wall_point(v)[0] for v in s])
+    assert np.abs(np.column_stack([ws.x, ws.y]) - xy).max() < 0.01
+    assert np.isfinite(ws.existing_ground_ft).all()
