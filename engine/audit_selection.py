@@ -21,6 +21,11 @@ import numpy as np
 
 NEAR_SHARE = 0.05  # within 5 % of the segment's largest ratio of a check
 SAMPLE_PER_SEGMENT = 3  # evenly spaced stations audited on every segment besides the rule
+AUDIT_RULE = (
+    "the independent scalar audit re-checked, on every segment, its two end stations, every "
+    "station failing a check, every station within 5 % of a check's largest ratio on the "
+    f"segment, and {SAMPLE_PER_SEGMENT} stations spread evenly along it; the vectorized "
+    "engine checked every station")
 
 
 def audit_stations(ratios: np.ndarray, passes: np.ndarray, *, near: float = NEAR_SHARE,

@@ -151,6 +151,7 @@ class Segment:
     status: Status = OK  # prints "ok" when every check passes, else "code: reason"
     top_of_wall_start_ft: float = math.nan  # top of wall at the segment ends (for drawing)
     top_of_wall_end_ft: float = math.nan
+    audited_station_ft: tuple[float, ...] = ()  # stations the scalar audit re-checked
 
     @property
     def length_ft(self) -> float:
@@ -181,6 +182,16 @@ class WallDesign:
     quantities: pd.DataFrame | None = None  # one row per segment (engine.quantities)
     details: Mapping[str, SectionDetail] = field(default_factory=dict)  # per section mark
     bending: pd.DataFrame | None = None  # this wall's rows of the bending schedule (its counts)
+
+    @property
+    def stations_checked(self) -> int:
+        """Stations inside a segment (every one checked by the vectorized engine)."""
+        return int(np.count_nonzero(np.asarray(self.station_segment) >= 0))
+
+    @property
+    def stations_audited(self) -> int:
+        """Distinct stations the independent scalar audit re-checked (segment ends are shared)."""
+        return len({st for s in self.segments for st in s.audited_station_ft})
 
     @property
     def ok(self) -> bool:
@@ -262,6 +273,7 @@ class SiteDesign:
     barlist: pd.DataFrame | None = None  # bending schedule, one row per bar mark (engine.bending)
     load_factors: tuple[str, ...] = ()
     warnings: list[str] = field(default_factory=list)
+    audit_rule: str = ""  # which stations the scalar audit re-checked ("" when not audited)
 
     @property
     def ok(self) -> bool:

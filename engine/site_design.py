@@ -16,6 +16,7 @@ from dataclasses import replace
 
 import numpy as np
 
+from .audit_selection import AUDIT_RULE
 from .checks import LOAD_FACTORS
 from .governing import governing_cases
 from .model import SiteDesign, StationSeries, WallDesign
@@ -223,4 +224,4 @@ def design_site(walls: Sequence[WallToDesign], grid: SizingGrid, rates: CostRate
     return SiteDesign(
         walls=out, cases=governing_cases(out, inputs, criteria), inputs=inputs,
         bars=marked, barlist=barlist, quantity_totals=_quantity_totals(out),
-        load_factors=tuple(LOAD_FACTORS))
+        load_factors=tuple(LOAD_FACTORS), audit_rule=AUDIT_RULE if audit else "")

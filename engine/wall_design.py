@@ -14,6 +14,7 @@ from typing import Any
 import numpy as np
 
 from ..errors import DesignError
+from .audit_selection import audit_stations as select_audit_stations
 from .bars import BarSpec
 from .checks import SectionChecks, check_section
 from .model import Joint, SectionDims, Segment, StationSeries, WallDesign
@@ -79,8 +80,12 @@ def station_cases(ws: StationSeries, idx, bf, tw, fb_crit, top_mode):
     return h, emb, fb
 
 
-def audit_stations(inputs, sec: SectionDims, h, emb, fb, res: SectionChecks, wall, station_ft):
-    """The scalar re-check of every station; raises DesignError where it disagrees."""
+def audit_stations(inputs, sec: SectionDims, h, emb, fb, res: SectionChecks, wall,
+                   station_ft) -> tuple[float, ...]:
+    """The scalar re-check of the segment's deciding stations (the rule of
+    :func:`~.audit_selection.audit_stations`: ends, failures, every station within 5 % of a
+    check's largest ratio, an even sample); raises DesignError where it disagrees and returns
+    the stations it re-checked."""
     from .audit import audit_section
 
     geo = {"footing_thickness_in": sec.footing_thickness_in, "stem_top_in": sec.stem_top_in,
@@ -90,13 +95,18 @@ def audit_stations(inputs, sec: SectionDims, h, emb, fb, res: SectionChecks, wal
         geo["key_offset_ft"] = sec.key_offset_ft
     bars = {"stem": str(sec.stem_bars), "heel": str(sec.heel_bars), "toe": str(sec.toe_bars),
             "horizontal": str(sec.horizontal_bars), "longitudinal": str(sec.footing_long_bars)}
-    for k in range(h.size):
+    ratios = np.stack([np.broadcast_to(np.asarray(r.ratio, float), res.shape).reshape(-1)
+                       for r in res.rows])
+    passes = np.broadcast_to(np.asarray(res.passes, bool), res.shape).reshape(-1)
+    chosen = select_audit_stations(ratios, passes)
+    for k in chosen:
         g = dict(geo, retained_height_ft=max(float(h[k]), MIN_CHECK_HEIGHT_FT),
                  embedment_ft=float(emb[k]), freeboard_ft=float(fb[k]))
         rows = audit_section(inputs, g, bars)
         for name in res.names:
             if name in rows:
-                _agree(rows[name], res, name, k, wall, station_ft[k])
+                _agree(rows[name], res, name, int(k), wall, station_ft[k])
+    return tuple(float(station_ft[k]) for k in chosen)
 
 
 def _agree(a, res: SectionChecks, name: str, k: int, wall, station_ft: float) -> None:
@@ -247,7 +257,8 @@ def _design_segment(wall: WallToDesign, table: DesignTable, q, piece, last: bool
     if res is not None:
         fields = _segment_fields(res, ws.station_ft[idx])
         if audit:
-            audit_stations(wall.inputs, sec, hs, emb, fb, res, wall.wall, ws.station_ft[idx])
+            fields["audited_station_ft"] = audit_stations(wall.inputs, sec, hs, emb, fb, res,
+                                                        wall.wall, ws.station_ft[idx])
     _record_stations(out, q, idx, own, over, res, status)
     t_ft = (sec.footing_thickness_in / 12.0) if sec is not None else 0.0
     rg_seg = ws.retained_grade_ft[idx]

@@ -582,6 +582,13 @@ def write_report(run, sd, path, *, diff=None, date: _dt.date | None = None) -> P
             "over H (Ka = EFP/γ when an EFP is given). Overturning about the toe; sliding "
             "resistance μ·ΣV plus passive below the neglected depth; bearing by the kern rule "
             "(IBC 2021 1807.2.3; DESIGN basis of this program).", size=8.5)
+    checked = sum(w.stations_checked for w in sd.walls)
+    audited = sum(w.stations_audited for w in sd.walls)
+    if sd.audit_rule:
+        wr.para(f"- Audit: {audited:,} of {checked:,} stations re-checked; {sd.audit_rule}.",
+                size=8.5)
+    else:
+        wr.para("- Audit: the independent scalar audit was not run.", size=8.5)
 
     # ---- site summary
     pdf.add_page()

@@ -215,6 +215,9 @@ def run_record(run, sd, schedule: pd.DataFrame) -> dict:
             "soil": dict(tables["soil"]), "loads": dict(tables["loads"]),
             "materials": dict(tables["materials"]), "criteria": dict(tables["criteria"]),
             "joints": [{"station_ft": j.station_ft, "kind": j.kind} for j in w.joints],
+            "audit": {"stations_checked": w.stations_checked,
+                      "stations_audited": w.stations_audited,
+                      "rule": sd.audit_rule},
             "segments": [{k: _jsonable(v) for k, v in s.items()} for s in segs],
         })
     return {

@@ -42,3 +42,56 @@ def test_deterministic():
     a = audit_stations(r, np.ones(300, bool))
     b = audit_stations(r.copy(), np.ones(300, bool))
     assert np.array_equal(a, b) and np.all(np.diff(a) > 0)
+
+
+# ---- the rule as the design stage applies it -------------------------------------------------
+
+def _long_site(folder):
+    from sitekit import SMALL_GRID, make_site
+
+    from wallsched.design import design_site
+    from wallsched.pipeline import site_stations
+    from wallsched.site import load_site
+
+    # an invented 400 ft wall at 1 ft stations: long segments, so that the rule picks few
+    site = load_site(make_site(
+        folder, extra=SMALL_GRID + "\n[criteria]\nstation_interval_ft = 1.0\n",
+        top=((0, 100.0), (150, 106.0), (400, 103.0)), bottom=((0, 99.0), (400, 99.5)),
+        xy=((0.0, 0.0), (400.0, 0.0))))
+    return site, site_stations(site), design_site
+
+
+def test_the_design_stage_audits_the_deciding_stations_only(tmp_path):
+    site, stations, design_site = _long_site(tmp_path)
+    sd = design_site(site, stations)
+    (w,) = sd.walls
+    assert sd.audit_rule and "within 5 %" in sd.audit_rule
+    assert 0 < w.stations_audited < w.stations_checked
+    for s in w.segments:
+        got = set(s.audited_station_ft)
+        assert {s.station_start_ft, s.station_end_ft} <= got  # both ends
+        assert s.governing_station_ft in got  # the station with the largest ratio
+
+
+def test_a_disagreement_at_an_audited_station_is_still_a_bug(tmp_path, monkeypatch):
+    import pytest
+
+    from wallsched.engine import audit
+    from wallsched.errors import DesignError
+
+    site, stations, design_site = _long_site(tmp_path)
+    real = audit.audit_section
+
+    def wrong(inputs, geo, bars):  # the scalar side says every check fails
+        rows = real(inputs, geo, bars)
+        return {k: v._replace(passes=not v.passes) for k, v in rows.items()}
+
+    monkeypatch.setattr(audit, "audit_section", wrong)
+    with pytest.raises(DesignError, match="audit disagrees"):
+        design_site(site, stations)
+
+
+def test_no_audit_says_so(tmp_path):
+    site, stations, design_site = _long_site(tmp_path)
+    sd = design_site(site, stations, audit=False)
+    assert sd.audit_rule == "" and sd.walls[0].stations_audited == 0
