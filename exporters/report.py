@@ -20,13 +20,13 @@ from __future__ import annotations
 
 import datetime as _dt
 import functools
-import io
 import math
 from dataclasses import dataclass
 from pathlib import Path
 
 from ..cautions import CAUTIONS
 from ..profile.stationing import format_station
+from .report_sketch import draw_section_sketch
 
 FONT = "dejavu"
 MONO = "dejavumono"
@@ -179,97 +179,6 @@ def check_texts(case) -> list[CheckText]:
                              f"{dc} = ratio {rtxt} -> {verdict}",
                              math.inf if ratio is None else float(ratio), bool(row["passes"])))
     return out
-
-
-# ---------------------------------------------------------------- the sketch
-
-
-def section_sketch_png(case, *, dpi: int = 150) -> bytes:
-    """A dimensioned cross-section of the case (matplotlib, Agg) as PNG bytes."""
-    import matplotlib
-
-    matplotlib.use("Agg")
-    import matplotlib.pyplot as plt
-    from matplotlib.patches import Polygon
-
-    from .dxf_elevation import format_ft_in
-
-    sec, g = case.segment.section, case.geometry
-    T = sec.footing_thickness_in / 12.0
-    B = sec.footing_width_ft
-    tb, tt = sec.stem_base_in / 12.0, sec.stem_top_in / 12.0
-    toe = sec.toe_ft
-    hst = float(g.stem_height_ft)
-    D = float(g.embedment_ft)
-    H = float(g.design_height_ft)
-    xf0 = toe
-    xb0 = toe + tb
-    if sec.batter_face == "back":
-        xf1, xb1 = xf0, xf0 + tt
-    else:
-        xf1, xb1 = xb0 - tt, xb0
-    fig, ax = plt.subplots(figsize=(6.4, 4.0))
-    concrete = dict(facecolor="#d9d9d9", edgecolor="black", lw=1.2)
-    ax.add_patch(Polygon([(0, 0), (B, 0), (B, T), (0, T)], closed=True, **concrete))
-    ax.add_patch(Polygon([(xf0, T), (xb0, T), (xb1, T + hst), (xf1, T + hst)], closed=True,
-                         **concrete))
-    kd = sec.key_depth_in / 12.0 if sec.has_key else 0.0
-    if sec.has_key:
-        kw, ko = sec.key_width_in / 12.0, sec.key_offset_ft
-        ax.add_patch(Polygon([(ko, 0), (ko + kw, 0), (ko + kw, -kd), (ko, -kd)], closed=True,
-                             **concrete))
-    # grades
-    ax.plot([xb0 + (xb1 - xb0) * (H - T) / hst, B + 1.5], [H, H], color="#8b5a2b", lw=1.5)
-    ax.text(B + 1.5, H, " retained grade", va="center", fontsize=7)
-    ax.plot([-2.0, xf0], [D, D], color="#2e7d32", lw=1.5)
-    ax.text(xf0 - 0.15, D + 0.08, "front grade", va="bottom", ha="right", fontsize=7)
-    # thrust on the heel plane
-    ax.plot([B, B], [0, H], color="0.5", lw=0.8, ls=":")
-    for comp in case.thrust.components:
-        y = float(comp.arm_ft)
-        if float(comp.horizontal_lb) > 0:
-            ax.annotate("", xy=(B, y), xytext=(B + 1.2, y),
-                        arrowprops=dict(arrowstyle="->", color="#c62828", lw=1.2))
-            ax.text(B + 1.25, y, f" {comp.name} {float(comp.horizontal_lb):,.0f} lb/ft @ "
-                    f"{y:.2f} ft", va="center", fontsize=6.5, color="#c62828")
-
-    def dim_h(x0, x1, y, label):
-        ax.annotate("", xy=(x0, y), xytext=(x1, y),
-                    arrowprops=dict(arrowstyle="<->", lw=0.7, shrinkA=0, shrinkB=0))
-        ax.text((x0 + x1) / 2, y - 0.12, label, ha="center", va="top", fontsize=6.5)
-
-    def dim_v(x, y0, y1, label, side="left"):
-        ax.annotate("", xy=(x, y0), xytext=(x, y1),
-                    arrowprops=dict(arrowstyle="<->", lw=0.7, shrinkA=0, shrinkB=0))
-        ax.text(x + (-0.1 if side == "left" else 0.1), (y0 + y1) / 2, label, rotation=90,
-                ha="right" if side == "left" else "left", va="center", fontsize=6.5)
-
-    yb = -kd - 0.5
-    dim_h(0, toe, yb, f"toe {format_ft_in(toe)}")
-    dim_h(xf0, xb0, yb - 0.55, f"stem {sec.stem_base_in:g}\"")
-    dim_h(xb0, B, yb, f"heel {format_ft_in(sec.heel_ft)}")
-    dim_h(0, B, yb - 1.1, f"B = {format_ft_in(B)}")
-    dim_h(xf1, xb1, T + hst + 0.35, f"{sec.stem_top_in:g}\"")
-    dim_v(-0.4, 0, T, f"T {sec.footing_thickness_in:g}\"")
-    dim_v(-2.3, 0, D, f"D {D:.2f}'")
-    dim_v(-2.3, D, H, f"h {float(g.retained_height_ft):.2f}'")
-    dim_v(-3.2, 0, H, f"H {H:.2f}'")
-    dim_v(xf0 - 0.35 if toe > 0.8 else xf0 + (xb1 - xf0) / 2, T, T + hst,
-          f"stem {hst:.2f}'")
-    if sec.has_key:
-        ax.text(ko + kw / 2, -kd - 0.1, f"key {sec.key_width_in:g}\" x {sec.key_depth_in:g}\"",
-                ha="center", va="top", fontsize=6.5)
-    ax.set_aspect("equal")
-    ax.set_xlim(-3.9, B + 7.5)
-    ax.set_ylim(yb - 2.0, T + hst + 1.0)
-    ax.axis("off")
-    ax.set_title(f"Section {case.mark} at station {format_station(case.station_ft)} "
-                 f"(wall {case.wall}, segment {case.segment.segment})", fontsize=8)
-    buf = io.BytesIO()
-    fig.savefig(buf, format="png", dpi=dpi, bbox_inches="tight", facecolor="white",
-                metadata={"Software": None})
-    plt.close(fig)
-    return buf.getvalue()
 
 
 # ---------------------------------------------------------------- the PDF
@@ -661,7 +570,10 @@ def write_report(run, sd, path, *, diff=None, date: _dt.date | None = None) -> P
                 + f". Bars: stem {sec.stem_bars}, heel top {sec.heel_bars}, toe bottom "
                   f"{sec.toe_bars}, stem horizontal {sec.horizontal_bars} each face, footing "
                   f"longitudinal {sec.footing_long_bars} each mat.", size=8.5)
-        pdf.image(io.BytesIO(section_sketch_png(case)), x=MARGIN_MM + 15, w=125)
+        top = pdf.get_y() + 1.0
+        used = draw_section_sketch(pdf, case, x_mm=MARGIN_MM + 15, y_mm=top, w_mm=125,
+                                   h_mm=80, font=FONT)
+        pdf.set_y(top + used + 2.0)
         wr.h2(f"Governing station {format_station(case.station_ft)} (wall {case.wall}, "
               f"segment {seg.segment})")
         g = case.geometry

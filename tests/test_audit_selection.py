@@ -75,8 +75,8 @@ def test_the_design_stage_audits_the_deciding_stations_only(tmp_path):
 
 def test_a_disagreement_at_an_audited_station_is_still_a_bug(tmp_path, monkeypatch):
     import pytest
-
     from wallsched.engine import audit
+
     from wallsched.errors import DesignError
 
     site, stations, design_site = _long_site(tmp_path)
