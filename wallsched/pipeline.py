@@ -141,40 +141,55 @@ def write_design(site, sd, out: Path, *, drawings: bool = True, compare_dir=None
             d = diff_tables(read_run(compare_dir), new)
             write_diff(d, out / "diff.csv")
         lines += d.summary_lines()
-    if drawings:
-        with stages.items("drawing", len(sd.walls), "walls") as tick:
-            write_drawings(run, sd, out, diff=d, progress=tick,
-                           drawing=getattr(site, "drawing", None))
-    from .exporters.report import write_report
+    tasks = output_tasks(run, sd, out, diff=d, drawings=drawings,
+                         drawing=getattr(site, "drawing", None))
+    from .parallel import run_tasks
 
-    with stages.stage("calc package"):
-        write_report(run, sd, out / "report.pdf", diff=d)
+    with stages.items("drawings and calc package", len(tasks), "outputs") as tick:
+        spent = run_tasks(tasks, progress=tick)
+    for name, dt in spent.items():  # the time each kind of output took, summed over workers
+        stages.times_s[name] = stages.times_s.get(name, 0.0) + dt
     return lines
 
 
-def write_drawings(run, sd, out: Path, *, diff=None, progress=None, drawing=None) -> None:
-    """The DXF elevation and the plots of every wall; with ``diff`` (a RunDiff against an
-    earlier run) each changed wall's DXF gets a revision cloud around every changed range."""
+def output_tasks(run, sd, out: Path, *, diff=None, drawings: bool = True, drawing=None):
+    """The outputs that do not depend on one another: the calc package and, with
+    ``drawings``, each wall's drawings and plots (``wallsched.parallel`` runs them)."""
+    from .exporters.report import write_report
+    from .parallel import Task
+
+    tasks = [Task("calc package", lambda: write_report(run, sd, out / "report.pdf", diff=diff),
+                  weight=float(sum(len(w.segments) for w in sd.walls)) + 1.0)]
+    if drawings:
+        from .exporters.file_names import wall_file_stems
+
+        stems = wall_file_stems(w.wall for w in sd.walls)
+        for w in sd.walls:
+            tasks.append(Task("drawing", lambda w=w: write_wall_drawings(
+                run, w, out, stems[w.wall], diff=diff, drawing=drawing),
+                weight=1.0 + len(w.stations) / 1e3))
+    return tasks
+
+
+def write_wall_drawings(run, w, out: Path, stem: str, *, diff=None, drawing=None) -> None:
+    """One wall's profile plot, DXF elevation and design plots, into files named by ``stem``
+    (the wall's safe, unique file stem); with ``diff`` (a RunDiff
+    against an earlier run) a changed wall's DXF gets a revision cloud around every changed
+    range."""
     from .exporters.design_plots import write_design_plots
     from .exporters.dxf_elevation import write_elevation_dxf
-    from .exporters.file_names import wall_file_stems
     from .exporters.plots import plot_stations
 
-    stems = wall_file_stems(w.wall for w in sd.walls)
-    for w in sd.walls:
-        name = stems[w.wall]
-        plot_stations(w.stations, out / f"{name}-profile.png")
-        if not w.segments:
-            continue
-        revisions = diff.changed_station_ranges(w.wall) if diff is not None else None
-        dr = dict(drawing or {})
-        write_elevation_dxf(w, out / f"{name}-elevation.dxf", input_hash=run.hash_text,
-                            site_name=run.site_name, revisions=revisions,
-                            vertical_exaggeration=dr.get("vertical_exaggeration") or 2.0,
-                            sheet_size=dr.get("sheet_size") or "ARCH D",
-                            label_interval_ft=dr.get("label_interval_ft") or 50.0,
-                            date=dr.get("date") or "", revision=dr.get("revision") or "")
-        write_design_plots(w, out, stem=name,
-                           label_interval_ft=dr.get("label_interval_ft") or 50.0)
-        if progress is not None:
-            progress(1)
+    name = stem
+    plot_stations(w.stations, out / f"{name}-profile.png")
+    if not w.segments:
+        return
+    revisions = diff.changed_station_ranges(w.wall) if diff is not None else None
+    dr = dict(drawing or {})
+    write_elevation_dxf(w, out / f"{name}-elevation.dxf", input_hash=run.hash_text,
+                        site_name=run.site_name, revisions=revisions,
+                        vertical_exaggeration=dr.get("vertical_exaggeration") or 2.0,
+                        sheet_size=dr.get("sheet_size") or "ARCH D",
+                        label_interval_ft=dr.get("label_interval_ft") or 50.0,
+                        date=dr.get("date") or "", revision=dr.get("revision") or "")
+    write_design_plots(w, out, stem=name, label_interval_ft=dr.get("label_interval_ft") or 50.0)

@@ -1,0 +1,73 @@
+"""The outputs written side by side in worker processes are byte-identical to a serial run, and
+an error in a worker reaches the caller as it would in a serial run."""
+
+from __future__ import annotations
+
+import os
+import subprocess
+import sys
+from pathlib import Path
+
+import pytest
+from bad_inputs.corpus import SMALL_GRID
+from sitekit import make_site
+
+from wallsched.errors import InputError
+from wallsched.parallel import WORKERS_ENV, Task, run_tasks, worker_count
+
+EXE = Path(sys.executable).with_name("wallsched")
+
+
+def _run(site: Path, out: Path, workers: int) -> None:
+    env = dict(os.environ, **{WORKERS_ENV: str(workers)})
+    done = subprocess.run([str(EXE), "design", str(site), "--out", str(out), "-q"],
+                          capture_output=True, text=True, timeout=600, env=env)
+    assert done.returncode in (0, 3), done.stderr
+
+
+def test_parallel_outputs_byte_identical_to_serial(tmp_path: Path):
+    site = make_site(tmp_path / "site", extra=SMALL_GRID)
+    _run(site, tmp_path / "serial", 1)
+    _run(site, tmp_path / "parallel", 3)
+    names = sorted(p.name for p in (tmp_path / "serial").iterdir())
+    assert names == sorted(p.name for p in (tmp_path / "parallel").iterdir())
+    assert {"report.pdf", "A-elevation.dxf", "A-profile.png", "A-utilization.png"} <= set(names)
+    for name in names:
+        a = (tmp_path / "serial" / name).read_bytes()
+        b = (tmp_path / "parallel" / name).read_bytes()
+        assert a == b, f"{name} differs between a serial and a parallel run"
+
+
+def _write(path: Path, text: str) -> None:
+    path.write_text(text)
+
+
+def test_every_task_runs_once_and_times_add_up(tmp_path: Path, monkeypatch):
+    monkeypatch.setenv(WORKERS_ENV, "2")
+    tasks = [Task("a" if k % 2 else "b", lambda k=k: _write(tmp_path / f"{k}.txt", str(k)),
+                  weight=float(k)) for k in range(7)]
+    ticks = []
+    spent = run_tasks(tasks, progress=ticks.append)
+    assert sorted(p.read_text() for p in tmp_path.iterdir()) == [str(k) for k in range(7)]
+    assert len(ticks) == 7 and set(spent) == {"a", "b"}
+
+
+def _refuse() -> None:
+    raise InputError("no such layer", file="site.toml", where="[[walls]] alignment")
+
+
+@pytest.mark.parametrize("workers", ["1", "2"])
+def test_an_error_in_a_task_reaches_the_caller(monkeypatch, workers):
+    monkeypatch.setenv(WORKERS_ENV, workers)
+    tasks = [Task("x", lambda: None), Task("y", _refuse)]
+    with pytest.raises(InputError, match=r"site.toml: \[\[walls\]\] alignment: no such layer"):
+        run_tasks(tasks)
+
+
+def test_worker_count(monkeypatch):
+    monkeypatch.setenv(WORKERS_ENV, "8")
+    assert worker_count(3) == 3  # never more workers than tasks
+    monkeypatch.setenv(WORKERS_ENV, "1")
+    assert worker_count(5) == 1
+    monkeypatch.delenv(WORKERS_ENV)
+    assert 1 <= worker_count(100) <= 4
