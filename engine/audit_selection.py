@@ -4,9 +4,13 @@ The vectorized engine checks every station; the independent scalar audit
 (:mod:`.audit`) re-checks, on every segment,
 
 - its first and last station (the ends, where the footing and the top of wall step);
-- for every check, each station whose ratio is within ``near`` (5 %) of that segment's
-  largest ratio for that check — the stations that decide the design; a check whose ratio does
-  not vary along the segment is decided by every station alike and is covered by the ends;
+- for every check, the station of that segment's largest ratio for that check and the first and
+  the last station whose ratio is within ``near`` (5 %) of it — the stations that decide the
+  design and the edges of the band around them (the ratios are smooth in the station's heights,
+  so the band's inside lies between checked values; auditing every station of the band would
+  audit nearly all of them, since most checks vary by less than 5 % along a segment); a check
+  whose ratio does not vary along the segment is decided by every station alike and is covered
+  by the ends;
 - every station that fails any check, so that a failure is always confirmed;
 - a deterministic sample of ``sample`` stations spread evenly along the segment (the same
   stations on every run), which catches a disagreement away from the extremes.
@@ -23,9 +27,10 @@ NEAR_SHARE = 0.05  # within 5 % of the segment's largest ratio of a check
 SAMPLE_PER_SEGMENT = 3  # evenly spaced stations audited on every segment besides the rule
 AUDIT_RULE = (
     "the independent scalar audit re-checked, on every segment, its two end stations, every "
-    "station failing a check, every station within 5 % of a check's largest ratio on the "
-    f"segment, and {SAMPLE_PER_SEGMENT} stations spread evenly along it; the vectorized "
-    "engine checked every station")
+    "station failing a check, for every check the station of its largest ratio on the segment "
+    "and the first and last station within 5 % of that ratio, and "
+    f"{SAMPLE_PER_SEGMENT} stations spread evenly along it; the vectorized engine checked "
+    "every station")
 
 
 def audit_stations(ratios: np.ndarray, passes: np.ndarray, *, near: float = NEAR_SHARE,
@@ -51,7 +56,12 @@ def audit_stations(ratios: np.ndarray, passes: np.ndarray, *, near: float = NEAR
     r = np.where(finite, ratios, -np.inf)
     top = r.max(axis=1, keepdims=True)
     low = np.where(finite, ratios, np.inf).min(axis=1, keepdims=True)
-    varies = (top - low) > 1e-12 * np.maximum(np.abs(top), 1.0)
-    close = r >= top - near * np.abs(top)
-    pick |= (close & varies & np.isfinite(top)).any(axis=0)
+    varies = ((top - low) > 1e-12 * np.maximum(np.abs(top), 1.0)) & np.isfinite(top)
+    close = (r >= top - near * np.abs(top)) & varies
+    rows = np.flatnonzero(varies[:, 0])
+    if rows.size:
+        pick[np.argmax(r[rows], axis=1)] = True  # the largest of each check
+        band = close[rows]
+        pick[np.argmax(band, axis=1)] = True  # the first station of each band
+        pick[n - 1 - np.argmax(band[:, ::-1], axis=1)] = True  # and its last
     return np.flatnonzero(pick)

@@ -260,16 +260,9 @@ def _rows_for_segment(seg: Segment, *, fc_psi: float, fy_psi: float,
     return rows
 
 
-def segment_bar_list(seg: Segment, *, fc_psi: float = 4000.0, fy_psi: float = 60000.0,
-                     bar_stock_ft: float = BAR_STOCK_FT) -> pd.DataFrame:
-    """The ``rebar.csv`` rows of one segment (columns :data:`REBAR_COLUMNS`).
-
-    ``fc_psi``/``fy_psi`` default to 4000/60000 psi (common practice for site walls); the
-    pipeline passes the site's ``[materials]``.
-    """
-    rows = _rows_for_segment(seg, fc_psi=fc_psi, fy_psi=fy_psi, bar_stock_ft=bar_stock_ft)
+def _records(seg: Segment, **kw) -> list[dict]:
     records = []
-    for r in rows:
+    for r in _rows_for_segment(seg, **kw):
         length_ft = r.length_in / 12.0
         records.append({
             "wall": seg.wall, "segment": seg.segment, "mark": r.mark, "size": int(r.size),
@@ -277,17 +270,30 @@ def segment_bar_list(seg: Segment, *, fc_psi: float = 4000.0, fy_psi: float = 60
             "shape": r.shape,
             "weight_lb": r.count * length_ft * unit_weight_plf(r.size),  # ASTM A615 unit weight
         })
+    return records
+
+
+def _frame(records: list[dict]) -> pd.DataFrame:
     return pd.DataFrame.from_records(records, columns=REBAR_COLUMNS).astype(
         {"size": int, "count": int, "spacing_in": float, "length_ft": float, "weight_lb": float})
 
 
-def wall_bar_list(design: WallDesign, **kw) -> pd.DataFrame:
-    """Bar list of every segment of one wall, in segment order."""
-    frames = [segment_bar_list(s, **kw) for s in design.segments]
-    frames = [f for f in frames if len(f)]
-    if not frames:
-        return pd.DataFrame(columns=REBAR_COLUMNS)
-    return pd.concat(frames, ignore_index=True)
+def segment_bar_list(seg: Segment, *, fc_psi: float = 4000.0, fy_psi: float = 60000.0,
+                     bar_stock_ft: float = BAR_STOCK_FT) -> pd.DataFrame:
+    """The ``rebar.csv`` rows of one segment (columns :data:`REBAR_COLUMNS`).
+
+    ``fc_psi``/``fy_psi`` default to 4000/60000 psi (common practice for site walls); the
+    pipeline passes the site's ``[materials]``.
+    """
+    return _frame(_records(seg, fc_psi=fc_psi, fy_psi=fy_psi, bar_stock_ft=bar_stock_ft))
+
+
+def wall_bar_list(design: WallDesign, *, fc_psi: float = 4000.0, fy_psi: float = 60000.0,
+                  bar_stock_ft: float = BAR_STOCK_FT) -> pd.DataFrame:
+    """Bar list of every segment of one wall, in segment order (one frame built once)."""
+    records = [r for s in design.segments
+               for r in _records(s, fc_psi=fc_psi, fy_psi=fy_psi, bar_stock_ft=bar_stock_ft)]
+    return _frame(records)
 
 
 def site_bar_list(designs, **kw) -> pd.DataFrame:

@@ -205,19 +205,41 @@ def _quantity_totals(walls: Sequence[WallDesign]):
     return quantity_totals(pd.concat(frames, ignore_index=True))
 
 
+def _groups(items: Sequence, chunks: int) -> list[list]:
+    """``items`` cut into at most ``chunks`` runs of neighbours of about equal size."""
+    chunks = max(1, min(chunks, len(items)))
+    edges = np.linspace(0, len(items), chunks + 1).round().astype(int)
+    return [list(items[a:b]) for a, b in zip(edges[:-1], edges[1:], strict=True) if b > a]
+
+
 def design_site(walls: Sequence[WallToDesign], grid: SizingGrid, rates: CostRates, *,
-                audit: bool = True, progress=None) -> SiteDesign:
-    """Design every wall of the site (``progress(1)`` after each wall when given)."""
+                audit: bool = True, progress=None, map_fn=None, chunks: int = 1) -> SiteDesign:
+    """Design every wall of the site (``progress(n)`` as ``n`` more walls are designed).
+
+    The walls are designed in up to ``chunks`` groups of neighbouring walls (each group's
+    segments planned together, as :func:`plan_walls` does); ``map_fn(fn, groups)`` (e.g. the
+    hub's process pool) yields ``fn(group)`` for every group in order — by default in this
+    process. The result does not depend on the grouping."""
     keys, tables = design_tables(walls, grid, rates)
-    plans = plan_walls(walls, keys, tables, rates)
-    designs = []
-    for wall in walls:
-        designs.append(design_wall(wall, tables[keys[wall.wall]], rates, audit=audit,
-                                   plan=plans.get(wall.wall)))
+
+    def design_group(group: Sequence[WallToDesign]) -> list[WallDesign]:
+        plans = plan_walls(group, keys, tables, rates)
+        return [design_wall(wall, tables[keys[wall.wall]], rates, audit=audit,
+                            plan=plans.get(wall.wall)) for wall in group]
+
+    designs: list[WallDesign] = []
+    for got in (map_fn or map)(design_group, _groups(walls, chunks)):
+        designs.extend(got)
         if progress is not None:
-            progress(1)
+            progress(len(got))
     designs = assign_marks(designs)
-    out = tuple(detailed(d, wall.inputs, rates) for wall, d in zip(walls, designs, strict=True))
+    by_wall = {wall.wall: wall for wall in walls}
+
+    def detail_group(group: Sequence[WallDesign]) -> list[WallDesign]:
+        return [detailed(d, by_wall[d.wall].inputs, rates) for d in group]
+
+    out = tuple(d for got in (map_fn or map)(detail_group, _groups(designs, chunks))
+                for d in got)
     out, marked, barlist = _bar_marks(out)
     inputs = {wall.wall: wall.inputs for wall in walls}
     criteria = {wall.wall: wall.criteria for wall in walls}

@@ -97,26 +97,26 @@ def audit_stations(inputs, sec: SectionDims, h, emb, fb, res: SectionChecks, wal
             "horizontal": str(sec.horizontal_bars), "longitudinal": str(sec.footing_long_bars)}
     ratios = np.stack([np.broadcast_to(np.asarray(r.ratio, float), res.shape).reshape(-1)
                        for r in res.rows])
+    row_passes = np.stack([np.broadcast_to(np.asarray(r.passes, bool), res.shape).reshape(-1)
+                           for r in res.rows])
     passes = np.broadcast_to(np.asarray(res.passes, bool), res.shape).reshape(-1)
     chosen = select_audit_stations(ratios, passes)
+    names = res.names
     for k in chosen:
         g = dict(geo, retained_height_ft=max(float(h[k]), MIN_CHECK_HEIGHT_FT),
                  embedment_ft=float(emb[k]), freeboard_ft=float(fb[k]))
         rows = audit_section(inputs, g, bars)
-        for name in res.names:
-            if name in rows:
-                _agree(rows[name], res, name, int(k), wall, station_ft[k])
+        for c, name in enumerate(names):
+            a = rows.get(name)
+            if a is not None and a.passes != bool(row_passes[c, k]):
+                _disagree(a, name, float(ratios[c, k]), bool(row_passes[c, k]), wall,
+                          float(station_ft[k]))
     return tuple(float(station_ft[k]) for k in chosen)
 
 
-def _agree(a, res: SectionChecks, name: str, k: int, wall, station_ft: float) -> None:
-    row = res.row(name)
-    v_ok = bool(np.broadcast_to(row.passes, res.shape)[k])
-    if a.passes == v_ok:
-        return
-    r = float(np.broadcast_to(row.ratio, res.shape)[k])
+def _disagree(a, name: str, r: float, v_ok: bool, wall, station_ft: float) -> None:
+    """Raise unless the two sit on the edge (within rounding of 1.0) and may fall either side."""
     ra = a.demand / a.capacity if a.capacity else math.inf
-    # a ratio on the edge (within rounding of 1.0) may fall either side
     if not (math.isfinite(r) and abs(r - 1.0) < 1e-6 and abs(ra - 1.0) < 1e-6):
         raise DesignError(
             f"audit disagrees with the engine on wall {wall} at station "

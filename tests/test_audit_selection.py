@@ -14,8 +14,11 @@ def test_ends_sample_and_the_largest_ratio_of_each_check():
     const = np.full(n, 0.97)  # a detailing row: the same everywhere
     got = audit_stations(np.vstack([grows, peaks, const]), np.ones(n, bool), sample=3)
     assert {0, 100, 25, 50, 75, 40} <= set(got)
-    # within 5 % of the largest: h^3 >= 0.95 -> h >= 9.830 ft -> the last 4 stations
-    assert {97, 98, 99, 100} <= set(got) and 96 not in got
+    # within 5 % of the largest: h^3 >= 0.95 -> h >= 9.830 ft -> the last 4 stations; the
+    # band's first station is audited, the one before it is not
+    assert {97, 100} <= set(got) and 96 not in got
+    # the peak's band: 0.4 e^(-(d/3)^2) >= 0.4 - 0.045 -> |d| <= 1.05 -> stations 39..41
+    assert {39, 40, 41} <= set(got) and not {38, 42} & set(got)
     # the constant row adds nothing beyond the ends and the sample
     assert len(got) < 20
 

@@ -25,13 +25,24 @@ def _run(site: Path, out: Path, workers: int) -> None:
     assert done.returncode in (0, 3), done.stderr
 
 
+def _three_walls(folder: Path) -> Path:
+    site = make_site(folder, extra=SMALL_GRID)
+    text = site.read_text()
+    block = text[text.index("[[walls]]"):]
+    for wid in ("B", "C"):  # the same invented grades under two more ids
+        text += "\n" + block.replace('id = "A"', f'id = "{wid}"')
+    site.write_text(text)
+    return site
+
+
 def test_parallel_outputs_byte_identical_to_serial(tmp_path: Path):
-    site = make_site(tmp_path / "site", extra=SMALL_GRID)
+    site = _three_walls(tmp_path / "site")
     _run(site, tmp_path / "serial", 1)
     _run(site, tmp_path / "parallel", 3)
     names = sorted(p.name for p in (tmp_path / "serial").iterdir())
     assert names == sorted(p.name for p in (tmp_path / "parallel").iterdir())
-    assert {"report.pdf", "A-elevation.dxf", "A-profile.png", "A-utilization.png"} <= set(names)
+    assert {"report.pdf", "A-elevation.dxf", "C-elevation.dxf", "A-profile.png",
+            "B-utilization.png"} <= set(names)
     for name in names:
         a = (tmp_path / "serial" / name).read_bytes()
         b = (tmp_path / "parallel" / name).read_bytes()

@@ -31,6 +31,13 @@ def walls_to_design(site: Site, walls_stations: Sequence[WallStations]) -> list[
 
 def design_site(site: Site, walls_stations: Sequence[WallStations], *, audit: bool = True,
                 progress=None) -> SiteDesign:
-    """Design every wall of the site."""
-    return design_walls(walls_to_design(site, walls_stations), SizingGrid.from_table(site.sizing),
-                        CostRates.from_table(site.costs), audit=audit, progress=progress)
+    """Design every wall of the site, groups of walls side by side in worker processes
+    (``wallsched.parallel``; the result does not depend on how many)."""
+    from .parallel import fork_imap, worker_count
+
+    walls = walls_to_design(site, walls_stations)
+    workers = worker_count(len(walls))
+    return design_walls(walls, SizingGrid.from_table(site.sizing),
+                        CostRates.from_table(site.costs), audit=audit, progress=progress,
+                        map_fn=lambda fn, groups: fork_imap(fn, groups, workers=workers),
+                        chunks=1 if workers <= 1 else 2 * workers)

@@ -14,7 +14,7 @@ from __future__ import annotations
 import multiprocessing as mp
 import os
 import time
-from collections.abc import Callable, Sequence
+from collections.abc import Callable, Iterator, Sequence
 from dataclasses import dataclass
 
 WORKERS_ENV = "WALLSCHED_WORKERS"
@@ -30,7 +30,7 @@ class Task:
     weight: float = 1.0  # a rough cost, so that the longest tasks start first
 
 
-_TASKS: Sequence[Task] = ()  # the tasks of the current run, inherited by the forked workers
+_JOB: tuple = ()  # (function, items) of the current map, inherited by the forked workers
 
 
 def worker_count(n_tasks: int) -> int:
@@ -50,43 +50,56 @@ def worker_count(n_tasks: int) -> int:
     return max(1, min(want, n_tasks))
 
 
-def _run_one(k: int) -> tuple[int, float]:
+def _call(k: int):
+    fn, items = _JOB
+    return fn(items[k])
+
+
+def fork_imap(fn: Callable, items: Sequence, *, workers: int | None = None) -> Iterator:
+    """``fn(x) for x in items``, yielded in the order of ``items`` as they are done, from
+    forked worker processes where there is more than one worker. ``fn`` and ``items`` are
+    inherited by the workers (never pickled); the results come back pickled."""
+    global _JOB
+
+    n = len(items)
+    workers = worker_count(n) if workers is None else max(1, min(workers, n))
+    if workers <= 1 or "fork" not in mp.get_all_start_methods():
+        for x in items:
+            yield fn(x)
+        return
+    _JOB = (fn, items)
+    try:
+        with mp.get_context("fork").Pool(workers) as pool:
+            yield from pool.imap(_call, range(n))
+    finally:
+        _JOB = ()
+
+
+def fork_map(fn: Callable, items: Sequence, *, workers: int | None = None,
+             progress: Callable[[int], None] | None = None) -> list:
+    """``[fn(x) for x in items]`` by :func:`fork_imap`; ``progress(1)`` as each arrives."""
+    out = []
+    for r in fork_imap(fn, items, workers=workers):
+        out.append(r)
+        if progress is not None:
+            progress(1)
+    return out
+
+
+def _timed(task: Task) -> float:
     t0 = time.perf_counter()
-    _TASKS[k].run()
-    return k, time.perf_counter() - t0
+    task.run()
+    return time.perf_counter() - t0
 
 
 def run_tasks(tasks: Sequence[Task], *, progress: Callable[[int], None] | None = None
               ) -> dict[str, float]:
-    """Run every task (in parallel where it pays); returns the seconds spent per stage name.
-
-    An error in a task (an ``InputError``, say) is raised here, as a serial run would."""
-    global _TASKS
-
+    """Run every task (in parallel where it pays), the heaviest first; returns the seconds
+    spent per stage name. An error in a task (an ``InputError``, say) is raised here, as a
+    serial run would."""
     order = sorted(range(len(tasks)), key=lambda k: -tasks[k].weight)
-    workers = worker_count(len(tasks))
+    took = fork_map(_timed, [tasks[k] for k in order], progress=progress)
     spent: dict[str, float] = {}
-
-    def done(k: int, dt: float) -> None:
+    for k, dt in zip(order, took, strict=True):
         spent[tasks[k].stage] = spent.get(tasks[k].stage, 0.0) + dt
-        if progress is not None:
-            progress(1)
-
-    if workers <= 1 or "fork" not in mp.get_all_start_methods():
-        for k in order:
-            done(*_run_one_local(tasks[k], k))
-        return spent
-    _TASKS = tasks
-    try:
-        with mp.get_context("fork").Pool(workers) as pool:
-            for k, dt in pool.imap_unordered(_run_one, order):
-                done(k, dt)
-    finally:
-        _TASKS = ()
     return spent
-
-
-def _run_one_local(task: Task, k: int) -> tuple[int, float]:
-    t0 = time.perf_counter()
-    task.run()
-    return k, time.perf_counter() - t0
