@@ -82,3 +82,29 @@ def test_worker_count(monkeypatch):
     assert worker_count(5) == 1
     monkeypatch.delenv(WORKERS_ENV)
     assert 1 <= worker_count(100) <= 4
+
+
+def _nap() -> None:
+    import time
+
+    time.sleep(3.0)
+
+
+def test_sigterm_while_workers_run_stops_cleanly(monkeypatch, capfd):
+    import signal
+    import threading
+
+    from wallsched.outdir import Stopped, install_signal_handlers
+
+    monkeypatch.setenv(WORKERS_ENV, "2")
+    old = {s: signal.getsignal(s) for s in (signal.SIGTERM, signal.SIGHUP)}
+    install_signal_handlers()
+    try:
+        threading.Timer(0.5, os.kill, (os.getpid(), signal.SIGTERM)).start()
+        with pytest.raises(Stopped):
+            run_tasks([Task("x", _nap), Task("y", _nap)])
+    finally:
+        for s, h in old.items():
+            signal.signal(s, h)
+    # the workers were ended by the pool and said nothing: no traceback from a worker
+    assert "Traceback" not in capfd.readouterr().err

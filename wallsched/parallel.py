@@ -13,6 +13,7 @@ from __future__ import annotations
 
 import multiprocessing as mp
 import os
+import signal
 import time
 from collections.abc import Callable, Iterator, Sequence
 from dataclasses import dataclass
@@ -50,6 +51,16 @@ def worker_count(n_tasks: int) -> int:
     return max(1, min(want, n_tasks))
 
 
+def _worker_start() -> None:
+    """A worker leaves the run's clean-up to the parent: the default action for SIGTERM and
+    SIGHUP (the pool ends its workers with SIGTERM; the parent's handlers would unwind a stack
+    that is not the worker's), and Ctrl-C goes to the parent alone."""
+    for name in ("SIGTERM", "SIGHUP"):
+        if hasattr(signal, name):
+            signal.signal(getattr(signal, name), signal.SIG_DFL)
+    signal.signal(signal.SIGINT, signal.SIG_IGN)
+
+
 def _call(k: int):
     fn, items = _JOB
     return fn(items[k])
@@ -69,7 +80,7 @@ def fork_imap(fn: Callable, items: Sequence, *, workers: int | None = None) -> I
         return
     _JOB = (fn, items)
     try:
-        with mp.get_context("fork").Pool(workers) as pool:
+        with mp.get_context("fork").Pool(workers, initializer=_worker_start) as pool:
             yield from pool.imap(_call, range(n))
     finally:
         _JOB = ()
