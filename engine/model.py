@@ -114,6 +114,15 @@ class SectionDims:
 
 
 @dataclass(frozen=True)
+class PreviousRun:
+    """What a revision keeps of an earlier run (``--compare``): its section marks (letter ->
+    section) and its segments as (wall, segment id, first station, last station, mark)."""
+
+    marks: Mapping[str, SectionDims]
+    segments: tuple[tuple[str, str, float, float, str], ...] = ()
+
+
+@dataclass(frozen=True)
 class Joint:
     """A vertical joint in the wall at ``station_ft``: ``"contraction"`` or ``"expansion"``."""
 
@@ -182,6 +191,10 @@ class WallDesign:
     quantities: pd.DataFrame | None = None  # one row per segment (engine.quantities)
     details: Mapping[str, SectionDetail] = field(default_factory=dict)  # per section mark
     bending: pd.DataFrame | None = None  # this wall's rows of the bending schedule (its counts)
+    # the segments' objective ($: section cost per ft x length + steps) of the least-cost
+    # segments with every section of the design table, and of the segments with its marks
+    least_cost_usd: float = math.nan
+    plan_cost_usd: float = math.nan
 
     @property
     def stations_checked(self) -> int:

@@ -20,7 +20,10 @@ the segment at the least embedment its section allows, so that section holds eve
 the pipeline then re-checks every station at its own grades.
 The segment costs ``length * cost_per_ft(h_case)`` plus a step cost where its footing or top
 differs from the previous segment's. Consecutive footings may differ by at most
-``footing_step_max_ft`` (IBC 2021 1809.3: footings level, stepped where the top changes).
+``footing_step_max_ft`` (IBC 2021 1809.3: footings level, stepped where the top changes);
+bottoms of footing lie on a grid of ``bf_round_ft`` and tops of wall on one of ``top_step_in``
+(``elevation_step_ft``, 0.5 ft), and a step in either is 0 or at least ``step_min_ft`` (6 in,
+common practice: a step a crew can form).
 Segment length lies between ``segment_min_ft`` and ``segment_max_ft`` (a run shorter than the
 minimum is one segment).
 
@@ -54,12 +57,13 @@ class SegmentRules:
     embedment_ft: float  # required: max(min_embedment_ft, frost_depth_ft)
     freeboard_ft: float
     footing_step_max_ft: float = 2.0  # common practice
-    bf_round_ft: float = 0.1  # bottom of footing elevations rounded down (common practice)
+    bf_round_ft: float = 0.5  # elevation grid of the bottoms of footing (common practice)
     bf_lowering_ft: float = 0.5  # lowering steps offered to meet the step limit
     bf_lowerings: int = 1  # 1: footings at their highest; more only where steps need it
     top_of_wall: str = "stepped"  # or "follow_grade"
-    top_step_in: float = 6.0  # common practice
-    segment_min_ft: float = 10.0  # common practice
+    top_step_in: float = 6.0  # elevation grid of the tops of wall (common practice)
+    step_min_ft: float = 0.5  # a step is 0 or at least 6 in (common practice: formable)
+    segment_min_ft: float = 20.0  # common practice
     segment_max_ft: float = 90.0  # common practice: at most one expansion-joint spacing
     step_cost_usd: float = 0.0  # cost of one step in footing or top (illustrative)
 
@@ -240,6 +244,7 @@ def _solve(preps, rules, kmax):
     tw = stack("tw", np.nan, ())
     stepped_top = rules.top_of_wall == "stepped"
     step_max = rules.footing_step_max_ft + 1e-9
+    step_min = rules.step_min_ft - 1e-9
     value = np.full((R, n_max, K1, M), np.inf)
     back = np.full((R, n_max, K1, M, 2), -1, dtype=np.int32)
     back_k, back_m = back[..., 0], back[..., 1]  # views
@@ -265,12 +270,15 @@ def _solve(preps, rules, kmax):
         bf_i = np.take(bf_rows, rows, axis=0).reshape(shape + (1, K1, M))  # [R,b,k,1,k',m']
         diff = np.abs(bf_j[..., :, None, None] - bf_i)  # [R, b, k, m, k', m']
         stepped = diff > 1e-9
+        allowed = (diff <= step_max) & ~(stepped & (diff < step_min))
         if stepped_top:
             tw_i = np.take(tw_rows, rows, axis=0).reshape(shape + (K1,))
-            t_step = np.abs(tw[:, jb, 1:][..., None] - tw_i) > 1e-9  # [R, b, k, k']
+            t_diff = np.abs(tw[:, jb, 1:][..., None] - tw_i)  # [R, b, k, k']
+            t_step = t_diff > 1e-9
             stepped = stepped | t_step[..., None, :, None]
+            allowed &= ~(t_step & (t_diff < step_min))[..., None, :, None]
         with np.errstate(invalid="ignore"):
-            pen = np.where(diff <= step_max, rules.step_cost_usd * stepped, np.inf)
+            pen = np.where(allowed, rules.step_cost_usd * stepped, np.inf)
         prev = np.take(value_rows, rows, axis=0).reshape(shape + (1, K1 * M))
         flat = prev + pen.reshape(shape + (M, K1 * M))  # [R, b, k, m, (k', m')]
         best = np.argmin(flat, axis=-1)  # [R, b, k, m]
@@ -312,7 +320,7 @@ def _trace(prep, final, back) -> SegmentPlan:
 def place_joints(start_ft: float, end_ft: float, boundaries: list[tuple[float, bool]],
                  contraction_max_ft: float = 30.0, expansion_max_ft: float = 90.0):
     """Joint stations along a wall: every segment boundary is a joint (an expansion joint where
-    the footing or top steps), contraction joints evenly at most ``contraction_max_ft`` apart
+    the footing steps), contraction joints evenly at most ``contraction_max_ft`` apart
     between them, and a contraction joint upgraded to an expansion joint wherever the distance
     from the last expansion joint would exceed ``expansion_max_ft`` (common practice).
 

@@ -11,7 +11,7 @@ and their audit from ``engine.wall_design``.
 from __future__ import annotations
 
 import math
-from collections.abc import Sequence
+from collections.abc import Mapping, Sequence
 from dataclasses import replace
 
 import numpy as np
@@ -19,11 +19,11 @@ import numpy as np
 from .audit_selection import AUDIT_RULE
 from .checks import LOAD_FACTORS
 from .governing import governing_cases
-from .model import SiteDesign, StationSeries, WallDesign
+from .model import PreviousRun, SiteDesign, StationSeries, WallDesign
 from .section import DesignInputs
 from .segments import plan_segments_many
 from .sizing import CostRates, DesignTable, SizingGrid, design_table
-from .wall_design import WallToDesign, design_wall, segment_rules, wall_run
+from .wall_design import WallToDesign, design_wall, lowering_ft, segment_rules, wall_run
 
 
 def least_embedment_ft(crit) -> float:
@@ -36,17 +36,47 @@ def _table_key(inputs: DesignInputs, crit, emb, fb, top):
             crit.get("footing_width_max_ft"))
 
 
-def assign_marks(walls: list[WallDesign]) -> list[WallDesign]:
-    """Section marks A, B, ... site-wide, one per distinct section, in order of first use."""
-    marks: dict[tuple, str] = {}
+def mark_name(i: int) -> str:
+    """The ``i``-th mark letter: A .. Z, AA, AB, ..."""
+    out = ""
+    i += 1
+    while i:
+        i, r = divmod(i - 1, 26)
+        out = chr(65 + r) + out
+    return out
 
-    def name(i: int) -> str:
-        out = ""
-        i += 1
-        while i:
-            i, r = divmod(i - 1, 26)
-            out = chr(65 + r) + out
-        return out
+
+def mark_index(name: str) -> int:
+    """The inverse of :func:`mark_name` (-1 for a name that is not a mark letter)."""
+    if not name or not name.isalpha() or not name.isupper():
+        return -1
+    i = 0
+    for ch in name:
+        i = i * 26 + (ord(ch) - 64)
+    return i - 1
+
+
+def assign_marks(walls: list[WallDesign], previous: PreviousRun | None = None
+                 ) -> list[WallDesign]:
+    """Section marks A, B, ... site-wide, one per distinct section, in order of first use.
+    With ``previous`` (a revision), a section identical to one of the earlier run keeps its
+    letter and a new section takes a letter after every earlier one; a segment with the same
+    stations and mark as one of the earlier run keeps its id, another takes a number after the
+    wall's earlier ones."""
+    marks: dict[tuple, str] = {}
+    next_i = 0
+    if previous is not None:
+        for letter, sec in previous.marks.items():
+            marks.setdefault(sec.signature(), letter)
+            next_i = max(next_i, mark_index(letter) + 1)
+    taken = set(marks.values())
+
+    def new_letter() -> str:
+        nonlocal next_i
+        while mark_name(next_i) in taken:
+            next_i += 1
+        taken.add(mark_name(next_i))
+        return mark_name(next_i)
 
     result = []
     for w in walls:
@@ -57,10 +87,32 @@ def assign_marks(walls: list[WallDesign]) -> list[WallDesign]:
                 continue
             sig = s.section.signature()
             if sig not in marks:
-                marks[sig] = name(len(marks))
+                marks[sig] = new_letter()
             segs.append(replace(s, mark=marks[sig]))
+        if previous is not None:
+            segs = _keep_segment_ids(w.wall, segs, previous)
         result.append(replace(w, segments=tuple(segs)))
     return result
+
+
+def _keep_segment_ids(wall: str, segs, previous: PreviousRun):
+    old = {(round(a, 3), round(b, 3), m): sid for w, sid, a, b, m in previous.segments
+           if w == wall}
+    used = {sid for w, sid, _, _, _ in previous.segments if w == wall}
+    nums = [int(sid.rsplit("-", 1)[1]) for sid in used
+            if "-" in sid and sid.rsplit("-", 1)[1].isdigit()]
+    nxt = max(nums, default=0) + 1
+    out, mine = [], set()
+    for s in segs:
+        sid = old.get((round(s.station_start_ft, 3), round(s.station_end_ft, 3), s.mark))
+        if sid is None or sid in mine:
+            while f"{wall}-{nxt:02d}" in used:
+                nxt += 1
+            sid = f"{wall}-{nxt:02d}"
+            nxt += 1
+        mine.add(sid)
+        out.append(replace(s, segment=sid))
+    return out
 
 
 def segment_cost(seg, rates: CostRates, front_grade_avg_ft: float) -> float:
@@ -82,7 +134,7 @@ def needed_height_ft(ws: StationSeries, c) -> float:
     retained grade less the least front grade over any stretch of ``segment_max_ft``, plus
     the footing lowering and rounding the segments may add; at most the height limit plus 2 ft
     (beyond it every station is flagged anyway)."""
-    from .segments import LOWERINGS_STEEP, SegmentRules, window_extremes
+    from .segments import LOWERINGS_STEEP, window_extremes
 
     s = ws.station_ft
     if s.size < 2:
@@ -94,8 +146,8 @@ def needed_height_ft(ws: StationSeries, c) -> float:
     k = np.arange(kmax + 1)[None, :]
     ok = k <= (np.arange(s.size) - first)[:, None]
     span = np.nanmax(np.where(ok, rg - fg, -np.inf))
-    margin = (LOWERINGS_STEEP - 1) * SegmentRules.bf_lowering_ft + c[
-        "bottom_of_footing_round_ft"] + c["design_height_increment_ft"]
+    margin = (LOWERINGS_STEEP - 1) * lowering_ft(c) + c["elevation_step_ft"] + c[
+        "design_height_increment_ft"]
     return float(min(max(span, 0.0) + margin, c["max_retained_height_ft"] + 2.0))
 
 
@@ -124,22 +176,66 @@ def design_tables(walls: Sequence[WallToDesign], grid: SizingGrid,
     return keys, tables
 
 
-def plan_walls(walls: Sequence[WallToDesign], keys, tables, rates: CostRates) -> dict:
-    """The segments of the walls sharing a design table and rules, planned together."""
+def plan_walls(walls: Sequence[WallToDesign], table_of: Mapping[str, DesignTable],
+               rates: CostRates) -> dict:
+    """The segments of the walls sharing a design table and rules, planned together
+    (``table_of``: wall id -> its design table)."""
     groups: dict = {}
     for wall in walls:
         run = wall_run(wall.stations, wall.criteria)
         if run is not None:
-            gk = (keys[wall.wall], segment_rules(wall.criteria, rates))
+            gk = (id(table_of[wall.wall]), segment_rules(wall.criteria, rates))
             groups.setdefault(gk, []).append((wall.wall, wall.stations, run))
     plans = {}
-    for (key, rules), members in groups.items():
-        table = tables[key]
+    for (_, rules), members in groups.items():
+        table = table_of[members[0][0]]
         got = plan_segments_many(
             [(ws.station_ft[run], ws.retained_grade_ft[run], ws.front_grade_ft[run])
              for _, ws, run in members], rules, table.cost_per_ft, table.embedment_of)
         plans.update({wid: p for (wid, _, _), p in zip(members, got, strict=True)})
     return plans
+
+
+def row_weights(plan, station_ft: np.ndarray, table: DesignTable) -> np.ndarray:
+    """ft of wall the plan puts at each row of the design table."""
+    w = np.zeros(len(table.choices))
+    length = station_ft[plan.end_index] - station_ft[plan.start_index]
+    rows = table.index(plan.design_height_ft)
+    for r, L in zip(rows, length, strict=True):
+        if r >= 0:
+            w[int(r)] += float(L)
+    return w
+
+
+def marked_tables(walls: Sequence[WallToDesign], keys, tables, plans, grid: SizingGrid,
+                  rates: CostRates, previous: PreviousRun | None = None
+                  ) -> dict[str, DesignTable]:
+    """Wall id -> its design table restricted to at most ``grid.marks_max`` sections chosen
+    for the wall's least-cost segments (``grid.marks_per = "site"``: one choice for the walls
+    sharing a design table); with ``previous``, the earlier run's sections first."""
+    from .marks import marked_table
+
+    members: dict = {}
+    for wall in walls:
+        group = keys[wall.wall] if grid.marks_per == "site" else ("wall", wall.wall)
+        members.setdefault(group, []).append(wall)
+    out = {}
+    for group_walls in members.values():
+        key = keys[group_walls[0].wall]
+        table = tables[key]
+        weight = np.zeros(len(table.choices))
+        for wall in group_walls:
+            plan = plans.get(wall.wall)
+            if plan is not None:
+                run = wall_run(wall.stations, wall.criteria)
+                weight += row_weights(plan, wall.stations.station_ft[run], table)
+        old = () if previous is None else tuple(
+            replace(sec, batter_face=group_walls[0].inputs.batter_face)
+            for sec in previous.marks.values())
+        marked, _ = marked_table(table, group_walls[0].inputs, rates, weight, grid.marks_max,
+                                 rates.mark_usd, previous=old)
+        out.update({wall.wall: marked for wall in group_walls})
+    return out
 
 
 def detailed(design: WallDesign, inputs: DesignInputs, rates: CostRates | None = None
@@ -213,26 +309,49 @@ def _groups(items: Sequence, chunks: int) -> list[list]:
 
 
 def design_site(walls: Sequence[WallToDesign], grid: SizingGrid, rates: CostRates, *,
-                audit: bool = True, progress=None, map_fn=None, chunks: int = 1) -> SiteDesign:
+                audit: bool = True, progress=None, map_fn=None, chunks: int = 1,
+                previous: PreviousRun | None = None) -> SiteDesign:
     """Design every wall of the site (``progress(n)`` as ``n`` more walls are designed).
 
     The walls are designed in up to ``chunks`` groups of neighbouring walls (each group's
     segments planned together, as :func:`plan_walls` does); ``map_fn(fn, groups)`` (e.g. the
     hub's process pool) yields ``fn(group)`` for every group in order — by default in this
-    process. The result does not depend on the grouping."""
+    process. The result does not depend on the grouping. Each wall's segments are planned
+    with the whole design table, its marks chosen (:func:`marked_tables`; for
+    ``marks_per = "site"`` over every wall first, in this process) and its segments planned
+    again with them. With ``previous`` (a revision of an earlier run) its sections, mark
+    letters and segment ids are kept where they still serve."""
     keys, tables = design_tables(walls, grid, rates)
+    base = {w.wall: tables[keys[w.wall]] for w in walls}
+    site_marks = None
+    if grid.marks_per == "site":
+        least_all = plan_walls(walls, base, rates)
+        site_marks = (least_all, marked_tables(walls, keys, tables, least_all, grid, rates,
+                                               previous))
 
     def design_group(group: Sequence[WallToDesign]) -> list[WallDesign]:
-        plans = plan_walls(group, keys, tables, rates)
-        return [design_wall(wall, tables[keys[wall.wall]], rates, audit=audit,
-                            plan=plans.get(wall.wall)) for wall in group]
+        if site_marks is None:
+            least = plan_walls(group, base, rates)
+            table_of = marked_tables(group, keys, tables, least, grid, rates, previous)
+        else:
+            least, table_of = site_marks
+        plans = plan_walls(group, table_of, rates)
+        out = []
+        for wall in group:
+            d = design_wall(wall, table_of[wall.wall], rates, audit=audit,
+                            plan=plans.get(wall.wall))
+            if wall.wall in plans:
+                d = replace(d, least_cost_usd=least[wall.wall].total_cost_usd,
+                            plan_cost_usd=plans[wall.wall].total_cost_usd)
+            out.append(d)
+        return out
 
     designs: list[WallDesign] = []
     for got in (map_fn or map)(design_group, _groups(walls, chunks)):
         designs.extend(got)
         if progress is not None:
             progress(len(got))
-    designs = assign_marks(designs)
+    designs = assign_marks(designs, previous)
     by_wall = {wall.wall: wall for wall in walls}
 
     def detail_group(group: Sequence[WallDesign]) -> list[WallDesign]:

@@ -61,6 +61,8 @@ from .strength import (
 )
 
 CY_FT3 = 27.0
+# bar spacings a detailer uses, in (common practice: 4-in steps to 12 in, 15, 16, 18)
+STANDARD_SPACINGS_IN = (4.0, 6.0, 8.0, 9.0, 10.0, 12.0, 15.0, 16.0, 18.0)
 BLOCK = 4096  # geometries evaluated at once in the branch and bound
 
 
@@ -93,6 +95,7 @@ class CostRates:
     excavation_usd_per_cy: float = 30.0
     formwork_usd_per_sf: float = 12.0
     step_usd: float = 500.0
+    mark_usd: float = 1000.0
 
     @classmethod
     def from_table(cls, t: Mapping) -> CostRates:
@@ -111,13 +114,16 @@ class SizingGrid:
     stem_batter: bool
     bar_sizes: np.ndarray
     bar_spacings_in: np.ndarray
+    marks_max: int = 6  # sections per wall (or site) chosen from the design table
+    marks_per: str = "wall"  # or "site"
 
     @classmethod
     def from_table(cls, t: Mapping) -> SizingGrid:
         st = float(t.get("toe_heel_step_in", 3.0)) / 12.0
         smin = float(t.get("stem_min_in", 8.0))
         return cls(
-            toe_ft=_steps(0.0, float(t.get("toe_max_ft", 8.0)), st),
+            toe_ft=_steps(min(float(t.get("toe_min_ft", 1.0)), float(t.get("toe_max_ft", 8.0))),
+                          float(t.get("toe_max_ft", 8.0)), st),
             heel_ft=_steps(st * 2, float(t.get("heel_max_ft", 14.0)), st),
             footing_thickness_in=_steps(float(t.get("footing_thickness_min_in", 12.0)),
                                         float(t.get("footing_thickness_max_in", 48.0)),
@@ -127,9 +133,10 @@ class SizingGrid:
             stem_top_min_in=smin,
             stem_batter=bool(t.get("stem_batter", False)),
             bar_sizes=parse_sizes(t.get("bar_sizes", "4-9")),
-            bar_spacings_in=_steps(float(t.get("bar_spacing_min_in", 6.0)),
-                                   float(t.get("bar_spacing_max_in", 18.0)),
-                                   float(t.get("bar_spacing_step_in", 1.0))),
+            bar_spacings_in=np.array(sorted(set(float(x) for x in t.get(
+                "bar_spacings_in", STANDARD_SPACINGS_IN)))),
+            marks_max=int(t.get("marks_max", 6)),
+            marks_per=str(t.get("marks_per", "wall")),
         )
 
     def geometries(self) -> Geometries:
@@ -156,6 +163,7 @@ class Geometries:
         self.shape = (nt, nh, nT, nS)
         self.nt, self.ncol, self.size = nt, nh * nT * nS, nt * nh * nT * nS
         self.toe_axis = np.asarray(grid.toe_ft, float)
+        self.spacings_in = np.asarray(grid.bar_spacings_in, float)  # for the fixed bars
         i_h, i_T, i_S = (a.ravel() for a in np.meshgrid(np.arange(nh), np.arange(nT),
                                                          np.arange(nS), indexing="ij"))
         tb = grid.stem_base_in[i_S]
@@ -199,36 +207,48 @@ class Geometries:
 
 
 # ------------------------------------------------------------------------------ costs --
-def minimum_bars(required_in2, layers, s_max_in, sizes=(4, 5, 6)):
-    """The lightest of #4/#5/#6 at a whole-inch spacing <= s_max giving ``required_in2`` per
-    foot over ``layers`` layers (for stem horizontal and footing longitudinal bars)."""
+def minimum_bars(required_in2, layers, s_max_in, sizes=(4, 5, 6), spacings_in=None):
+    """The lightest of #4/#5/#6 at a spacing <= s_max giving ``required_in2`` per foot over
+    ``layers`` layers (for stem horizontal and footing longitudinal bars): a spacing of
+    ``spacings_in`` (the standard spacings of ``[sizing] bar_spacings_in``), or a whole inch
+    of at least 3 where none is given or none of them fits."""
     req = np.asarray(required_in2, float)
     smax = np.floor(np.asarray(s_max_in, float) + 1e-9)
     best_size = np.zeros(req.shape, int)
     best_sp = np.zeros(req.shape)
     best_w = np.full(req.shape, np.inf)
+    listed = None if spacings_in is None else np.sort(np.asarray(spacings_in, float))
     for s in sizes:
         a = float(bar_area_in2(s))
         sp = np.minimum(np.floor(layers * a * 12.0 / np.maximum(req, 1e-12) + 1e-9), smax)
+        ok = sp >= 3.0
+        if listed is not None:  # the widest standard spacing within the limit
+            at = np.searchsorted(listed, sp + 1e-9, side="right") - 1
+            std = at >= 0
+            sp = np.where(std, listed[np.clip(at, 0, None)], sp)
+            ok = std
         w = layers * 12.0 / np.maximum(sp, 1.0) * float(bar_weight_plf(s))
-        better = (sp >= 3.0) & (w < best_w - 1e-12)
+        better = ok & (w < best_w - 1e-12)
         best_size = np.where(better, s, best_size)
         best_sp = np.where(better, sp, best_sp)
         best_w = np.where(better, w, best_w)
     return best_size, best_sp
 
 
-def fixed_bars(geom: SectionGeometry, inputs: DesignInputs):
-    """Stem horizontal (2 faces) and footing longitudinal (2 mats) bars of each geometry."""
+def fixed_bars(geom: SectionGeometry, inputs: DesignInputs, spacings_in=None):
+    """Stem horizontal (2 faces) and footing longitudinal (2 mats) bars of each geometry, at
+    the standard spacings ``spacings_in`` where given."""
     t_avg = (geom.stem_top_in + geom.stem_base_in) / 2.0
     h_size, h_sp = minimum_bars(wall_horizontal_min_in2(t_avg, 4, inputs.fy_psi), 2,
-                                max_flexural_spacing_in(geom.stem_top_in), sizes=(4, 5))
+                                max_flexural_spacing_in(geom.stem_top_in), sizes=(4, 5),
+                                spacings_in=spacings_in)
     # a #5 or larger needs the 0.0025 ratio of Table 11.6.1: recheck with the size found
     h_req = wall_horizontal_min_in2(t_avg, h_size, inputs.fy_psi)
     h_size, h_sp = minimum_bars(h_req, 2, max_flexural_spacing_in(geom.stem_top_in),
-                                sizes=(4, 5))
+                                sizes=(4, 5), spacings_in=spacings_in)
     T = geom.footing_thickness_in
-    l_size, l_sp = minimum_bars(shrinkage_steel_in2(T), 2, shrinkage_spacing_in(T))
+    l_size, l_sp = minimum_bars(shrinkage_steel_in2(T), 2, shrinkage_spacing_in(T),
+                                spacings_in=spacings_in)
     return BarArrays(h_size, h_sp), BarArrays(l_size, l_sp)
 
 
@@ -298,7 +318,7 @@ def precompute(g: Geometries, inputs: DesignInputs, rates: CostRates, emb: float
         geo = axes_geometry(g, 1.0, emb, 0.0, toes)
         T = geo.footing_thickness_ft
         B = geo.footing_width_ft
-        horiz, longi = fixed_bars(geo, inputs)
+        horiz, longi = fixed_bars(geo, inputs, g.spacings_in)
         w_h = 2.0 * 12.0 / horiz.spacing_in * bar_weight_plf(horiz.size)  # lb/ft per ft of stem
         w_l = 2.0 * 12.0 / longi.spacing_in * bar_weight_plf(longi.size)  # lb/ft per ft of width
         t_avg_ft = (geo.stem_top_in + geo.stem_base_in) / 24.0
@@ -623,7 +643,7 @@ def section_from(g, gi, bars: BarArrays, si, hi, ti, inputs, h, emb, fb) -> Sect
     from .bars import BarSpec
 
     geo = grid_geometry(g, np.array([gi]), h, emb, fb)
-    horiz, longi = fixed_bars(geo, inputs)
+    horiz, longi = fixed_bars(geo, inputs, g.spacings_in)
 
     def spec(b, i):
         return BarSpec(int(b.size[i]), float(b.spacing_in[i]))
@@ -751,7 +771,7 @@ def exhaustive_optimum(inputs: DesignInputs, grid: SizingGrid, rates: CostRates,
                                  indexing="ij")
     gi, si, hi, ti = gi.ravel(), si.ravel(), hi.ravel(), ti.ravel()
     geo = grid_geometry(g, gi, h, emb, fb)
-    horiz, longi = fixed_bars(geo, inputs)
+    horiz, longi = fixed_bars(geo, inputs, g.spacings_in)
 
     def sel(i):
         return BarArrays(bars.size[i], bars.spacing_in[i])

@@ -42,13 +42,20 @@ class WallToDesign:
     stations: StationSeries
 
 
+def lowering_ft(crit) -> float:
+    """The footing lowering offered on steep ground: 0.5 ft, on the elevation grid."""
+    step = crit["elevation_step_ft"]
+    return step * math.ceil(0.5 / step - 1e-9)
+
+
 def segment_rules(crit, rates: CostRates) -> SegmentRules:
     emb = max(crit["min_embedment_ft"], crit.get("frost_depth_ft") or 0.0)
     return SegmentRules(
         embedment_ft=emb, freeboard_ft=crit["freeboard_ft"],
         footing_step_max_ft=crit["footing_step_max_ft"],
-        bf_round_ft=crit["bottom_of_footing_round_ft"],
-        top_of_wall=crit["top_of_wall"], top_step_in=crit["top_step_in"],
+        bf_round_ft=crit["elevation_step_ft"], bf_lowering_ft=lowering_ft(crit),
+        top_of_wall=crit["top_of_wall"], top_step_in=crit["elevation_step_ft"] * 12.0,
+        step_min_ft=crit["step_min_in"] / 12.0,
         segment_min_ft=crit["segment_min_ft"], segment_max_ft=crit["segment_max_ft"],
         step_cost_usd=rates.step_usd)
 
@@ -125,6 +132,11 @@ def _disagree(a, name: str, r: float, v_ok: bool, wall, station_ft: float) -> No
             f"{a.capacity:.6g} ({'pass' if a.passes else 'fail'})")
 
 
+def _same_section(table: DesignTable, h1: float, h2: float) -> bool:
+    a, b = table.section(h1), table.section(h2)
+    return a is not None and b is not None and a.signature() == b.signature()
+
+
 def merge_identical(plan, run, station_ft, table: DesignTable, segment_max_ft: float):
     """The plan's segments as (first station, last station, BF, TW, design height), with
     neighbours that came out identical (same section, footing and top: a boundary without a
@@ -139,7 +151,7 @@ def merge_identical(plan, run, station_ft, table: DesignTable, segment_max_ft: f
             p = out[-1]
             same_top = (math.isnan(tw) and math.isnan(p[3])) or abs(tw - p[3]) < 1e-9
             if (abs(bf - p[2]) < 1e-9 and same_top
-                    and int(table.index(hc)) == int(table.index(p[4]))
+                    and _same_section(table, hc, p[4])
                     and station_ft[i1] - station_ft[p[0]] <= segment_max_ft + 1e-9):
                 p[1], p[4] = i1, max(p[4], hc)
                 continue
@@ -276,10 +288,9 @@ def _design_segment(wall: WallToDesign, table: DesignTable, q, piece, last: bool
 def _joints(segments: list[Segment], c) -> tuple[Joint, ...]:
     boundaries = []
     for a, b in zip(segments[:-1], segments[1:], strict=True):
-        step = (abs(a.bottom_of_footing_ft - b.bottom_of_footing_ft) > 1e-9
-                or (c["top_of_wall"] == "stepped" and abs(a.top_of_wall_ft - b.top_of_wall_ft)
-                    > 1e-9))
-        boundaries.append((b.station_start_ft, step))
+        # an expansion joint where the footing changes level (common practice)
+        boundaries.append((b.station_start_ft,
+                           abs(a.bottom_of_footing_ft - b.bottom_of_footing_ft) > 1e-9))
     joints = place_joints(segments[0].station_start_ft, segments[-1].station_end_ft, boundaries,
                           c["contraction_joint_max_ft"], c["expansion_joint_max_ft"])
     return tuple(Joint(st, k) for st, k in joints)

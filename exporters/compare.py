@@ -147,6 +147,7 @@ FIELDS: tuple[Field, ...] = (
       for n in ("stem_bars", "heel_bars", "toe_bars", "horizontal_bars")),
     Field("concrete_cy", "quantity", "qty"),
     Field("steel_lb", "quantity", "qty"),
+    Field("mark", "mark", "text"),
     Field("status", "status", "text"),
 )
 REQUIRED_COLUMNS = ("wall", "segment", "station_start_ft", "station_end_ft")
@@ -253,7 +254,7 @@ def _numeric(frame, column: str, path: Path):
     return values.astype(float)
 
 
-SCHEDULE_TEXT = ("wall", "segment", "status", *(f.name for f in FIELDS if f.kind == "bar"))
+SCHEDULE_TEXT = ("wall", "segment", *(f.name for f in FIELDS if f.kind in ("bar", "text")))
 
 
 def read_schedule(path: Path):

@@ -218,6 +218,10 @@ def run_record(run, sd, schedule: pd.DataFrame) -> dict:
             "audit": {"stations_checked": w.stations_checked,
                       "stations_audited": w.stations_audited,
                       "rule": sd.audit_rule},
+            "marks": sorted({s.mark for s in w.segments if s.mark}),
+            # the segments' objective with at most marks_max marks, and the least cost with
+            # every section of the design table (no mark rule)
+            "plan_cost_usd": w.plan_cost_usd, "least_cost_usd": w.least_cost_usd,
             "segments": [{k: _jsonable(v) for k, v in s.items()} for s in segs],
         })
     return {

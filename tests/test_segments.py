@@ -51,6 +51,11 @@ def brute_force(s, rg, fg, rules):
                     if abs(bf - prev_bf) > rules.footing_step_max_ft + 1e-9:
                         total = math.inf
                         break
+                    # a step is 0 or at least step_min_ft, in the footing and in the top
+                    if any(1e-9 < abs(x - y) < rules.step_min_ft - 1e-9
+                           for x, y in ((bf, prev_bf), (tw, prev_tw))):
+                        total = math.inf
+                        break
                     if abs(bf - prev_bf) > 1e-9 or abs(tw - prev_tw) > 1e-9:
                         total += rules.step_cost_usd
                 total += c * (s[j] - s[i])
@@ -61,14 +66,17 @@ def brute_force(s, rg, fg, rules):
 
 @settings(max_examples=40, deadline=None)
 @given(st.lists(st.floats(-3, 3), min_size=8, max_size=9), st.lists(st.floats(-1, 1),
-       min_size=8, max_size=9), st.sampled_from([0.0, 300.0]))
-def test_dynamic_programme_equals_brute_force(drg, dfg, step_cost):
+       min_size=8, max_size=9), st.sampled_from([0.0, 300.0]),
+       st.sampled_from([(0.5, 6.0, 0.5), (0.1, 3.0, 0.5), (0.1, 6.0, 0.0)]))
+def test_dynamic_programme_equals_brute_force(drg, dfg, step_cost, grid):
     n = min(len(drg), len(dfg))
     s = np.arange(n) * 5.0
     fg = 100 + np.cumsum(dfg[:n])
     rg = fg + 4 + np.abs(np.cumsum(drg[:n]))
+    bf_round, top_step, step_min = grid  # elevation grids finer than the least step, too
     rules = SegmentRules(embedment_ft=1.5, freeboard_ft=0.5, segment_min_ft=10,
-                         segment_max_ft=25, step_cost_usd=step_cost, bf_lowerings=3)
+                         segment_max_ft=25, step_cost_usd=step_cost, bf_lowerings=3,
+                         bf_round_ft=bf_round, top_step_in=top_step, step_min_ft=step_min)
     plan = plan_segments(s, rg, fg, rules, cost_table)
     assert plan.total_cost_usd == pytest.approx(brute_force(s, rg, fg, rules), rel=1e-9)
     # cover every station once: segments chain end to start from the first to the last

@@ -18,7 +18,8 @@ def _warn(quiet: bool):
 @click.option("--out", "out_dir", required=True, type=click.Path(file_okay=False, path_type=Path),
               help="Output folder (written atomically; an old one is kept as DIR.prev).")
 @click.option("--compare", "compare_dir", type=click.Path(file_okay=False, path_type=Path),
-              help="An earlier run folder: also write the diff against it.")
+              help="An earlier run folder: keep its sections, mark letters and segment ids "
+                   "where they still serve, and write the diff against it.")
 @click.option("--replace", is_flag=True, help="Replace the output folder instead of keeping .prev.")
 @click.option("--no-drawings", is_flag=True, help="Skip the DXF drawings and the plots.")
 @click.option("-q", "--quiet", is_flag=True, help="Print nothing but errors.")
@@ -30,7 +31,7 @@ def design(ctx, site_file: Path, out_dir: Path, compare_dir: Path | None, replac
     Exit 0 when every segment passes every check, 3 when outputs were written but some
     stretch could not be designed within the limits (see the status column).
     """
-    from .design import design_site
+    from .design import design_site, previous_run
     from .guardrails import site_warnings
     from .outdir import claim_output, staged_output
     from .pipeline import collect_warnings, site_stations, write_design
@@ -49,9 +50,10 @@ def design(ctx, site_file: Path, out_dir: Path, compare_dir: Path | None, replac
         if not (compare_dir / "schedule.csv").is_file():
             raise InputError("is not a wallsched run folder (no schedule.csv)", file=compare_dir,
                              where="--compare")
+    previous = None if compare_dir is None else previous_run(compare_dir)
     n = sum(len(w) for w in walls)
     with stages.items("designing", len(walls), f"walls ({n} stations)") as tick:
-        sd = design_site(site, walls, progress=tick)
+        sd = design_site(site, walls, progress=tick, previous=previous)
     sd.warnings.extend(warns)
     sd.warnings.extend(site_warnings(site, walls))
     with staged_output(out_dir, replace=replace, protect=site.input_files(),

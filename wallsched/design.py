@@ -4,8 +4,9 @@ wall's inputs, criteria and stations as the engine takes them, the sizing grid a
 from __future__ import annotations
 
 from collections.abc import Sequence
+from pathlib import Path
 
-from .engine.model import SiteDesign
+from .engine.model import PreviousRun, SiteDesign
 from .engine.section import DesignInputs
 from .engine.site_design import design_site as design_walls
 from .engine.sizing import CostRates, SizingGrid
@@ -29,10 +30,55 @@ def walls_to_design(site: Site, walls_stations: Sequence[WallStations]) -> list[
             for w, ws in zip(site.walls, walls_stations, strict=True)]
 
 
+SECTION_COLUMNS = ("stem_top_in", "stem_base_in", "footing_thickness_in", "toe_ft", "heel_ft",
+                   "key_width_in", "key_depth_in", "key_offset_ft")
+BAR_COLUMNS = ("stem_bars", "heel_bars", "toe_bars", "horizontal_bars", "footing_long_bars")
+
+
+def previous_run(folder: Path) -> PreviousRun | None:
+    """The section marks and segments of an earlier run folder (its ``schedule.csv``), for a
+    revision that keeps them; None for a run without marks."""
+    import math
+
+    import pandas as pd
+
+    from .engine.bars import parse_bars
+    from .engine.model import SectionDims
+
+    path = folder / "schedule.csv"
+    try:
+        frame = pd.read_csv(path, dtype={"mark": str, "segment": str, "wall": str})
+    except (OSError, ValueError, pd.errors.ParserError) as exc:
+        raise InputError(f"cannot be read as a schedule ({exc})", file=path,
+                         where="--compare") from None
+    need = {"wall", "segment", "mark", "station_start_ft", "station_end_ft", *SECTION_COLUMNS,
+            *BAR_COLUMNS}
+    if not need <= set(frame.columns):
+        return None
+    marks: dict = {}
+    segments = []
+    for r in frame.itertuples(index=False):
+        if not isinstance(r.mark, str) or not r.mark.strip():
+            continue
+        try:
+            dims = {c: float(getattr(r, c)) for c in SECTION_COLUMNS}
+            bars = {c: parse_bars(str(getattr(r, c))) for c in BAR_COLUMNS}
+        except ValueError:
+            continue  # a segment without a section (failing): nothing to keep
+        if not all(math.isfinite(v) for v in dims.values()):
+            continue
+        sec = SectionDims(**dims, footing_long_bars=bars.pop("footing_long_bars"), **bars)
+        marks.setdefault(r.mark, sec)
+        segments.append((str(r.wall), str(r.segment), float(r.station_start_ft),
+                         float(r.station_end_ft), r.mark))
+    return PreviousRun(marks=marks, segments=tuple(segments)) if marks else None
+
+
 def design_site(site: Site, walls_stations: Sequence[WallStations], *, audit: bool = True,
-                progress=None) -> SiteDesign:
+                progress=None, previous: PreviousRun | None = None) -> SiteDesign:
     """Design every wall of the site, groups of walls side by side in worker processes
-    (``wallsched.parallel``; the result does not depend on how many)."""
+    (``wallsched.parallel``; the result does not depend on how many); ``previous``: an
+    earlier run this one revises."""
     from .parallel import fork_imap, worker_count
 
     walls = walls_to_design(site, walls_stations)
@@ -40,4 +86,4 @@ def design_site(site: Site, walls_stations: Sequence[WallStations], *, audit: bo
     return design_walls(walls, SizingGrid.from_table(site.sizing),
                         CostRates.from_table(site.costs), audit=audit, progress=progress,
                         map_fn=lambda fn, groups: fork_imap(fn, groups, workers=workers),
-                        chunks=1 if workers <= 1 else 2 * workers)
+                        chunks=1 if workers <= 1 else 2 * workers, previous=previous)

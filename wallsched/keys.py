@@ -125,17 +125,26 @@ CRITERIA_KEYS = {
     # constructible segments (engine/segments.py)
     "footing_step_max_ft": Key(float, 2.0, lo=0.1, hi=10,
                                doc="largest step between footings, ft (common practice)"),
-    "bottom_of_footing_round_ft": Key(float, 0.1, lo=0.01, hi=2,
-                                      doc="bottom of footing elevations rounded down, ft"),
+    "elevation_step_ft": Key(float, 0.5, lo=0.05, hi=2,
+                             doc="bottoms of footing (rounded down) and tops of wall (rounded "
+                                 "up) on this elevation grid, ft (common practice)"),
+    "step_min_in": Key(float, 6.0, lo=0, hi=48,
+                       doc="a step in footing or top is 0 or at least this, in (common "
+                           "practice: a step a crew can form)"),
     "top_of_wall": Key(str, "stepped", choices=("stepped", "follow_grade"),
                        doc="top of wall level per segment, or following the grade"),
-    "top_step_in": Key(float, 6.0, lo=1, hi=48, doc="top of wall steps, in (common practice)"),
-    "segment_min_ft": Key(float, 10.0, lo=0, hi=500, doc="shortest segment, ft (common practice)"),
+    "segment_min_ft": Key(float, 20.0, lo=0, hi=500,
+                          doc="shortest segment inside a wall, ft (common practice: a length "
+                              "worth forming)"),
     "segment_max_ft": Key(float, 90.0, lo=5, hi=1000, doc="longest segment, ft (common practice)"),
     "contraction_joint_max_ft": Key(float, 30.0, lo=5, hi=200,
-                                    doc="contraction joint spacing limit, ft (common practice)"),
+                                    doc="contraction joint spacing limit, ft (common practice: "
+                                        "at most 30 ft, concretenetwork.com, poured retaining "
+                                        "walls, provisions)"),
     "expansion_joint_max_ft": Key(float, 90.0, lo=10, hi=1000,
-                                  doc="expansion joint spacing limit, ft (common practice)"),
+                                  doc="expansion joint spacing limit, ft, and one at every "
+                                      "footing step (common practice: up to 90 ft, "
+                                      "concretenetwork.com, poured retaining walls)"),
     "design_height_increment_ft": Key(float, 1.0, lo=0.01, hi=5,
                                       doc="design heights rounded up to this, ft (common "
                                           "practice: walls tabulated by height)"),
@@ -166,10 +175,15 @@ COSTS_KEYS = {
     "excavation_usd_per_cy": Key(float, 30.0, lo=0, hi=10000, doc="excavation, $/CY"),
     "formwork_usd_per_sf": Key(float, 12.0, lo=0, hi=1000, doc="formwork, $/SF of contact"),
     "step_usd": Key(float, 500.0, lo=0, hi=100000, doc="one step in footing or top, $ each"),
+    "mark_usd": Key(float, 1000.0, lo=0, hi=1000000,
+                    doc="one more section mark (detailing, forms, checking), $ each"),
 }
 
 # [sizing]: the candidate grid of the least-cost search (common practice increments).
 SIZING_KEYS = {
+    "toe_min_ft": Key(float, 1.0, lo=0, hi=30,
+                      doc="smallest toe, ft (common practice: room for the toe bars and the "
+                          "bearing; 0 for a wall on a property line)"),
     "toe_max_ft": Key(float, 8.0, lo=0, hi=30, doc="largest toe, ft"),
     "heel_max_ft": Key(float, 14.0, lo=0.5, hi=40, doc="largest heel, ft"),
     "toe_heel_step_in": Key(float, 3.0, lo=1, hi=24, doc="toe and heel increments, in"),
@@ -182,9 +196,14 @@ SIZING_KEYS = {
     "stem_step_in": Key(float, 1.0, lo=0.5, hi=12, doc="stem increments, in"),
     "stem_batter": Key(bool, False, doc="batter the back face: stem top at stem_min_in"),
     "bar_sizes": Key(str, "4-9", doc="bar sizes to try, e.g. \"4-9\" (ASTM A615 numbers)"),
-    "bar_spacing_min_in": Key(float, 6.0, lo=2, hi=48, doc="closest bar spacing, in"),
-    "bar_spacing_max_in": Key(float, 18.0, lo=2, hi=48, doc="widest bar spacing, in"),
-    "bar_spacing_step_in": Key(float, 1.0, lo=0.5, hi=12, doc="bar spacing increments, in"),
+    "bar_spacings_in": Key(list, [4.0, 6.0, 8.0, 9.0, 10.0, 12.0, 15.0, 16.0, 18.0], lo=2, hi=48,
+                           doc="the bar spacings to use, in (common practice: the spacings a "
+                               "detailer uses)"),
+    "marks_max": Key(int, 6, lo=1, hi=100,
+                     doc="most section marks per wall (or per site), chosen from the design "
+                         "table (common practice: a few marks a crew can build)"),
+    "marks_per": Key(str, "wall", choices=("wall", "site"),
+                     doc="marks_max counts the marks of each wall, or of the whole site"),
 }
 
 # [drawing]: the DXF sheet set (exporters/dxf_wall.py)

@@ -200,6 +200,16 @@ def check_value(value: Any, spec: Key, *, file, where: str) -> Any:
                 file=file, where=where,
             )
         return value
+    elif kind is list:
+        if not isinstance(value, list):
+            raise InputError(f"must be a list, got {value!r}", file=file, where=where)
+        if spec.lo is not None or spec.hi is not None:  # a list of numbers in range
+            if not value:
+                raise InputError("must list at least one number", file=file, where=where)
+            num = Key(float, lo=spec.lo, hi=spec.hi, lo_open=spec.lo_open,
+                      hi_open=spec.hi_open)
+            return [check_value(v, num, file=file, where=where) for v in value]
+        return value
     if kind in (float, int):
         bad = (
             (spec.lo is not None and (value < spec.lo or (spec.lo_open and value == spec.lo)))
