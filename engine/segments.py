@@ -174,6 +174,10 @@ def _plan_batch(runs, rules, cost_per_ft, embedment_of) -> list[SegmentPlan]:
                 plans.append(plan_segments(s, rg, fg, replace(rules, segment_min_ft=0.0),
                                            cost_per_ft, embedment_of))
                 continue
+            if rules.step_min_ft > 0:  # an elevation grid finer than the least step
+                plans.append(plan_segments(s, rg, fg, replace(rules, step_min_ft=0.0),
+                                           cost_per_ft, embedment_of))
+                continue
             raise ValueError("no segmentation meets the footing step limit")
         plans.append(_trace(prep, final, back))
     return plans

@@ -67,7 +67,7 @@ def brute_force(s, rg, fg, rules):
 @settings(max_examples=40, deadline=None)
 @given(st.lists(st.floats(-3, 3), min_size=8, max_size=9), st.lists(st.floats(-1, 1),
        min_size=8, max_size=9), st.sampled_from([0.0, 300.0]),
-       st.sampled_from([(0.5, 6.0, 0.5), (0.1, 3.0, 0.5), (0.1, 6.0, 0.0)]))
+       st.sampled_from([(0.5, 6.0, 0.5), (0.5, 6.0, 1.0), (0.1, 3.0, 0.5), (0.1, 6.0, 0.0)]))
 def test_dynamic_programme_equals_brute_force(drg, dfg, step_cost, grid):
     n = min(len(drg), len(dfg))
     s = np.arange(n) * 5.0
@@ -78,7 +78,12 @@ def test_dynamic_programme_equals_brute_force(drg, dfg, step_cost, grid):
                          segment_max_ft=25, step_cost_usd=step_cost, bf_lowerings=3,
                          bf_round_ft=bf_round, top_step_in=top_step, step_min_ft=step_min)
     plan = plan_segments(s, rg, fg, rules, cost_table)
-    assert plan.total_cost_usd == pytest.approx(brute_force(s, rg, fg, rules), rel=1e-9)
+    want = brute_force(s, rg, fg, rules)
+    if math.isfinite(want):
+        assert plan.total_cost_usd == pytest.approx(want, rel=1e-9)
+    else:  # a grid finer than the least step can leave no way: the rules are relaxed, in
+        # turn (lowered footings, shorter segments, smaller steps), never the step limit
+        assert step_min > bf_round and math.isfinite(plan.total_cost_usd)
     # cover every station once: segments chain end to start from the first to the last
     assert plan.start_index[0] == 0 and plan.end_index[-1] == n - 1
     assert (plan.start_index[1:] == plan.end_index[:-1]).all()
