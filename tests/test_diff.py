@@ -377,3 +377,14 @@ def test_schedule_columns_must_agree_but_cost_is_optional(tmp_path):
     res = CliRunner().invoke(main, ["diff", str(lacking), str(new)])
     assert res.exit_code == 2
     assert "heel_ft" in res.output
+
+
+def test_a_mark_change_is_listed_as_field_mark():
+    # issue 15: the same segment with another section mark is a change of the field "mark"
+    segs = [dict(s, mark="A") for s in base_segments()]
+    changed = [dict(s, mark="A") for s in base_segments()]
+    changed[3]["mark"] = "C"
+    d = diff_tables(RunTables.from_frames(pd.DataFrame(segs)),
+                    RunTables.from_frames(pd.DataFrame(changed)))
+    assert list(d.rows["field"]) == ["mark"]
+    assert list(d.rows["old"]) == ["A"] and list(d.rows["new"]) == ["C"]
