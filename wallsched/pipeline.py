@@ -113,6 +113,7 @@ def write_design(site, sd, out: Path, *, drawings: bool = True, compare_dir=None
         write_xlsx,
     )
     from .exporters.tables import FLOAT_FORMAT, write_csv
+    from .parallel import Task, run_tasks
     from .stages import QUIET
 
     stages = stages or QUIET
@@ -125,8 +126,6 @@ def write_design(site, sd, out: Path, *, drawings: bool = True, compare_dir=None
             from .exporters.barlist import write_barlist_csv
 
             write_barlist_csv(sd.barlist, out / "barlist.csv", float_format=FLOAT_FORMAT)
-        write_xlsx(schedule, sd.bars, sd.quantity_totals, out / "schedule.xlsx", run.site_name,
-                   barlist=sd.barlist)
         write_run_json(run_record(run, sd, schedule), out / "run.json")
     lines = [wall_summary(w) for w in sd.walls]
     d = None
@@ -143,8 +142,9 @@ def write_design(site, sd, out: Path, *, drawings: bool = True, compare_dir=None
         lines += d.summary_lines()
     tasks = output_tasks(run, sd, out, diff=d, drawings=drawings,
                          drawing=getattr(site, "drawing", None))
-    from .parallel import run_tasks
-
+    tasks.append(Task("workbook", lambda: write_xlsx(
+        schedule, sd.bars, sd.quantity_totals, out / "schedule.xlsx", run.site_name,
+        barlist=sd.barlist), weight=1.0 + len(sd.bars) / 1e3))
     with stages.items("drawings and calc package", len(tasks), "outputs") as tick:
         spent = run_tasks(tasks, progress=tick)
     for name, dt in spent.items():  # the time each kind of output took, summed over workers
