@@ -10,9 +10,11 @@
 - Coordinates are written northing before easting (``<P>`` is "N E Z"); plan x is the easting
   and y the northing.
 - Alignment (``<CoordGeom>``): ``<Line>`` (Start, End), ``<Curve>`` (Start, Center, End,
-  ``rot="cw"|"ccw"``), ``<IrregularLine>``; a ``<Spiral>`` is refused (replace it with arcs in
-  the design program). Its ``staStart`` is the station of its start unless the wall gives
-  ``start_station_ft``. Arcs are flattened to chords within ``ARC_CHORD_ERROR_FT``.
+  ``rot="cw"|"ccw"``), ``<IrregularLine>`` and clothoid ``<Spiral>`` (Start, PI, End,
+  ``length``, ``radiusStart``/``radiusEnd``, INF for a tangent; other spiral types are
+  refused). Its ``staStart`` is the station of its start unless the wall gives
+  ``start_station_ft``. Arcs and spirals are flattened to chords within
+  ``ARC_CHORD_ERROR_FT``.
 - Profile (``<Profile><ProfAlign>``): ``<PVI>``, ``<ParaCurve length>`` (symmetric parabola),
   ``<CircCurve radius>`` (circular arc tangent to both grades); a ``<ProfSurf>`` (a list of
   station/elevation points) is read too. A profile's elevations are exact at every station.
@@ -39,6 +41,7 @@ MAX_LANDXML_BYTES = 200 * 1024 * 1024  # larger files are refused unread (stated
 ARC_CHORD_ERROR_FT = 0.001  # chords of an arc stay this close to it; stations within ~0.001 ft
 VERTICAL_CHORD_ERROR_FT = 0.001  # vertical curves: profile points this close to the curve
 JOIN_TOL_FT = 0.01  # one alignment element must start where the last one ended
+SPIRAL_END_TOL_FT = 0.05  # a clothoid computed from its start must meet its End this closely
 FT_PER_UNIT = {  # exact definitions: 1 ft = 0.3048 m; 1 US survey ft = 1200/3937 m
     "foot": 1.0,
     "feet": 1.0,
@@ -268,6 +271,70 @@ def _arc(start, center, end, rot: str, what: str, label: str) -> np.ndarray:
     return pts
 
 
+def _radius_curvature(el, attr: str, where: str, doc: Document) -> float:
+    text = (el.get(attr) or "").strip()
+    if text.upper() in ("INF", "INFINITY", "+INF"):
+        return 0.0
+    try:
+        r = float(text) * doc.ft_linear
+    except ValueError:
+        raise ProfileError(f"{where}: {attr} = {text!r} is not a radius (a number or INF)",
+                           file=doc.label) from None
+    if math.isinf(r):
+        return 0.0
+    if not r > 0:
+        raise ProfileError(f"{where}: {attr} must be greater than 0 (or INF)", file=doc.label)
+    return 1.0 / r
+
+
+def _spiral(el, where: str, doc: Document, cg: dict) -> np.ndarray:
+    """A clothoid (curvature linear in length) from Start, heading toward its PI, with
+    ``radiusStart`` and ``radiusEnd`` (INF for a tangent) over ``length``; its computed end
+    must meet End within ``SPIRAL_END_TOL_FT``."""
+    kind = (el.get("spiType") or "clothoid").strip()
+    if kind.lower() != "clothoid":
+        raise ProfileError(f"{where}: spiType = {kind!r}; only clothoid spirals are read - "
+                           "replace the spiral with arcs in the design program", file=doc.label)
+    try:
+        length = float(el.get("length", "nan")) * doc.ft_linear
+    except ValueError:
+        length = math.nan
+    if not (math.isfinite(length) and length > 0):
+        raise ProfileError(f"{where}: needs a length (a number greater than 0)", file=doc.label)
+    rot = (el.get("rot") or "").strip()
+    if rot not in ("cw", "ccw"):
+        raise ProfileError(f"{where}: rot = {rot!r}; LandXML 1.2 writes \"cw\" or \"ccw\"",
+                           file=doc.label)
+    sign = 1.0 if rot == "ccw" else -1.0
+    k0 = sign * _radius_curvature(el, "radiusStart", where, doc)
+    k1 = sign * _radius_curvature(el, "radiusEnd", where, doc)
+    start = _point(_child(el, "Start"), f"{where} Start", doc, cg)
+    end = _point(_child(el, "End"), f"{where} End", doc, cg)
+    if _child(el, "PI") is None:
+        raise ProfileError(f"{where}: needs its PI (where the tangents at its ends meet), "
+                           "which gives its direction at the start", file=doc.label)
+    pi = _point(_child(el, "PI"), f"{where} PI", doc, cg)
+    th0 = math.atan2(*(pi - start)[::-1])
+    kmax = max(abs(k0), abs(k1))
+    step = math.sqrt(8 * ARC_CHORD_ERROR_FT / kmax) if kmax else length
+    n = max(2, math.ceil(length / min(step, length / 2)))
+    fine = 16 * n  # heading integrated on a finer grid (trapezoid rule)
+    s = length * np.arange(fine + 1) / fine
+    th = th0 + k0 * s + (k1 - k0) * s**2 / (2 * length)  # clothoid: d(theta)/ds linear in s
+    dx, dy = np.cos(th), np.sin(th)
+    h = length / fine
+    x = np.r_[0.0, np.cumsum((dx[1:] + dx[:-1]) * h / 2)]
+    y = np.r_[0.0, np.cumsum((dy[1:] + dy[:-1]) * h / 2)]
+    pts = start + np.column_stack([x, y])[::16]
+    miss = float(np.hypot(*(pts[-1] - end)))
+    if miss > SPIRAL_END_TOL_FT:
+        raise ProfileError(f"{where}: a clothoid of length {length:.3f} ft from Start toward "
+                           f"its PI ends {miss:.3f} ft from its End; check the radii, rot "
+                           "and points (or replace the spiral with arcs)", file=doc.label)
+    pts[0], pts[-1] = start, end
+    return pts
+
+
 def read_alignment_landxml(path: Path, options: dict, label: str) -> LandXMLAlignment:
     """The named ``<Alignment>`` as a plan polyline in up-station order."""
     doc = open_landxml(path, label)
@@ -303,9 +370,7 @@ def read_alignment_landxml(path: Path, options: dict, label: str) -> LandXMLAlig
             ne = np.array(vals).reshape(-1, 2)
             pts = ne[:, ::-1] * doc.ft_linear
         elif kind == "Spiral":
-            raise ProfileError(f"{where}: spirals (transition curves) are not supported; "
-                               "replace the spiral with arcs in the design program, or draw "
-                               "the wall line as a DXF polyline", file=label)
+            pts = _spiral(el, where, doc, cg)
         else:
             raise ProfileError(f"{where}: <{kind}> is not supported in an alignment (Line, "
                                "Curve and IrregularLine are)", file=label)

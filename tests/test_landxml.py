@@ -3,7 +3,8 @@
 Sources: the LandXML 1.2 schema (landxml.org): <P> and the points of <Line>/<Curve> are written
 "northing easting [elevation]"; <Curve> has Start, Center, End and rot = "cw" | "ccw"; <F> holds
 three point ids and i="1" marks an invisible face; <ParaCurve length> is a symmetric parabola
-at its PVI; <Units> linearUnit "foot", "USSurveyFoot", "meter". Circle: arc length s = R theta.
+at its PVI; <Spiral> has Start, PI, End, length, radiusStart/radiusEnd (INF for a tangent);
+<Units> linearUnit "foot", "USSurveyFoot", "meter". Circle: arc length s = R theta.
 Vertical curves: a route-surveying textbook (e.g. Wolf & Ghilani, Elementary Surveying, the
 chapter on vertical curves, from memory): y = y_BVC + g1 x + (g2 - g1) x^2 / (2L), mid-curve
 offset from the PVI e = (g2 - g1) L / 8, the high or low point at x = -g1 L / (g2 - g1).
@@ -218,14 +219,43 @@ def test_missing_names_list_what_the_file_has(grading):
         read_profile_landxml(path, {"alignment": "Wall A", "profile": "BW"}, "g.xml")
 
 
-def test_spiral_is_refused_with_a_clear_message(tmp_path):
-    text = """<LandXML><Units><Imperial linearUnit="foot"/></Units><Alignments>
-    <Alignment name="S"><CoordGeom><Line><Start>0 0</Start><End>0 50</End></Line>
-    <Spiral length="50" radiusStart="INF" radiusEnd="200" rot="cw" spiType="clothoid">
-    <Start>0 50</Start><PI>0 75</PI><End>-2 100</End></Spiral></CoordGeom></Alignment>
-    </Alignments></LandXML>"""
-    with pytest.raises(ProfileError, match="spirals.*not supported"):
-        read_alignment_landxml(_write(tmp_path, text), {"alignment": "S"}, "s.xml")
+def _spiral_text(length, radius, end, pi, spi_type="clothoid") -> str:
+    return f"""<LandXML><Units><Imperial linearUnit="foot"/></Units><Alignments>
+    <Alignment name="S" staStart="0"><CoordGeom><Line><Start>0 -50</Start><End>0 0</End></Line>
+    <Spiral length="{length}" radiusStart="INF" radiusEnd="{radius}" rot="ccw"
+     spiType="{spi_type}"><Start>0 0</Start><PI>{pi[1]} {pi[0]}</PI><End>{end[1]} {end[0]}</End>
+    </Spiral></CoordGeom></Alignment></Alignments></LandXML>"""
+
+
+def test_clothoid_spiral_against_the_series_of_the_textbook(tmp_path):
+    # clothoid from a tangent (east) into R = 200 over L = 100, turning left. Route-surveying
+    # series (e.g. Wolf & Ghilani, spirals; from memory): theta = s^2 / (2 R L),
+    # x = s (1 - theta^2/10 + theta^4/216), y = s (theta/3 - theta^3/42 + theta^5/1320)
+    length, radius = 100.0, 200.0
+
+    def xy(s):
+        th = s**2 / (2 * radius * length)
+        return np.array([s * (1 - th**2 / 10 + th**4 / 216),
+                         s * (th / 3 - th**3 / 42 + th**5 / 1320)])
+
+    end = xy(length)
+    delta = length / (2 * radius)
+    pi = np.array([end[0] - end[1] / math.tan(delta), 0.0])  # the tangents meet here
+    al = read_alignment_landxml(_write(tmp_path, _spiral_text(length, radius, end, pi)),
+                                {"alignment": "S"}, "s.xml")
+    assert al.length_ft == pytest.approx(50 + length, abs=2e-3)
+    for s in (25.0, 50.0, 75.0, 100.0):
+        p = np.asarray(al.line.interpolate(50 + s).coords)[0]
+        assert p == pytest.approx(xy(s), abs=3e-3)
+
+
+def test_a_spiral_that_misses_its_end_or_is_not_a_clothoid_is_refused(tmp_path):
+    with pytest.raises(ProfileError, match="ends .* ft from its End"):
+        read_alignment_landxml(_write(tmp_path, _spiral_text(100, 200, (99.0, 9.0), (60, 0))),
+                               {"alignment": "S"}, "s.xml")
+    text = _spiral_text(100, 200, (99.0, 9.0), (60, 0), spi_type="cubic")
+    with pytest.raises(ProfileError, match="only clothoid spirals"):
+        read_alignment_landxml(_write(tmp_path, text, "c.xml"), {"alignment": "S"}, "c.xml")
 
 
 def test_duplicate_and_folded_faces_warn(tmp_path):
