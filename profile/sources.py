@@ -308,7 +308,14 @@ def read_grade(src, site_folder, *, alignment: Alignment, start_station_ft: floa
 
         if options.get("view", "plan") == "profile":
             return dxfread.read_profile_view(src.path, options, label)
-        return dxfread.read_plan_grade(src.path, options, label, **along)
+        try:
+            return dxfread.read_plan_grade(src.path, options, label, **along)
+        except InputError as exc:
+            if "3DFACE" not in exc.message and "polyface" not in exc.message:
+                raise
+            raise InputError(exc.message + "; to read the layer as a TIN surface, give "
+                             "offset_ft (the distance from the wall to take the grade at)",
+                             file=exc.file, where=exc.where) from None
     if src.kind == "gis":
         from .gisread import read_grade_gis
 

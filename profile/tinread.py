@@ -107,6 +107,32 @@ def _float(text: str) -> float | None:
     return v if math.isfinite(v) else None
 
 
+HEADER_NAMES = {  # a header row may name the columns in another order
+    "n": ("n", "northing", "north", "y"),
+    "e": ("e", "easting", "east", "x"),
+    "z": ("z", "elevation", "elev", "el"),
+    "d": ("d", "description", "desc", "code", "descriptor"),
+}
+
+
+def _header_columns(fields: list[str], label: str, line: int) -> tuple[int, ...] | None:
+    """Column indexes (N, E, Z, D) named by a header row, or None where it names none."""
+    names = [f.strip().lower() for f in fields]
+    found = {}
+    for key, options in HEADER_NAMES.items():
+        hits = [i for i, n in enumerate(names) if n in options]
+        if hits:
+            found[key] = hits[0]
+    if not found:
+        return None
+    missing = [k.upper() for k in ("n", "e", "z") if k not in found]
+    if missing:
+        raise ProfileError(f"the header names some columns but not {', '.join(missing)} "
+                           "(northing, easting, elevation); name them all, or leave the "
+                           "header out for P,N,E,Z,D order", file=label, where=f"line {line}")
+    return found["n"], found["e"], found["z"], found.get("d", len(names) + 99)
+
+
 def read_points(path: Path, options: Mapping[str, Any], label: str) -> Surface:
     """Survey points, filtered by ``code``, triangulated without bridging gaps."""
     st = path.stat()
@@ -128,21 +154,23 @@ def _points(path: str, mtime_ns: int, size: int, label: str, code, max_edge: flo
     text = raw.decode("utf-8-sig", errors="replace")
     rows = []
     seen_data = False
+    cols = (1, 2, 3, 4)  # P,N,E,Z,D: northing, easting, elevation, description
     want = code.upper() if isinstance(code, str) else None
     for n, line in enumerate(text.splitlines(), 1):
         if not line.strip() or line.lstrip().startswith("#"):
             continue
         f = _fields(line)
-        vals = [_float(c) for c in f[1:4]] if len(f) >= 4 else [None]
+        vals = [_float(f[c]) if c < len(f) else None for c in cols[:3]]
         if any(v is None for v in vals):
-            if not seen_data:  # a header row
+            if not seen_data:  # a header row: it may name the columns
                 seen_data = True
+                cols = _header_columns(f, label, n) or cols
                 continue
             raise ProfileError("is not a point row P,N,E,Z,D (point, northing, easting, "
                                f"elevation, description): {line.strip()[:60]!r}", file=label,
                                where=f"line {n}")
         seen_data = True
-        desc = f[4] if len(f) > 4 else ""
+        desc = f[cols[3]] if cols[3] < len(f) else ""
         if want is not None and (desc.split() or [""])[0].upper() != want:
             continue
         rows.append((vals[1], vals[0], vals[2], n))  # x = easting, y = northing

@@ -219,3 +219,12 @@ def test_sample_site_surface_wall_follows_its_invented_grading():
     xy = np.array([gen.wall_point(v)[0] for v in s])
     assert np.abs(np.column_stack([ws.x, ws.y]) - xy).max() < 0.01
     assert np.isfinite(ws.existing_ground_ft).all()
+
+
+def test_a_dxf_tin_without_offset_says_to_give_one(runner, tmp_path):
+    site = make_surface_site(tmp_path)
+    site.write_text(site.read_text().replace(
+        'layer = "FG-TIN", offset_ft = 2.0', 'layer = "FG-TIN"'))
+    res = runner.invoke(main, ["stations", str(site), "--out", str(tmp_path / "o")])
+    assert res.exit_code == 2, res.output
+    assert "3DFACE" in res.output and "give offset_ft" in res.output

@@ -201,3 +201,16 @@ def test_folded_faces_warn_once():
         make_surface(xy, [1, 1, 1, 1], [[0, 1, 2], [1, 2, 3]], name="t", label="t")
     msgs = [str(w.message) for w in rec if issubclass(w.category, ProfileWarning)]
     assert len(msgs) == 1 and "2 folded" in msgs[0]
+
+
+def test_a_header_may_name_the_columns_in_another_order(tmp_path):
+    verts, _ = kit.grid_tin(kit.existing, step=20.0)
+    rows = ["Point,Easting,Northing,Elevation,Description"]
+    rows += [f"{k},{x},{y},{z},EG" for k, (x, y, z) in enumerate(verts, 1)]
+    (tmp_path / "pe.csv").write_text("\n".join(rows))
+    s = read_points(tmp_path / "pe.csv", {"code": "EG"}, "pe.csv")
+    p = np.array([[1010.0, 2050.0]])
+    assert s.elevation(p)[0] == pytest.approx(kit.existing(1010.0, 2050.0))
+    (tmp_path / "bad.csv").write_text("Point,Easting,Level\n1,2,3\n")
+    with pytest.raises(ProfileError, match="not N, Z"):
+        read_points(tmp_path / "bad.csv", {}, "bad.csv")
