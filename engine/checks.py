@@ -61,6 +61,22 @@ SEISMIC_LOAD_FACTOR_NOTE = (
     "stem strength also for 1.6 H + 1.0 E (ASCE 7 2.3.6); heel and toe for the static cases.")
 
 
+# detailing rows: limits the choice of bars and dimensions meets (bar spacing limits, least
+# steel, least embedment, depth over the bars). The search takes them to their limits by
+# construction, so a ratio of 1.00 there says nothing of what the section carries: the
+# governing check is the stability or strength row with the largest ratio, and the detailing
+# rows at their limits are listed apart.
+DETAILING_SUFFIXES = ("_spacing", "_min_steel")
+DETAILING_NAMES = frozenset({"embedment", "toe_depth", "stem_horizontal_steel",
+                             "footing_longitudinal_steel"})
+AT_LIMIT_RATIO = 0.995  # a detailing row at or above this ratio is "at its limit"
+
+
+def is_detailing(name: str) -> bool:
+    """Whether check ``name`` is a detailing row (not stability or strength)."""
+    return name in DETAILING_NAMES or name.endswith(DETAILING_SUFFIXES)
+
+
 @dataclass(frozen=True)
 class CheckRow:
     """One check over all sections: ``ratio = demand / capacity``, passes where ratio <= 1."""
@@ -119,12 +135,45 @@ class SectionChecks:
     def shape(self) -> tuple[int, ...]:
         return np.shape(self.passes)
 
+    def _largest(self, rows) -> tuple[np.ndarray, np.ndarray]:
+        stack = np.stack([np.broadcast_to(r.ratio, self.shape) for r in rows])
+        stack = np.where(np.isnan(stack), np.inf, stack)
+        k = np.argmax(stack, axis=0)
+        names = np.asarray([r.name for r in rows], dtype=object)[k]
+        return names, np.take_along_axis(stack, k[None], axis=0)[0]
+
+    def _strength_rows(self):
+        rows = [r for r in self.rows if not is_detailing(r.name)]
+        return rows or list(self.rows)
+
     @property
     def governing(self) -> np.ndarray:
-        """Name of the row with the largest ratio (NaN rows win: they fail)."""
-        stack = np.stack([np.broadcast_to(r.ratio, self.shape) for r in self.rows])
-        stack = np.where(np.isnan(stack), np.inf, stack)
-        return np.asarray(self.names, dtype=object)[np.argmax(stack, axis=0)]
+        """Name of the stability or strength row with the largest ratio (NaN rows win: they
+        fail); detailing rows (:func:`is_detailing`) never govern."""
+        return self._largest(self._strength_rows())[0]
+
+    @property
+    def governing_ratio(self) -> np.ndarray:
+        """The ratio of the governing row (inf where it is NaN)."""
+        return self._largest(self._strength_rows())[1]
+
+    @property
+    def worst(self) -> np.ndarray:
+        """Name of the row with the largest ratio of all, detailing rows included (the
+        reason a failing section gives)."""
+        return self._largest(self.rows)[0]
+
+    def detailing_at_limit(self, index=()) -> tuple[str, ...]:
+        """The detailing rows at or above ``AT_LIMIT_RATIO`` for one section (``index``) or
+        anywhere in the batch (``index=None``)."""
+        out = []
+        for r in self.rows:
+            if is_detailing(r.name):
+                v = np.broadcast_to(r.ratio, self.shape)
+                v = v if index is None else v[index]
+                if np.any(np.nan_to_num(v, nan=np.inf) >= AT_LIMIT_RATIO):
+                    out.append(r.name)
+        return tuple(out)
 
     def to_frame(self):
         """One row per section: key results, then ``<check>_ratio`` and ``<check>_passes``."""
@@ -219,6 +268,8 @@ class SectionChecks:
         out["passes"] = bool(np.broadcast_to(self.passes, shp)[index])
         out["utilization_max"] = v(self.utilization_max)
         out["governing_check"] = str(np.broadcast_to(self.governing, shp)[index])
+        out["governing_ratio"] = v(np.broadcast_to(self.governing_ratio, shp))
+        out["detailing_at_limit"] = list(self.detailing_at_limit(index))
         out["load_factors"] = list(LOAD_FACTORS)
         sz = st.seismic
         if sz is not None:

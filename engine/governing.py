@@ -28,9 +28,13 @@ def mark_segments(walls: Sequence[WallDesign]) -> dict[str, list[tuple[str, Segm
 
 
 def _worst(segs):
+    """The segment a mark is written up at: a failing one first, then the largest stability
+    or strength ratio, then the tallest."""
     def key(ws):
-        u = ws[1].utilization_max
-        return (0 if ws[1].ok else 1, u if math.isfinite(u) else math.inf)
+        s = ws[1]
+        u = s.utilization_max if not s.ok else s.governing_ratio
+        return (0 if s.ok else 1, round(u, 9) if math.isfinite(u) else math.inf,
+                s.retained_height_max_ft)
 
     return max(segs, key=key)
 

@@ -149,8 +149,10 @@ class Segment:
     fs_sliding: float = math.nan
     q_max_psf: float = math.nan  # largest over the segment's stations
     utilization_max: float = math.nan
-    governing_check: str = ""
+    governing_check: str = ""  # the stability or strength check of the largest ratio
     governing_station_ft: float = math.nan
+    governing_ratio: float = math.nan  # that check's ratio at the governing station
+    detailing_at_limit: str = ""  # detailing rows at their limits, space-separated
     concrete_cy: float = math.nan
     steel_lb: float = math.nan
     formwork_sf: float = math.nan

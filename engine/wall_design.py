@@ -177,10 +177,14 @@ def section_for(table: DesignTable, hc: float, geometry_at, inputs: DesignInputs
     section and checks None with a ``no_section`` status when nothing on the grid holds."""
     k0 = int(table.index(hc))
     tries = []
+    seen = set()
     for k in range(k0 if k0 >= 0 else len(table.choices), len(table.choices)):
         cand = table.choices[k].section
         if cand is None:
             break
+        if cand.signature() in seen:  # rows sharing a mark: checked once
+            continue
+        seen.add(cand.signature())
         r = check_section(geometry_at(cand), inputs, reinforcement(cand))
         tries.append((cand, r))
         if bool(np.all(r.passes)):
@@ -208,17 +212,32 @@ class _StationResults:
         self.status = [NO_WALL_STATUS] * self.n
 
 
-def _segment_fields(res: SectionChecks, station_ft) -> dict:
+def _segment_fields(res: SectionChecks, station_ft, design_height_ft) -> dict:
+    """The segment's results: its least FS, largest q and ratio, and its governing station:
+    the station of the largest stability or strength ratio (ties: the tallest design height),
+    or of the largest ratio of all where a station fails."""
     st = res.stability
     ratio = np.asarray(res.utilization_max, float)
-    kmax = int(np.argmax(np.where(np.isfinite(ratio), ratio, np.inf)))
+    shape = np.shape(station_ft)
+    gov = np.broadcast_to(np.asarray(res.governing_ratio, float), shape)
+    H = np.broadcast_to(np.asarray(design_height_ft, float), shape)
+    fails = ~np.broadcast_to(np.asarray(res.passes), shape)
+    if fails.any():
+        key = np.where(fails, np.where(np.isfinite(ratio), ratio, np.inf), -np.inf)
+        names = np.broadcast_to(res.worst, shape)
+    else:
+        key = np.round(gov, 9)  # a tie within rounding goes to the taller station
+        names = np.broadcast_to(res.governing, shape)
+    kmax = int(np.lexsort((H, key))[-1])
     return dict(
         fs_overturning=float(np.min(st.fs_overturning)),
         fs_sliding=float(np.min(st.fs_sliding)),
         q_max_psf=float(np.max(st.q_max_psf)),
         utilization_max=float(np.max(ratio)),
-        governing_check=str(res.governing[kmax]),
-        governing_station_ft=float(station_ft[kmax]))
+        governing_check=str(names[kmax]),
+        governing_ratio=float(gov[kmax]),
+        governing_station_ft=float(station_ft[kmax]),
+        detailing_at_limit=" ".join(res.detailing_at_limit(None)))
 
 
 def _record_stations(out: _StationResults, q, idx, own, over, res, status) -> None:
@@ -227,6 +246,7 @@ def _record_stations(out: _StationResults, q, idx, own, over, res, status) -> No
     if res is not None:
         ratio = np.asarray(res.utilization_max, float)
         g_names = res.governing
+        w_names = res.worst
         own_local = np.array([local[int(j)] for j in own])
         for row in res.rows:
             arr = out.checks.setdefault(row.name, np.full(out.n, np.nan))
@@ -242,7 +262,7 @@ def _record_stations(out: _StationResults, q, idx, own, over, res, status) -> No
             out.utilization[j] = float(ratio[jl])
             out.governing[j] = str(g_names[jl])
             out.status[j] = OK if bool(np.asarray(res.passes)[jl]) else Status(
-                StatusCode.FAILS, str(g_names[jl]))
+                StatusCode.FAILS, str(w_names[jl]))
 
 
 def _design_segment(wall: WallToDesign, table: DesignTable, q, piece, last: bool, out,
@@ -257,7 +277,9 @@ def _design_segment(wall: WallToDesign, table: DesignTable, q, piece, last: bool
     if res is not None and not bool(np.all(res.passes)):
         bad = int(np.argmax(~np.asarray(res.passes)))
         status = Status(StatusCode.FAILS,
-                        f"{res.governing[bad]} at station {ws.station_ft[idx][bad]:.2f}")
+                        f"{res.worst[bad]} at station {ws.station_ft[idx][bad]:.2f}; no "
+                        f"larger section of the design table holds it (widen [sizing] or "
+                        f"revisit the soil and loads)")
     over = hs > c["max_retained_height_ft"] + 1e-9
     if over.any():
         kk = int(np.argmax(hs))
@@ -267,7 +289,7 @@ def _design_segment(wall: WallToDesign, table: DesignTable, q, piece, last: bool
             f"{c['max_retained_height_ft']:g}"))
     fields: dict = {}
     if res is not None:
-        fields = _segment_fields(res, ws.station_ft[idx])
+        fields = _segment_fields(res, ws.station_ft[idx], ws.retained_grade_ft[idx] - bf)
         if audit:
             fields["audited_station_ft"] = audit_stations(wall.inputs, sec, hs, emb, fb, res,
                                                         wall.wall, ws.station_ft[idx])

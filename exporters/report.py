@@ -513,19 +513,19 @@ def write_report(run, sd, path, *, diff=None, date: _dt.date | None = None) -> P
         hmax = max(s.retained_height_max_ft for s in segs)
         cy = sum(s.concrete_cy for s in segs if math.isfinite(s.concrete_cy))
         lb = sum(s.steel_lb for s in segs if math.isfinite(s.steel_lb))
-        top = max(segs, key=lambda s: s.utilization_max if math.isfinite(s.utilization_max)
+        top = max(segs, key=lambda s: s.governing_ratio if math.isfinite(s.governing_ratio)
                   else -1.0)
         nbad = sum(not s.ok for s in segs)
-        gov = (f"{top.governing_check} {top.utilization_max:.3f} at "
+        gov = (f"{top.governing_check} {top.governing_ratio:.3f} at "
                f"{format_station(top.governing_station_ft)} ({top.segment})"
-               if math.isfinite(top.utilization_max) else "-")
+               if math.isfinite(top.governing_ratio) else "-")
         status = "OK" if nbad == 0 else f"{nbad} FAIL"
         if nbad:
             bad_rows.append(len(rows))
         rows.append([w.wall, w.name or "", str(len(segs)), f"{length:.1f}", f"{hmax:.2f}",
                      f"{cy:.1f}", f"{lb:,.0f}", gov, status])
     wr.table(["wall", "name", "segments", "length ft", "H max ft", "concrete CY", "steel lb",
-              "most-utilised check (ratio, station)", "status"], rows,
+              "governing check (ratio, station)", "status"], rows,
              [10, 38, 14, 15, 14, 17, 16, 48, 14], bold_rows=bad_rows)
     for w in sd.walls:
         wr.h2(f"Wall {w.wall} segments" + (f" - {w.name}" if w.name else ""), toc=True)
@@ -539,7 +539,8 @@ def write_report(run, sd, path, *, diff=None, date: _dt.date | None = None) -> P
                           f"{s.retained_height_max_ft:.2f}",
                           _n(s.fs_overturning, ".2f"), _n(s.fs_sliding, ".2f"),
                           _n(s.q_max_psf, ",.0f"), _n(s.utilization_max, ".3f"),
-                          s.governing_check or "-", _n(s.concrete_cy, ".1f"),
+                          (f"{s.governing_check} {_n(s.governing_ratio, '.2f')}"
+                           if s.governing_check else "-"), _n(s.concrete_cy, ".1f"),
                           "OK" if s.ok else "FAIL: " + s.status])
         wr.table(["segment", "mark", "stations", "H max ft", "FS OT", "FS SL", "q max psf",
                   "ratio max", "governing check", "conc. CY", "status"], srows,
@@ -583,8 +584,22 @@ def write_report(run, sd, path, *, diff=None, date: _dt.date | None = None) -> P
                 f"{seg.bottom_of_footing_ft:.2f} (ft). Retained height h = "
                 f"{float(g.retained_height_ft):.2f} ft, embedment D = {float(g.embedment_ft):.2f}"
                 f" ft, design height H = {float(g.design_height_ft):.2f} ft, freeboard "
-                f"{float(g.freeboard_ft):.2f} ft. Segment ratio max "
-                f"{_n(seg.utilization_max, '.3f')} ({seg.governing_check}).", size=8.5)
+                f"{float(g.freeboard_ft):.2f} ft. Governing check of the segment "
+                f"{seg.governing_check} at ratio {_n(seg.governing_ratio, '.3f')} (the "
+                f"stability or strength check of the largest ratio; this station is where it is "
+                f"largest, the tallest of equals); largest ratio of all checks "
+                f"{_n(seg.utilization_max, '.3f')}.", size=8.5)
+        wr.para(f"Design height, two senses: the schedule's design_height_ft = "
+                f"{seg.design_height_ft:.2f} ft is the retained height segment {seg.segment} "
+                f"was sized for (the largest retained grade less the least front grade over "
+                f"the segment, plus the bottom of footing's elevation step; the section is the "
+                f"design table's for that height, rounded up to a table row, with the least "
+                f"embedment); H = {float(g.design_height_ft):.2f} ft above is this station's "
+                f"retained grade less the bottom of footing (h + D), the height the pressures "
+                f"act over here.", size=8.5)
+        wr.para("Detailing rows at their limits (a spacing, least steel or least embedment "
+                "met exactly by the chosen bars and dimensions; they do not govern): "
+                + (", ".join(seg.detailing_at_limit.split()) or "none") + ".", size=8.5)
         p = case.checks.pressure
         inp = case.inputs
         wr.para(f"γ = {inp.unit_weight_pcf:g} pcf, active {p.basis}: EFP = "

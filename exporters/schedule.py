@@ -24,7 +24,8 @@ SCHEDULE_COLUMNS = [  # DESIGN.md section 5, in this order
 ]
 EXTRA_COLUMNS = ["station_start", "station_end", "mark", "design_height_ft", "governing_check",
                  "governing_station", "footing_long_bars", "formwork_sf", "excavation_cy",
-                 "backfill_cy", "cost_usd", "warnings"]
+                 "backfill_cy", "cost_usd", "governing_ratio", "detailing_at_limit",
+                 "warnings"]
 UNITS = {
     "station_start_ft": "ft", "station_end_ft": "ft", "length_ft": "ft",
     "retained_height_max_ft": "ft", "top_of_wall_ft": "ft (elev.)",
@@ -78,6 +79,8 @@ def schedule_frame(walls, warnings=()) -> pd.DataFrame:
                 "station_start": format_station(s.station_start_ft),
                 "station_end": format_station(s.station_end_ft), "mark": s.mark,
                 "design_height_ft": s.design_height_ft, "governing_check": s.governing_check,
+                "governing_ratio": s.governing_ratio,
+                "detailing_at_limit": s.detailing_at_limit,
                 "governing_station": (format_station(s.governing_station_ft)
                                       if math.isfinite(s.governing_station_ft) else ""),
                 "footing_long_bars": _bar(sec and sec.footing_long_bars),
