@@ -12,7 +12,12 @@ commands print with the other warnings. The limits are trade judgement, stated h
   crystalline-bedrock value);
 - a wall longer than ``WALL_LENGTH_LONG_FT`` (one mile; more likely two walls or a unit error);
 - a wall needed over less than ``segment_min_ft`` of a longer alignment (a spike in the
-  grades is more likely than a wall that short; it is designed as one segment that short).
+  grades is more likely than a wall that short; it is designed as one segment that short);
+- a front grade above the retained grade (the stations named: the retained side or the grades
+  may be swapped there);
+- a ``[soil] source`` that calls itself a placeholder (values not from a report);
+- a wall end still retaining more than ``end_height_warn_ft`` (``[criteria]``; a return wall
+  or a turn-down is needed where the alignment stops).
 """
 
 from __future__ import annotations
@@ -98,6 +103,60 @@ def short_wall_warning(wall: str, station_ft: np.ndarray, retained_height_ft: np
             "wall"]
 
 
+def _ranges(st: np.ndarray, idx: np.ndarray, most: int = 4) -> str:
+    """Consecutive station indices as "a to b" ranges (the first ``most`` of them)."""
+    runs: list[list[int]] = []
+    for i in idx.tolist():
+        if runs and i == runs[-1][1] + 1:
+            runs[-1][1] = i
+        else:
+            runs.append([i, i])
+    text = [format_station(st[a]) if a == b else
+            f"{format_station(st[a])} to {format_station(st[b])}" for a, b in runs[:most]]
+    more = f" and {len(runs) - most} more stretches" if len(runs) > most else ""
+    return ", ".join(text) + more
+
+
+def flipped_grade_warnings(wall: str, station_ft: np.ndarray,
+                           retained_height_ft: np.ndarray) -> list[str]:
+    """One line for a wall whose front grade lies above its retained grade somewhere, naming
+    the stations."""
+    st = np.asarray(station_ft, dtype=float)
+    bad = np.nonzero(np.asarray(retained_height_ft, dtype=float) < 0)[0]
+    if not bad.size:
+        return []
+    n = f"{bad.size} stations" if bad.size > 1 else "1 station"
+    return [f"wall {wall!r}: the front grade is above the retained grade at {n} "
+            f"({_ranges(st, bad)}); check retained_side and the two grades there"]
+
+
+def placeholder_soil(walls: Iterable[tuple[str, dict]]) -> list[str]:
+    """One line for the walls whose ``[soil] source`` says the values are a placeholder."""
+    ids = [w for w, soil in walls if "placeholder" in str(soil.get("source") or "").lower()]
+    if not ids:
+        return []
+    return [f"{_walls(ids)}: the [soil] source says the values are a placeholder; take them "
+            "from the site's geotechnical report before this design is used"]
+
+
+def end_height_warnings(wall: str, station_ft: np.ndarray, retained_height_ft: np.ndarray,
+                        limit_ft: float) -> list[str]:
+    """A line for each end of the wall still retaining more than ``limit_ft``."""
+    st = np.asarray(station_ft, dtype=float)
+    h = np.asarray(retained_height_ft, dtype=float)
+    if st.size == 0:
+        return []
+    out = []
+    for k, end in ((0, "starts"), (st.size - 1, "ends")):
+        if k == 0 and st.size == 1 and end == "ends":
+            continue
+        if h[k] > limit_ft:
+            out.append(f"wall {wall!r} {end} at {format_station(st[k])} still retaining "
+                       f"{h[k]:.2f} ft, more than end_height_warn_ft {limit_ft:g}: a return "
+                       "wall or a turn-down is needed there")
+    return out
+
+
 def _walls(ids: Sequence[str]) -> str:
     return ("wall " if len(ids) == 1 else "walls ") + ", ".join(repr(w) for w in ids)
 
@@ -106,8 +165,12 @@ def site_warnings(site, walls) -> list[str]:
     """Every guard-rail line for a loaded site and its sampled walls (``WallStations``,
     in site-file order)."""
     lines = soil_warnings((spec.id, dict(spec.soil)) for spec in site.walls)
+    lines += placeholder_soil((spec.id, dict(spec.soil)) for spec in site.walls)
     for spec, ws in zip(site.walls, walls, strict=True):
         lines += length_warning(ws.wall, ws.length_ft)
+        lines += flipped_grade_warnings(ws.wall, ws.station_ft, ws.retained_height_ft)
+        lines += end_height_warnings(ws.wall, ws.station_ft, ws.retained_height_ft,
+                                     spec.criteria["end_height_warn_ft"])
         lines += height_jumps(ws.wall, ws.station_ft, ws.retained_height_ft)
         c = spec.criteria
         lines += short_wall_warning(ws.wall, ws.station_ft, ws.retained_height_ft,

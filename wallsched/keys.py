@@ -120,6 +120,9 @@ CRITERIA_KEYS = {
                         doc="top of wall above retained grade, ft (common practice)"),
     "min_retained_height_ft": Key(float, 0.5, lo=0, hi=5,
                                   doc="below this no wall is needed, ft (common practice)"),
+    "end_height_warn_ft": Key(float, 3.0, lo=0, hi=40,
+                              doc="warn where a wall end still retains more than this, ft "
+                                  "(common practice: a return wall or a turn-down there)"),
     "max_retained_height_ft": Key(float, 20.0, lo=1, hi=40,
                                   doc="cantilever range limit, ft (common practice)"),
     # constructible segments (engine/segments.py)
