@@ -35,6 +35,14 @@ boundaries (the stations) and lowerings; it is linear in the number of stations 
 the number of stations a segment may span. :func:`plan_segments_many` solves several runs
 under the same rules together: the recursion steps a block of stations at a time (a block is
 shorter than the shortest segment, so no segment has both ends in it) through every run at once.
+
+Where stations are closer than ``BOUNDARY_GRID_FT`` (2 ft; a segment end needs no finer
+placing than that on walls whose segments are 20 ft and longer), segments end only at the
+stations of a coarser set (the first, the last, and each next one at least that far on); the
+envelope of a segment still takes every station between its ends, so that every station is
+covered exactly as before, and the recursion, cubic in the density of stations, costs about
+an eighth at 1 ft stations. With stations that far apart or farther, every station is a
+candidate end, as before.
 """
 
 from __future__ import annotations
@@ -46,6 +54,7 @@ from dataclasses import dataclass
 import numpy as np
 
 BATCH_STATIONS = 100_000  # stations (padded) of the runs whose recursion is solved together
+BOUNDARY_GRID_FT = 2.0  # segment ends at stations at least this far apart (common practice)
 LOWERINGS_STEEP = 5  # lowerings offered when the highest footings cannot meet the step limit
 INFEASIBLE_COST_PER_FT = 1.0e7  # $/ft for a segment no section can hold (flagged, never hidden)
 
@@ -138,10 +147,18 @@ def plan_segments_many(runs, rules: SegmentRules, cost_per_ft, embedment_of=None
                        ) -> list[SegmentPlan]:
     """:func:`plan_segments` for several runs of stations under the same rules and design
     table, solved together: the recursion steps through the stations of every run at once."""
+    # a run is (stations, retained, front) and, once thinned to its candidate ends, the
+    # extremes of the stretches before each end; a full run's stretch is its own station
     runs = [tuple(np.asarray(x, float) for x in run) for run in runs]
-    for s, _, _ in runs:
-        if s.size < 2:
+    runs = [run if len(run) == 5 else run + run[1:3] for run in runs]
+    for run in runs:
+        if run[0].size < 2:
             raise ValueError("a run of stations needs at least two stations")
+    ends = [boundary_stations(run[0]) for run in runs]
+    if any(e.size < run[0].size for e, run in zip(ends, runs, strict=True)):
+        coarse = [_coarse_run(run, e) for run, e in zip(runs, ends, strict=True)]
+        plans = plan_segments_many(coarse, rules, cost_per_ft, embedment_of)
+        return [_fine_plan(p, e) for p, e in zip(plans, ends, strict=True)]
     plans: list = [None] * len(runs)
     # batches of runs of similar length, at most BATCH_STATIONS (padded) stations each
     order = sorted(range(len(runs)), key=lambda r: runs[r][0].size)
@@ -157,26 +174,72 @@ def plan_segments_many(runs, rules: SegmentRules, cost_per_ft, embedment_of=None
     return plans
 
 
+def boundary_stations(s: np.ndarray, grid_ft: float | None = None) -> np.ndarray:
+    """Indices of the stations where a segment may end: all of them where they are at least
+    ``grid_ft`` apart; else the first, each next one at least ``grid_ft`` on, and the last."""
+    s = np.asarray(s, float)
+    grid_ft = BOUNDARY_GRID_FT if grid_ft is None else grid_ft
+    if s.size < 3 or float(np.min(np.diff(s))) >= grid_ft - 1e-9:
+        return np.arange(s.size)
+    keep = [0]
+    for i in range(1, s.size - 1):  # one pass, plain: the kept stations are few
+        if s[i] - s[keep[-1]] >= grid_ft - 1e-9:
+            keep.append(i)
+    if s[-1] - s[keep[-1]] < grid_ft - 1e-9 and len(keep) > 1:
+        keep[-1] = s.size - 1  # the last station ends the run; drop the one just before it
+    else:
+        keep.append(s.size - 1)
+    return np.asarray(keep)
+
+
+def _coarse_run(run, ends: np.ndarray) -> tuple:
+    """The run at its candidate ends: (stations, retained, front, the largest retained and the
+    least front grade over the stretch of stations before each end: ends[p-1]+1 .. ends[p])."""
+    s, rg, fg = run[:3]
+    starts = np.concatenate([[0], ends[:-1] + 1])
+    return (s[ends], rg[ends], fg[ends], np.maximum.reduceat(rg, starts),
+            np.minimum.reduceat(fg, starts))
+
+
+def _fine_plan(plan: SegmentPlan, ends: np.ndarray) -> SegmentPlan:
+    from dataclasses import replace
+
+    return replace(plan, start_index=ends[plan.start_index], end_index=ends[plan.end_index])
+
+
+def _window_over_stretches(point: np.ndarray, before: np.ndarray, kmax: int, fn) -> np.ndarray:
+    """``out[j, k]``: ``fn`` over every station from end j-k to end j (the end itself and the
+    stretches before ends j-k+1 .. j); NaN where j-k < 0."""
+    n = point.size
+    out = np.full((n, kmax + 1), np.nan)
+    out[:, 0] = point
+    stretches = window_extremes(before, kmax, fn)  # [j, k]: stretches j-k .. j
+    for k in range(1, min(kmax, n - 1) + 1):
+        out[k:, k] = fn(point[: n - k], stretches[k:, k - 1])
+    return out
+
+
 def _plan_batch(runs, rules, cost_per_ft, embedment_of) -> list[SegmentPlan]:
-    kmax = max(_span_stations(s, rules) for s, _, _ in runs)
-    preps = [_prepare(s, rg, fg, rules, cost_per_ft, embedment_of, kmax) for s, rg, fg in runs]
+    kmax = max(_span_stations(run[0], rules) for run in runs)
+    preps = [_prepare(run, rules, cost_per_ft, embedment_of, kmax) for run in runs]
     solved = _solve(preps, rules, kmax)
     plans = []
-    for (s, rg, fg), prep, (final, back) in zip(runs, preps, solved, strict=True):
+    for run, prep, (final, back) in zip(runs, preps, solved, strict=True):
         if not np.isfinite(final).any():
             from dataclasses import replace
 
+            def again(run=run, **relaxed):
+                return plan_segments_many([run], replace(rules, **relaxed), cost_per_ft,
+                                          embedment_of)[0]
+
             if rules.bf_lowerings < LOWERINGS_STEEP:  # steep ground: offer lowered footings
-                plans.append(plan_segments(s, rg, fg, replace(rules, bf_lowerings=LOWERINGS_STEEP),
-                                           cost_per_ft, embedment_of))
+                plans.append(again(bf_lowerings=LOWERINGS_STEEP))
                 continue
             if rules.segment_min_ft > 0:  # odd station spacing: relax the minimum length
-                plans.append(plan_segments(s, rg, fg, replace(rules, segment_min_ft=0.0),
-                                           cost_per_ft, embedment_of))
+                plans.append(again(segment_min_ft=0.0))
                 continue
             if rules.step_min_ft > 0:  # an elevation grid finer than the least step
-                plans.append(plan_segments(s, rg, fg, replace(rules, step_min_ft=0.0),
-                                           cost_per_ft, embedment_of))
+                plans.append(again(step_min_ft=0.0))
                 continue
             raise ValueError("no segmentation meets the footing step limit")
         plans.append(_trace(prep, final, back))
@@ -194,14 +257,15 @@ def _span_stations(s, rules) -> int:
     return max(1, int(np.max(np.arange(s.size) - first)))
 
 
-def _prepare(s, rg, fg, rules, cost_per_ft, embedment_of, kmax) -> dict:
+def _prepare(run, rules, cost_per_ft, embedment_of, kmax) -> dict:
     """Everything of one run that does not depend on the recursion's values, [j, k, m]."""
+    s, rg, fg, rg_before, fg_before = run
     n = s.size
     total = s[-1] - s[0]
     seg_max = _seg_max(s, rules)
     M = max(1, rules.bf_lowerings)
-    fg_min = window_extremes(fg, kmax, np.minimum)  # [j, k] over j-k..j
-    rg_max = window_extremes(rg, kmax, np.maximum)
+    fg_min = _window_over_stretches(fg, fg_before, kmax, np.minimum)  # [j, k]: j-k..j
+    rg_max = _window_over_stretches(rg, rg_before, kmax, np.maximum)
     k_idx = np.arange(kmax + 1)
     start = np.arange(n)[:, None] - k_idx[None, :]
     length = np.where(start >= 0, s[:, None] - s[np.clip(start, 0, None)], np.nan)

@@ -24,13 +24,15 @@ def cost_table(h):
     return np.where(h <= 18.0, 40.0 + 6.0 * h + 0.9 * h**2, np.nan)
 
 
-def brute_force(s, rg, fg, rules):
-    """Every way to cut the stations into segments, every lowering: the least total cost."""
+def brute_force(s, rg, fg, rules, candidates=None):
+    """Every way to cut the stations into segments (at the ``candidates`` station indices, by
+    default every station), every lowering: the least total cost."""
     n = len(s)
     best = math.inf
     lowers = [rules.bf_lowering_ft * m for m in range(rules.bf_lowerings)]
-    for cuts in itertools.product([0, 1], repeat=n - 2):
-        bounds = [0] + [i + 1 for i, c in enumerate(cuts) if c] + [n - 1]
+    inner = [i for i in (range(1, n - 1) if candidates is None else candidates) if 0 < i < n - 1]
+    for cuts in itertools.product([0, 1], repeat=len(inner)):
+        bounds = [0] + [i for i, c in zip(inner, cuts, strict=True) if c] + [n - 1]
         segs = list(zip(bounds[:-1], bounds[1:], strict=True))
         lengths = [s[j] - s[i] for i, j in segs]
         if any(L < rules.segment_min_ft - 1e-9 or L > rules.segment_max_ft + 1e-9
@@ -89,6 +91,41 @@ def test_dynamic_programme_equals_brute_force(drg, dfg, step_cost, grid):
     assert (plan.start_index[1:] == plan.end_index[:-1]).all()
     steps = np.abs(np.diff(plan.bottom_of_footing_ft))
     assert (steps <= rules.footing_step_max_ft + 1e-9).all()  # IBC 2021 1809.3 step limit
+
+
+def test_boundary_stations_keep_ends_at_least_the_grid_apart():
+    s = np.arange(0.0, 10.01, 0.5)
+    got = segments.boundary_stations(s, 2.0)
+    assert got[0] == 0 and got[-1] == s.size - 1
+    assert np.all(np.diff(s[got]) >= 2.0 - 1e-9)
+    assert list(s[got]) == [0.0, 2.0, 4.0, 6.0, 8.0, 10.0]
+    wide = np.arange(0.0, 50.0, 5.0)  # stations the grid apart or farther: every one
+    assert np.array_equal(segments.boundary_stations(wide, 2.0), np.arange(wide.size))
+    odd = np.array([0.0, 0.7, 2.5, 2.9, 7.0, 7.5])  # the last kept end moves to the run's end
+    assert list(odd[segments.boundary_stations(odd, 2.0)]) == [0.0, 2.5, 7.5]
+
+
+@settings(max_examples=25, deadline=None)
+@given(st.lists(st.floats(-3, 3), min_size=14, max_size=14),
+       st.lists(st.sampled_from([0.4, 0.9, 1.3, 3.0, 5.0]), min_size=13, max_size=13),
+       st.sampled_from([0.0, 300.0]))
+def test_close_stations_end_segments_only_at_the_coarser_set(drg, gaps, step_cost):
+    """With stations closer than the boundary grid, the plan is the least cost over cuts at
+    the coarser set of stations, and its envelopes still take every station between."""
+    s = np.concatenate([[0.0], np.cumsum(gaps)])
+    fg = 100 + 0.05 * s
+    rg = fg + 4 + np.abs(np.cumsum(drg))
+    rules = SegmentRules(embedment_ft=1.5, freeboard_ft=0.5, segment_min_ft=4,
+                         segment_max_ft=14, step_cost_usd=step_cost, bf_lowerings=2,
+                         step_min_ft=0.0)
+    plan = plan_segments(s, rg, fg, rules, cost_table)
+    ends = segments.boundary_stations(s)
+    want = brute_force(s, rg, fg, rules, candidates=list(ends))
+    if math.isfinite(want):
+        assert plan.total_cost_usd == pytest.approx(want, rel=1e-9)
+    assert set(plan.start_index) | set(plan.end_index) <= set(ends)
+    for i, j, h in zip(plan.start_index, plan.end_index, plan.design_height_ft, strict=True):
+        assert h >= float(np.max(rg[i:j + 1] - np.min(fg[i:j + 1]))) - 1e-9  # every station
 
 
 def test_embedment_and_freeboard_hold_at_every_station():
