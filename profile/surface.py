@@ -25,7 +25,9 @@ from .core import Alignment, DrawingProfile, warn
 from .stationing import format_station
 
 NODE_MERGE_FT = 1e-6  # profile points closer than this (in station) are one
-LOCATE_TOL_FT = 1e-6  # a point this close outside a triangle (rounding) is on it
+# a point this close outside a triangle is on it: rounding, or a crack between two faces
+# whose corners were written a hair apart
+LOCATE_TOL_FT = 1e-4
 AREA_MIN_SQFT = 1e-9  # a triangle with less plan area is degenerate (its points collinear)
 MAX_TRIANGLES = 2_000_000  # stated in the README: bounded time and memory per surface
 

@@ -1,7 +1,8 @@
 """Surfaces from a DXF TIN (a layer of 3DFACEs or a polyface mesh) and from survey points.
 
 DXF: the 3DFACEs and polyface POLYLINEs of one layer are the faces (a four-cornered face is
-split into two triangles); corners that coincide within ``MERGE_FT`` are one vertex. The
+split into two triangles); corners that round to one point on a ``MERGE_FT`` grid are one
+vertex, and a crack narrower than ``surface.LOCATE_TOL_FT`` between faces is not a hole. The
 drawing's units are handled as for every DXF source (``$INSUNITS`` or ``units``).
 
 Survey points: a text file of ``P,N,E,Z,D`` rows (point, northing, easting, elevation,
@@ -28,7 +29,7 @@ from ..errors import ProfileError
 from .core import warn
 from .surface import Surface, make_surface
 
-MERGE_FT = 1e-6  # DXF face corners closer than this are one vertex
+MERGE_FT = 1e-4  # DXF face corners on one 1e-4-ft grid cell are one vertex
 MAX_EDGE_FT = 100.0  # survey triangles with a longer edge are dropped (common practice)
 MAX_POINTS_BYTES = 50 * 1024 * 1024  # a larger points file is refused (stated in README)
 MIN_SPREAD_FT = 0.01  # points whose spread across their best line is less are on one line

@@ -214,3 +214,26 @@ def test_a_header_may_name_the_columns_in_another_order(tmp_path):
     (tmp_path / "bad.csv").write_text("Point,Easting,Level\n1,2,3\n")
     with pytest.raises(ProfileError, match="not N, Z"):
         read_points(tmp_path / "bad.csv", {}, "bad.csv")
+
+
+def test_faces_written_a_hair_apart_leave_no_hole(tmp_path):
+    import ezdxf
+
+    verts, tris = kit.grid_tin(kit.front_grade)
+    rng = np.random.default_rng(8)
+    doc = ezdxf.new("R2010")
+    doc.header["$INSUNITS"] = 2
+    msp = doc.modelspace()
+    for t in tris:  # each face's corners rounded on its own, up to 3e-5 ft apart
+        c = verts[t] + rng.uniform(-3e-5, 3e-5, (3, 3))
+        msp.add_3dface([*map(tuple, c), tuple(c[2])], dxfattribs={"layer": "T"})
+    doc.saveas(tmp_path / "hair.dxf")
+    s = read_dxf_tin(tmp_path / "hair.dxf", {"layer": "T"}, "hair.dxf")
+    al = Alignment(shapely.LineString([(1000, 2000), (1100, 2060)]), "a")
+    g = surface_grade(s, al, start_station_ft=0.0, offset_ft=2.0, sign=-1.0,
+                      what="front grade", side="right")
+    st = np.linspace(0, al.length_ft, 200)
+    p = shapely.get_coordinates(shapely.line_interpolate_point(al.line, st))
+    u = np.array([100, 60]) / np.hypot(100, 60)
+    q = p - 2.0 * np.array([-u[1], u[0]])
+    np.testing.assert_allclose(g.at(st), kit.front_grade(q[:, 0], q[:, 1]), atol=1e-3)
