@@ -65,6 +65,7 @@ class LandXMLAlignment(DrawingAlignment):
     """An alignment from LandXML, with its own start station (``staStart``, ft)."""
 
     start_station_ft: float | None = None
+    source: tuple[str, str] | None = None  # (file, alignment name), for its own profiles
 
 
 @dataclass(frozen=True)
@@ -402,7 +403,8 @@ def read_alignment_landxml(path: Path, options: dict, label: str) -> LandXMLAlig
         except ValueError:
             raise ProfileError(f"{what}: staStart = {start!r} is not a number",
                                file=label) from None
-    return LandXMLAlignment(base.line, base.label, tuple(messages), start_ft)
+    return LandXMLAlignment(base.line, base.label, tuple(messages), start_ft,
+                            (str(path.resolve()), name))
 
 
 # --------------------------------------------------------------------------- profiles
@@ -555,8 +557,33 @@ def _vertical(prof, what: str, doc: Document) -> VerticalAlignment:
     return va
 
 
-def read_profile_landxml(path: Path, options: dict, label: str) -> DrawingProfile:
-    """The named ``<ProfAlign>`` (or ``<ProfSurf>``) of the named alignment."""
+def read_profile_landxml(path: Path, options: dict, label: str, *, alignment=None,
+                         start_station_ft: float | None = None) -> DrawingProfile:
+    """The named ``<ProfAlign>`` (or ``<ProfSurf>``) of the named alignment.
+
+    Its stations are the alignment's own. Where the wall is that very alignment
+    (``alignment``, from the same file) and its start station was moved from the file's
+    ``staStart`` (``start_station_ft``), the profile moves with it, and a warning says so."""
+    profile = _read_profile(path, options, label)
+    source = getattr(alignment, "source", None)
+    sta_start = getattr(alignment, "start_station_ft", None)
+    if (source != (str(path.resolve()), options["alignment"]) or sta_start is None
+            or start_station_ft is None or abs(start_station_ft - sta_start) < 1e-9):
+        return profile
+    shift = float(start_station_ft - sta_start)
+    messages = list(profile.warnings)
+    warn(messages, f"{profile.label}: stations moved by {shift:+.2f} ft with the wall "
+         f"(start_station_ft {format_station(start_station_ft)} instead of the alignment's "
+         f"staStart {format_station(sta_start)})")
+    st = profile.station_ft + shift
+    if isinstance(profile, CurvedProfile):
+        exact = profile.exact
+        return CurvedProfile(st, profile.elevation_ft, profile.label, tuple(messages),
+                             lambda s: exact(np.asarray(s, dtype=float) - shift))
+    return DrawingProfile(st, profile.elevation_ft, profile.label, tuple(messages))
+
+
+def _read_profile(path: Path, options: dict, label: str) -> DrawingProfile:
     doc = open_landxml(path, label)
     al = _named(doc, "Alignment", options["alignment"])
     name = options["profile"]

@@ -298,7 +298,7 @@ def read_grade(src, site_folder, *, alignment: Alignment, start_station_ft: floa
     if src.kind == "landxml":
         from .landxml import read_profile_landxml
 
-        return read_profile_landxml(src.path, options, label)
+        return read_profile_landxml(src.path, options, label, **along)
     if src.kind == "dxf":
         if options.get("labels") is not None:
             from .labels import read_label_grade

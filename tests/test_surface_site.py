@@ -228,3 +228,22 @@ def test_a_dxf_tin_without_offset_says_to_give_one(runner, tmp_path):
     res = runner.invoke(main, ["stations", str(site), "--out", str(tmp_path / "o")])
     assert res.exit_code == 2, res.output
     assert "3DFACE" in res.output and "give offset_ft" in res.output
+
+
+def test_a_profile_moves_with_its_alignment_when_the_start_station_is_given(runner, tmp_path):
+    site = make_surface_site(
+        tmp_path, retained='{ landxml = "grading.xml", alignment = "Wall A", profile = "TW" }',
+        wall_extra="start_station_ft = 1000.0")
+    out = tmp_path / "out"
+    res = runner.invoke(main, ["stations", str(site), "--out", str(out), "--no-plots"])
+    assert res.exit_code == 0, res.output
+    assert "stations moved by +500.00 ft with the wall" in res.output
+    f = pd.read_csv(out / "stations.csv")
+    # the same physical place as before: the PVI at 5+00 of the file is now 10+00
+    g1, g2 = 2.4 / 60, -2.4 / 140
+    st = f.station_ft - 500.0
+    x = st - 530.0
+    want = np.where(x < 0, 110 + g1 * (st - 500),
+                    np.where(x > 60, 112.4 + g2 * (st - 560),
+                             112.4 - g1 * 30 + g1 * x + (g2 - g1) * x**2 / 120))
+    assert np.abs(f.retained_grade_ft - want).max() < 1e-3
