@@ -6,6 +6,7 @@ between the two is a bug (DesignError, exit 1), never a silent pass.
 
 from __future__ import annotations
 
+import dataclasses
 import math
 from collections.abc import Mapping
 from dataclasses import dataclass
@@ -171,13 +172,21 @@ def wall_run(ws: StationSeries, c) -> np.ndarray | None:
     return np.arange(first, last + 1)
 
 
-def section_for(table: DesignTable, hc: float, geometry_at, inputs: DesignInputs):
+def section_for(table: DesignTable, hc: float, geometry_at, inputs: DesignInputs,
+                first=None):
     """The envelope section of the design table for ``hc`` checked at the segment's stations;
     if a station still fails, the next taller one (rare). Returns (section, checks, status):
-    section and checks None with a ``no_section`` status when nothing on the grid holds."""
+    section and checks None with a ``no_section`` status when nothing on the grid holds.
+    ``first``: (section, checks) of the first candidate, already checked
+    (:func:`_checked_first`)."""
     k0 = int(table.index(hc))
     tries = []
     seen = set()
+    if first is not None:
+        if bool(np.all(first[1].passes)):
+            return first[0], first[1], OK
+        tries.append(first)
+        seen.add(first[0].signature())
     for k in range(k0 if k0 >= 0 else len(table.choices), len(table.choices)):
         cand = table.choices[k].section
         if cand is None:
@@ -265,15 +274,88 @@ def _record_stations(out: _StationResults, q, idx, own, over, res, status) -> No
                 StatusCode.FAILS, str(w_names[jl]))
 
 
+BATCH_MIN_STATIONS = 64  # below this a wall's segments are checked one by one
+
+
+def _take(obj, sl: slice, n: int):
+    """``obj`` (check results: dataclasses, tuples and arrays over ``n`` stations) cut to the
+    stations ``sl``; arrays of any other length, and scalars, as they are."""
+    if isinstance(obj, np.ndarray):
+        return obj[sl] if obj.ndim >= 1 and obj.shape[0] == n else obj
+    if dataclasses.is_dataclass(obj) and not isinstance(obj, type):
+        # a shallow copy with the cut fields (no __init__: the results were validated once)
+        new = object.__new__(type(obj))
+        new.__dict__.update({k: _take(v, sl, n) for k, v in vars(obj).items()})
+        return new
+    if isinstance(obj, tuple):
+        items = [_take(x, sl, n) for x in obj]
+        return type(obj)(*items) if hasattr(obj, "_fields") else tuple(items)
+    if isinstance(obj, list):
+        return [_take(x, sl, n) for x in obj]
+    if isinstance(obj, dict):
+        return {k: _take(v, sl, n) for k, v in obj.items()}
+    return obj
+
+
+def _checked_first(wall: WallToDesign, table: DesignTable, pieces) -> list:
+    """For every piece, (section, checks) of its first candidate section of the table, the
+    stations of all pieces checked in one vectorized call per kind of section (with and
+    without a key) instead of one call per segment; None where a piece has no candidate."""
+    c, ws = wall.criteria, wall.stations
+    cases = []
+    for i0, i1, bf, tw, hc in pieces:
+        k0 = int(table.index(hc))
+        sec = table.choices[k0].section if 0 <= k0 < len(table.choices) else None
+        idx = np.arange(i0, i1 + 1)
+        cases.append((sec, idx, *station_cases(ws, idx, bf, tw, c["freeboard_ft"],
+                                               c["top_of_wall"])))
+    got: list = [None] * len(pieces)
+    for keyed in (False, True):
+        group = [q for q, (sec, *_rest) in enumerate(cases)
+                 if sec is not None and sec.has_key == keyed]
+        if not group:
+            continue
+        sizes = [cases[q][1].size for q in group]
+        n = int(sum(sizes))
+
+        def per_station(name, group=group, sizes=sizes):
+            return np.repeat([float(getattr(cases[q][0], name)) for q in group], sizes)
+
+        def bars(member, group=group, sizes=sizes):
+            specs = [getattr(cases[q][0], member) for q in group]
+            return BarArrays(np.repeat([b.size for b in specs], sizes),
+                             np.repeat([float(b.spacing_in) for b in specs], sizes))
+
+        h = np.concatenate([cases[q][2] for q in group])
+        geo = SectionGeometry(
+            retained_height_ft=np.maximum(h, MIN_CHECK_HEIGHT_FT),
+            embedment_ft=np.concatenate([cases[q][3] for q in group]),
+            footing_thickness_in=per_station("footing_thickness_in"),
+            stem_top_in=per_station("stem_top_in"), stem_base_in=per_station("stem_base_in"),
+            toe_ft=per_station("toe_ft"), heel_ft=per_station("heel_ft"),
+            key_width_in=per_station("key_width_in"), key_depth_in=per_station("key_depth_in"),
+            key_offset_ft=per_station("key_offset_ft") if keyed else None,
+            freeboard_ft=np.concatenate([cases[q][4] for q in group]))
+        reinf = Reinforcement(stem=bars("stem_bars"), heel=bars("heel_bars"),
+                              toe=bars("toe_bars"), horizontal=bars("horizontal_bars"),
+                              longitudinal=bars("footing_long_bars"))
+        res = check_section(geo, wall.inputs, reinf)
+        at = 0
+        for q, size in zip(group, sizes, strict=True):
+            got[q] = (cases[q][0], _take(res, slice(at, at + size), n))
+            at += size
+    return got
+
+
 def _design_segment(wall: WallToDesign, table: DesignTable, q, piece, last: bool, out,
-                    audit: bool) -> Segment:
+                    audit: bool, first=None) -> Segment:
     i0, i1, bf, tw, hc = piece
     c, ws = wall.criteria, wall.stations
     idx = np.arange(i0, i1 + 1)  # both ends are checked
     own = idx if last else idx[:-1]  # the end station goes to the next
     hs, emb, fb = station_cases(ws, idx, bf, tw, c["freeboard_ft"], c["top_of_wall"])
     sec, res, status = section_for(table, hc, lambda cand: station_geometry(cand, hs, emb, fb),
-                                   wall.inputs)
+                                   wall.inputs, first=first)
     if res is not None and not bool(np.all(res.passes)):
         bad = int(np.argmax(~np.asarray(res.passes)))
         status = Status(StatusCode.FAILS,
@@ -333,7 +415,10 @@ def design_wall(wall: WallToDesign, table: DesignTable, rates: CostRates, *,
                              ws.front_grade_ft[run], segment_rules(c, rates),
                              table.cost_per_ft, table.embedment_of)
     pieces = merge_identical(plan, run, ws.station_ft, table, c["segment_max_ft"])
-    segments = [_design_segment(wall, table, q, piece, q == len(pieces) - 1, out, audit)
+    batched = sum(p[1] - p[0] + 1 for p in pieces) >= BATCH_MIN_STATIONS
+    firsts = _checked_first(wall, table, pieces) if batched else [None] * len(pieces)
+    segments = [_design_segment(wall, table, q, piece, q == len(pieces) - 1, out, audit,
+                                first=firsts[q])
                 for q, piece in enumerate(pieces)]
     return WallDesign(
         wall=wall.wall, name=wall.name, retained_side=wall.retained_side, stations=ws,

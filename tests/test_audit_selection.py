@@ -98,3 +98,22 @@ def test_no_audit_says_so(tmp_path):
     site, stations, design_site = _long_site(tmp_path)
     sd = design_site(site, stations, audit=False)
     assert sd.audit_rule == "" and sd.walls[0].stations_audited == 0
+
+
+def test_segments_checked_in_one_call_equal_segments_checked_one_by_one(tmp_path, monkeypatch):
+    from wallsched.engine import wall_design
+
+    site, stations, design_site = _long_site(tmp_path)
+    batched = design_site(site, stations).walls[0]
+    monkeypatch.setattr(wall_design, "BATCH_MIN_STATIONS", 10**12)
+    single = design_site(site, stations).walls[0]
+    assert len(batched.segments) == len(single.segments) > 1
+    for a, b in zip(batched.segments, single.segments, strict=True):
+        assert (a.section, a.utilization_max, a.governing_check, a.fs_sliding, a.q_max_psf,
+                a.status) == (b.section, b.utilization_max, b.governing_check, b.fs_sliding,
+                              b.q_max_psf, b.status)
+    assert np.array_equal(batched.station_utilization, single.station_utilization,
+                          equal_nan=True)
+    assert batched.station_status == single.station_status
+    for name, ratios in single.station_checks.items():
+        assert np.array_equal(batched.station_checks[name], ratios, equal_nan=True), name
