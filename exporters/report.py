@@ -391,6 +391,33 @@ def _render_toc(pdf, outline, *, pages: int):
         pdf.add_page()
 
 
+def _used_in(text: str, most: int = 6) -> str:
+    parts = [p.strip() for p in str(text).split(",") if p.strip()]
+    return ", ".join(parts) if len(parts) <= most else (
+        ", ".join(parts[:most]) + f" and {len(parts) - most} more")
+
+
+def _bar_list_chapter(wr, bars, barlist) -> None:
+    """The bending schedule (one row per bar mark, site-wide) and the steel per wall; the
+    placing list per segment is ``rebar.csv`` (a table that grows with the segments)."""
+    from .dxf_elevation import format_ft_in
+
+    if barlist is not None and len(barlist):
+        rows = [[str(r.mark), f"#{r.size}", f"{r.count}", format_ft_in(r.length_ft), r.shape,
+                 f"{r.weight_lb:,.1f}", _used_in(r.used_in)] for r in barlist.itertuples()]
+        wr.table(["mark", "size", "count", "length", "shape", "weight lb", "used in"], rows,
+                 [14, 12, 14, 20, 16, 22, 82], size=7)
+        wr.para("Bending schedule: one row per bar mark (same size, shape and dimensions), "
+                "with its leg dimensions in barlist.csv; the placing list of every segment is "
+                "rebar.csv.", size=8)
+    per_wall = [[wid, f"{int(b['count'].sum())}", f"{b['weight_lb'].sum():,.1f}"]
+                for wid, b in bars.groupby("wall", sort=False)]
+    per_wall.append(["SITE", f"{int(bars['count'].sum())}", f"{bars['weight_lb'].sum():,.1f}"])
+    wr.table(["wall", "bars", "weight lb"], per_wall, [30, 25, 30], size=7)
+    wr.para("ASTM A615 Grade 60. Hooks per ACI 318-19 Table 25.3.1; laps Class B per "
+            "ACI 318-19 25.5.2.", size=8)
+
+
 def write_report(run, sd, path, *, diff=None, date: _dt.date | None = None) -> Path:
     """Write the calc package to ``path`` (``report.pdf``); returns the path.
 
@@ -665,19 +692,7 @@ def write_report(run, sd, path, *, diff=None, date: _dt.date | None = None) -> P
     if bars is None:
         wr.para("No bars: no wall needed.")
     else:
-        brow = [[r.wall, r.segment, r.mark, f"#{r.size}", f"{r.spacing_in:g}", f"{r.count}",
-                 format_ft_in(r.length_ft), r.shape, f"{r.weight_lb:,.1f}"]
-                for r in bars.itertuples()]
-        for wid in dict.fromkeys(bars["wall"]):
-            b = bars[bars["wall"] == wid]
-            brow.append([wid, "WALL TOTAL", "", "", "", f"{int(b['count'].sum())}", "", "",
-                         f"{b['weight_lb'].sum():,.1f}"])
-        brow.append(["SITE", "TOTAL", "", "", "", f"{int(bars['count'].sum())}", "", "",
-                     f"{bars['weight_lb'].sum():,.1f}"])
-        wr.table(["wall", "segment", "mark", "size", "spacing in", "count", "cut length",
-                  "shape", "weight lb"], brow, [14, 22, 14, 14, 20, 16, 24, 40, 22], size=7)
-        wr.para("ASTM A615 Grade 60. Hooks per ACI 318-19 Table 25.3.1; laps Class B per "
-                "ACI 318-19 25.5.2.", size=8)
+        _bar_list_chapter(wr, bars, sd.barlist)
 
     # ---- revision
     if diff is not None:
