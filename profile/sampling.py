@@ -17,7 +17,7 @@ from ..errors import ProfileError
 from .core import Alignment, GradeProfile
 from .stationing import format_station, format_stations
 
-MERGE_TOL_FT = 1e-6  # stations closer than this are one station
+MERGE_TOL_FT = 1e-3  # stations closer than this (0.012 in) are one: the first (a break if any)
 MAX_STATIONS_PER_WALL = 50_000  # stated in the README: bounded time and memory per wall
 # A retained height beyond this is a data error (a grade in metres, a file of another wall),
 # not a wall: twice the top of the max_retained_height_ft range (40 ft) would not be a
