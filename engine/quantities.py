@@ -19,7 +19,12 @@ Method (stated here so the estimator can check it by hand):
   inside it, plus the fill placed above existing ground behind the stem (from the back face to
   the heel edge plus working room, up to the retained grade but not above the top of wall).
   Fill below the footing where existing ground lies below it is a geotechnical item, not counted.
-- Without existing ground both are blank (NaN) and :data:`NO_EARTHWORK` says why.
+- Without existing ground both are blank (NaN) and the ``earthwork_note`` column says why
+  (:data:`NO_EARTHWORK`). The cost then counts the same trench dug from the front grade
+  (:func:`excavation_for_cost_cy`), the finished grade standing in for the ground: an
+  estimate, said so wherever the cost is printed.
+- ``working_room_ft`` and ``trench_side_slope_h_per_v`` are keys of ``[criteria]`` (a wall may
+  override them); :func:`earthwork_options` reads them with these defaults.
 - **Steel** is the bar list's weight (engine/detailing.py).
 
 1 CY = 27 cf.
@@ -41,10 +46,23 @@ WORKING_ROOM_FT = 2.0  # each side of the footing, for forming and inspection (c
 SIDE_SLOPE_H_PER_V = 1.0  # 1H:1V (OSHA 29 CFR 1926 Subpart P App. B, Type B; from memory)
 INTEGRATION_STEP_FT = 0.25
 NO_EARTHWORK = "no existing ground given (existing_ground in [[walls]])"
+# a segment's note where its earthwork is blank: why, and what its cost counts instead
+EARTHWORK_NOTE = (f"{NO_EARTHWORK}; excavation and backfill not computed, the cost counts the "
+                  "trench dug from the front grade (an estimate)")
 
 QUANTITY_COLUMNS = ["wall", "segment", "mark", "station_start_ft", "station_end_ft", "length_ft",
                     "stem_cy", "footing_cy", "key_cy", "concrete_cy", "steel_lb", "formwork_sf",
-                    "excavation_cy", "backfill_cy"]
+                    "excavation_cy", "backfill_cy", "earthwork_note"]
+
+
+def earthwork_options(criteria=None) -> dict[str, float]:
+    """The trench of the earthwork quantities from a wall's criteria (defaults where absent):
+    keyword arguments of :func:`segment_quantities` and :func:`wall_quantities`."""
+    c = criteria or {}
+    room = c.get("working_room_ft")
+    slope = c.get("trench_side_slope_h_per_v")
+    return {"working_room_ft": WORKING_ROOM_FT if room is None else float(room),
+            "side_slope_h_per_v": SIDE_SLOPE_H_PER_V if slope is None else float(slope)}
 
 
 @dataclass(frozen=True)
@@ -105,10 +123,14 @@ def formwork_sf(seg: Segment) -> float:
 
 
 def _earthwork_cf(seg: Segment, stations, working_room_ft: float,
-                  side_slope_h_per_v: float = SIDE_SLOPE_H_PER_V) -> tuple[float, float]:
+                  side_slope_h_per_v: float = SIDE_SLOPE_H_PER_V,
+                  ground_ft=None) -> tuple[float, float]:
+    """(excavation, backfill) in cf from the existing ground (or ``ground_ft``, a surface
+    per station)."""
     sec = seg.section
     st = np.asarray(stations.station_ft, dtype=float)
-    eg_all = np.asarray(stations.existing_ground_ft, dtype=float)
+    eg_all = np.asarray(stations.existing_ground_ft if ground_ft is None else ground_ft,
+                        dtype=float)
     if sec is None or np.isnan(eg_all).all():
         return math.nan, math.nan
     a, b = seg.station_start_ft, seg.station_end_ft
@@ -155,6 +177,21 @@ def segment_quantities(seg: Segment, stations=None, *,
                              excavation_cy=exc / CF_PER_CY, backfill_cy=bkf / CF_PER_CY)
 
 
+def excavation_for_cost_cy(seg: Segment, stations, *,
+                           working_room_ft: float = WORKING_ROOM_FT,
+                           side_slope_h_per_v: float = SIDE_SLOPE_H_PER_V) -> float:
+    """The excavation a segment's cost counts, CY: the takeoff's (``seg.excavation_cy``) when
+    existing ground is given; otherwise the same trench dug from the front grade (an estimate:
+    the finished grade in front of the wall stands in for the ground). NaN without a section."""
+    if seg.section is None:
+        return math.nan
+    if math.isfinite(seg.excavation_cy):
+        return seg.excavation_cy
+    exc, _ = _earthwork_cf(seg, stations, working_room_ft, side_slope_h_per_v,
+                           ground_ft=stations.front_grade_ft)
+    return exc / CF_PER_CY
+
+
 def wall_quantities(design: WallDesign, bars: pd.DataFrame | None = None, *,
                     working_room_ft: float = WORKING_ROOM_FT,
                     side_slope_h_per_v: float = SIDE_SLOPE_H_PER_V, **bar_kw) -> pd.DataFrame:
@@ -172,19 +209,33 @@ def wall_quantities(design: WallDesign, bars: pd.DataFrame | None = None, *,
                      "stem_cy": q.stem_cy, "footing_cy": q.footing_cy, "key_cy": q.key_cy,
                      "concrete_cy": q.concrete_cy, "steel_lb": steel.get(seg.segment, 0.0),
                      "formwork_sf": q.formwork_sf, "excavation_cy": q.excavation_cy,
-                     "backfill_cy": q.backfill_cy})
+                     "backfill_cy": q.backfill_cy,
+                     "earthwork_note": "" if math.isfinite(q.excavation_cy) or seg.section is None
+                     else EARTHWORK_NOTE})
     return pd.DataFrame(rows, columns=QUANTITY_COLUMNS)
 
 
 def quantity_totals(frame: pd.DataFrame) -> pd.DataFrame:
-    """Sums per wall and for the site (``wall="SITE"``); NaN earthwork stays NaN only if all are."""
+    """Sums per wall and for the site (``wall="SITE"``); NaN earthwork stays NaN only if all are,
+    and ``earthwork_note`` says which walls had no existing ground."""
     cols = ["length_ft", "stem_cy", "footing_cy", "key_cy", "concrete_cy", "steel_lb",
             "formwork_sf", "excavation_cy", "backfill_cy"]
+    def note(g) -> str:
+        blank = g.loc[g["excavation_cy"].isna() & (g["concrete_cy"] > 0), "wall"].unique()
+        if not len(blank):
+            return ""
+        if len(blank) == g.loc[g["concrete_cy"] > 0, "wall"].nunique():
+            return NO_EARTHWORK
+        return (f"excavation and backfill of the walls with existing ground only; "
+                f"{NO_EARTHWORK} for {', '.join(map(str, blank))}")
+
     out = []
     for wall, g in frame.groupby("wall", sort=False):
-        out.append({"wall": wall, **{c: float(g[c].sum(min_count=1)) for c in cols}})
-    out.append({"wall": "SITE", **{c: float(frame[c].sum(min_count=1)) for c in cols}})
-    return pd.DataFrame(out, columns=["wall", *cols])
+        out.append({"wall": wall, **{c: float(g[c].sum(min_count=1)) for c in cols},
+                    "earthwork_note": note(g)})
+    out.append({"wall": "SITE", **{c: float(frame[c].sum(min_count=1)) for c in cols},
+                "earthwork_note": note(frame)})
+    return pd.DataFrame(out, columns=["wall", *cols, "earthwork_note"])
 
 
 def with_quantities(design: WallDesign, bars: pd.DataFrame | None = None, *,
@@ -194,6 +245,12 @@ def with_quantities(design: WallDesign, bars: pd.DataFrame | None = None, *,
     backfill_cy filled from these quantities and the bar list."""
     q = wall_quantities(design, bars, working_room_ft=working_room_ft,
                         side_slope_h_per_v=side_slope_h_per_v, **bar_kw)
+    return apply_quantities(design, q)
+
+
+def apply_quantities(design: WallDesign, q: pd.DataFrame) -> WallDesign:
+    """The design with every segment's quantities taken from the frame ``q``
+    (:func:`wall_quantities` of it)."""
     by_id = {r.segment: r for r in q.itertuples(index=False)}
     segs = tuple(replace(s, concrete_cy=by_id[s.segment].concrete_cy,
                          steel_lb=by_id[s.segment].steel_lb,

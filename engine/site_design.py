@@ -115,18 +115,15 @@ def _keep_segment_ids(wall: str, segs, previous: PreviousRun):
     return out
 
 
-def segment_cost(seg, rates: CostRates, front_grade_avg_ft: float) -> float:
-    """$ of a segment from its quantities (excavation estimated from the front grade when no
-    existing ground is given: the footing footprint down from the front grade)."""
+def segment_cost(seg, rates: CostRates, excavation_cy: float) -> float:
+    """$ of a segment from its quantities; ``excavation_cy`` is the excavation it counts
+    (``engine.quantities.excavation_for_cost_cy``: the takeoff's with existing ground, else
+    the same trench dug from the front grade)."""
     if seg.section is None:
         return math.nan
-    exc = seg.excavation_cy
-    if not math.isfinite(exc):
-        depth = max(front_grade_avg_ft - seg.bottom_of_footing_ft,
-                    seg.section.footing_thickness_in / 12.0)
-        exc = seg.section.footing_width_ft * depth * seg.length_ft / 27.0
     return (rates.concrete_usd_per_cy * seg.concrete_cy + rates.steel_usd_per_lb * seg.steel_lb
-            + rates.formwork_usd_per_sf * seg.formwork_sf + rates.excavation_usd_per_cy * exc)
+            + rates.formwork_usd_per_sf * seg.formwork_sf
+            + rates.excavation_usd_per_cy * excavation_cy)
 
 
 def needed_height_ft(ws: StationSeries, c) -> float:
@@ -238,28 +235,33 @@ def marked_tables(walls: Sequence[WallToDesign], keys, tables, plans, grid: Sizi
     return out
 
 
-def detailed(design: WallDesign, inputs: DesignInputs, rates: CostRates | None = None
-             ) -> WallDesign:
-    """The design with its bar list, quantities (per segment and as a frame), the bar details
-    of its section marks and, given ``rates``, the cost of every segment."""
+def detailed(design: WallDesign, inputs: DesignInputs, rates: CostRates | None = None,
+             criteria=None) -> WallDesign:
+    """The design with its bar list, quantities (per segment and as a frame; the trench of
+    the earthwork from ``criteria``), the bar details of its section marks and, given
+    ``rates``, the cost of every segment."""
     import pandas as pd
 
     from .detailing import section_detail, wall_bar_list
-    from .quantities import wall_quantities, with_quantities
+    from .quantities import (
+        apply_quantities,
+        earthwork_options,
+        excavation_for_cost_cy,
+        wall_quantities,
+    )
 
+    trench = earthwork_options(criteria)
     bars = wall_bar_list(design, fc_psi=inputs.fc_psi, fy_psi=inputs.fy_psi)
-    d = with_quantities(design, bars if len(bars) else pd.DataFrame(columns=bars.columns))
+    if not len(bars):
+        bars = pd.DataFrame(columns=bars.columns)
+    q = wall_quantities(design, bars, **trench)
+    d = apply_quantities(design, q)
     if rates is not None:
-        fg = d.stations.front_grade_ft
-        st = d.stations.station_ft
-        segs = []
-        for s in d.segments:
-            m = (st >= s.station_start_ft) & (st <= s.station_end_ft)
-            segs.append(replace(s, cost_usd=segment_cost(s, rates, float(np.mean(fg[m])))))
-        d = replace(d, segments=tuple(segs))
-    quantities = wall_quantities(d, bars) if d.segments else None
+        d = replace(d, segments=tuple(
+            replace(s, cost_usd=segment_cost(s, rates, excavation_for_cost_cy(
+                s, d.stations, **trench))) for s in d.segments))
     details = {mark: section_detail(sec) for mark, sec in d.marks().items()}
-    return replace(d, bars=bars, quantities=quantities, details=details)
+    return replace(d, bars=bars, quantities=q if d.segments else None, details=details)
 
 
 def _site_bars(walls: Sequence[WallDesign]):
@@ -355,7 +357,8 @@ def design_site(walls: Sequence[WallToDesign], grid: SizingGrid, rates: CostRate
     by_wall = {wall.wall: wall for wall in walls}
 
     def detail_group(group: Sequence[WallDesign]) -> list[WallDesign]:
-        return [detailed(d, by_wall[d.wall].inputs, rates) for d in group]
+        return [detailed(d, by_wall[d.wall].inputs, rates,
+                         by_wall[d.wall].criteria) for d in group]
 
     out = tuple(d for got in (map_fn or map)(detail_group, _groups(designs, chunks))
                 for d in got)

@@ -168,7 +168,7 @@ def _write(design, path: Path, *, input_hash, site_name, ve, bars, quantities,
               label_interval_ft=label_interval_ft, revisions=revisions,
               revision_tag=revision_tag, date=date,
               revision=revision or (revision_tag if revisions else "0"),
-              notes=_notes(ve, input_hash, site_name),
+              notes=_notes(ve, input_hash, site_name, quantities),
               schedule_headers=SCHEDULE_HEADERS,
               schedule_rows=_schedule_rows(design, quantities),
               bending_headers=BENDING_HEADERS,
@@ -254,7 +254,11 @@ def _bending_rows(bending) -> list[list[str]]:
     return rows
 
 
-def _notes(ve: float, input_hash: str, site_name: str) -> list[str]:
+def _notes(ve: float, input_hash: str, site_name: str, quantities=None) -> list[str]:
+    blank = []
+    if quantities is not None and "earthwork_note" in quantities.columns:
+        blank = sorted({n for n in quantities["earthwork_note"] if n})
+    earthwork = [f"EXCAV CY and BACKFILL CY blank: {n}." for n in blank]
     return [
         "Elevations in feet; stations in feet along the wall alignment (12+00 notation).",
         "TW top of wall, BW bottom of wall (finished grade at the front face), TF top of "
@@ -269,6 +273,7 @@ def _notes(ve: float, input_hash: str, site_name: str) -> list[str]:
         "schedule's mark in brackets. Bending legs out to out (A long leg, G hook, J 180-degree "
         "hook width).",
         "CJ contraction joint, EJ expansion joint.",
+        *earthwork,
         f"Site: {site_name}. Made with wallsched. Inputs: {input_hash}",
     ]
 

@@ -25,7 +25,7 @@ SCHEDULE_COLUMNS = [  # DESIGN.md section 5, in this order
 EXTRA_COLUMNS = ["station_start", "station_end", "mark", "design_height_ft", "governing_check",
                  "governing_station", "footing_long_bars", "formwork_sf", "excavation_cy",
                  "backfill_cy", "cost_usd", "governing_ratio", "detailing_at_limit",
-                 "warnings"]
+                 "warnings", "earthwork_note"]
 UNITS = {
     "station_start_ft": "ft", "station_end_ft": "ft", "length_ft": "ft",
     "retained_height_max_ft": "ft", "top_of_wall_ft": "ft (elev.)",
@@ -56,6 +56,10 @@ def schedule_frame(walls, warnings=()) -> pd.DataFrame:
     rows = []
     for w in walls:
         wall_warn = wall_warnings(w.wall, warnings)
+        notes = {}
+        if w.quantities is not None and "earthwork_note" in w.quantities.columns:
+            notes = dict(zip(w.quantities["segment"], w.quantities["earthwork_note"],
+                             strict=True))
         for s in w.segments:
             sec = s.section
             dims = {k: (getattr(sec, k) if sec is not None else math.nan) for k in (
@@ -86,6 +90,7 @@ def schedule_frame(walls, warnings=()) -> pd.DataFrame:
                 "footing_long_bars": _bar(sec and sec.footing_long_bars),
                 "formwork_sf": s.formwork_sf, "excavation_cy": s.excavation_cy,
                 "backfill_cy": s.backfill_cy, "cost_usd": s.cost_usd, "warnings": wall_warn,
+                "earthwork_note": notes.get(s.segment, ""),
             })
     return pd.DataFrame(rows, columns=SCHEDULE_COLUMNS + EXTRA_COLUMNS)
 

@@ -121,3 +121,14 @@ def test_hook_legs():
 def test_natural_order_of_marks():
     assert sorted(["AA", "B", "Z", "A"], key=natural_key) == ["A", "B", "Z", "AA"]
     assert sorted(["W1-10", "W1-2"], key=natural_key) == ["W1-2", "W1-10"]
+
+
+def test_sheets_say_why_earthwork_is_blank(tmp_path):
+    bare = make_design(existing_ground=False)
+    for design, said in ((bare, True), (make_design(), False)):
+        path = de.write_elevation_dxf(design, tmp_path / f"{said}.dxf", input_hash="h",
+                                      site_name="S")
+        first = ezdxf.readfile(path).layouts.get(
+            [n for n in ezdxf.readfile(path).layout_names_in_taborder() if n != "Model"][0])
+        notes = " ".join(t.dxf.text for t in first.query("TEXT"))
+        assert ("EXCAV CY and BACKFILL CY blank: no existing ground given" in notes) is said

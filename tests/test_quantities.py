@@ -104,3 +104,98 @@ def test_totals_per_wall_and_site():
     assert tot.loc["SITE", "concrete_cy"] == pytest.approx(q["concrete_cy"].sum())
     assert tot.loc["W1", "concrete_cy"] == pytest.approx(frames[0]["concrete_cy"].sum())
     assert tot.loc["SITE", "length_ft"] == pytest.approx(360.0)
+
+
+# --- issue 16: earthwork for every segment with existing ground; a reason without it ------
+
+
+def _design_site(folder, *, wall_extra: str = "", extra: str = "", existing=True):
+    from sitekit import SMALL_GRID, make_site, write
+
+    from wallsched.design import design_site
+    from wallsched.pipeline import site_stations
+    from wallsched.site import load_site
+
+    if existing:
+        write(folder / "eg.csv", "station,elevation\n0,101.5\n50,104.0\n100,101.0\n")
+        wall_extra = 'existing_ground = "eg.csv"\n' + wall_extra
+    site = load_site(make_site(folder, extra=SMALL_GRID + extra, wall_extra=wall_extra))
+    return site, design_site(site, site_stations(site), audit=False)
+
+
+def test_every_segment_has_earthwork_with_existing_ground(tmp_path):
+    from wallsched.exporters.schedule import schedule_frame
+
+    _, sd = _design_site(tmp_path)
+    frame = schedule_frame(sd.walls)
+    assert len(frame) >= 1
+    assert frame["excavation_cy"].gt(0).all() and frame["backfill_cy"].gt(0).all()
+    assert (frame["earthwork_note"] == "").all()
+    tot = sd.quantity_totals.set_index("wall")
+    assert tot.loc["SITE", "excavation_cy"] == pytest.approx(frame["excavation_cy"].sum())
+    assert tot.loc["SITE", "earthwork_note"] == ""
+
+
+def test_without_existing_ground_blank_with_the_reason(tmp_path):
+    from wallsched.exporters.schedule import schedule_frame
+
+    _, sd = _design_site(tmp_path, existing=False)
+    frame = schedule_frame(sd.walls)
+    assert frame["excavation_cy"].isna().all() and frame["backfill_cy"].isna().all()
+    assert (frame["earthwork_note"] == qt.EARTHWORK_NOTE).all()
+    assert "no existing ground given" in qt.EARTHWORK_NOTE
+    assert sd.quantity_totals.set_index("wall").loc["SITE", "earthwork_note"] == \
+        qt.NO_EARTHWORK
+
+
+def test_site_total_names_the_walls_without_existing_ground():
+    import pandas as pd
+
+    with_eg = qt.wall_quantities(make_design("W1"))
+    without = qt.wall_quantities(make_design("W2", existing_ground=False))
+    tot = qt.quantity_totals(pd.concat([with_eg, without], ignore_index=True)).set_index("wall")
+    assert tot.loc["SITE", "excavation_cy"] == pytest.approx(with_eg["excavation_cy"].sum())
+    assert tot.loc["SITE", "earthwork_note"].endswith(f"{qt.NO_EARTHWORK} for W2")
+    assert tot.loc["W1", "earthwork_note"] == ""
+
+
+def test_the_cost_counts_the_takeoffs_excavation(tmp_path):
+    from wallsched.engine.sizing import CostRates
+
+    site, sd = _design_site(tmp_path)
+    rates = CostRates.from_table(site.costs)
+    for s in sd.walls[0].segments:
+        # $ = concrete + steel + formwork + excavation at the unit rates  # [costs]
+        hand = (rates.concrete_usd_per_cy * s.concrete_cy + rates.steel_usd_per_lb * s.steel_lb
+                + rates.formwork_usd_per_sf * s.formwork_sf
+                + rates.excavation_usd_per_cy * s.excavation_cy)
+        assert s.cost_usd == pytest.approx(hand)
+
+
+def test_without_existing_ground_the_cost_counts_the_trench_from_the_front_grade(tmp_path):
+    from wallsched.engine.sizing import CostRates
+
+    site, sd = _design_site(tmp_path, existing=False)
+    rates = CostRates.from_table(site.costs)
+    w = sd.walls[0]
+    # the same trench, with the front grade given as the existing ground
+    as_ground = replace(w.stations, existing_ground_ft=w.stations.front_grade_ft.copy())
+    for s in w.segments:
+        exc = qt.segment_quantities(s, as_ground).excavation_cy
+        assert exc > 0
+        hand = (rates.concrete_usd_per_cy * s.concrete_cy + rates.steel_usd_per_lb * s.steel_lb
+                + rates.formwork_usd_per_sf * s.formwork_sf + rates.excavation_usd_per_cy * exc)
+        assert s.cost_usd == pytest.approx(hand)
+
+
+def test_trench_keys_of_the_site_file_reach_the_quantities(tmp_path):
+    site, sd = _design_site(tmp_path / "a", wall_extra="working_room_ft = 3.5\n"
+                                                       "trench_side_slope_h_per_v = 0.5\n")
+    assert site.walls[0].criteria["working_room_ft"] == 3.5
+    w = sd.walls[0]
+    for s in w.segments:
+        q = qt.segment_quantities(s, w.stations, working_room_ft=3.5, side_slope_h_per_v=0.5)
+        assert s.excavation_cy == pytest.approx(q.excavation_cy)
+        assert s.backfill_cy == pytest.approx(q.backfill_cy)
+        default = qt.segment_quantities(s, w.stations)
+        assert s.excavation_cy != pytest.approx(default.excavation_cy)

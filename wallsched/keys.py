@@ -151,6 +151,13 @@ CRITERIA_KEYS = {
     "design_height_increment_ft": Key(float, 1.0, lo=0.01, hi=5,
                                       doc="design heights rounded up to this, ft (common "
                                           "practice: walls tabulated by height)"),
+    # excavation and backfill quantities (engine/quantities.py), with existing ground given
+    "working_room_ft": Key(float, 2.0, lo=0, hi=20,
+                           doc="trench floor beyond each footing edge, ft (common practice)"),
+    "trench_side_slope_h_per_v": Key(float, 1.0, lo=0, hi=5,
+                                     doc="trench sides, horizontal per 1 vertical (1.0: OSHA 29 "
+                                         "CFR 1926 Subpart P App. B, Type B soil, from memory; "
+                                         "0: vertical sides)"),
     # strength options, ACI 318-19 (the section check; DESIGN.md section 7)
     "cover_stem_in": Key(float, None, lo=0.75, hi=6,
                          doc="clear cover to the stem bars, in (default ACI 318-19 Table "
