@@ -20,6 +20,7 @@ from fractions import Fraction
 from pathlib import Path
 
 from ..profile.stationing import format_station
+from .dxf_elev_view import _tw_ends
 from .dxf_style import TEXT_STYLE
 from .file_names import wall_file_stem
 
@@ -52,8 +53,6 @@ LINEWEIGHTS = {"C-WALL-OTLN": 50, "C-WALL-FTNG": 35, "C-WALL-GRID": 13, "C-WALL-
 # revision clouds and tags (drawn only when a comparison run gives changed station ranges)
 REVISION_LAYER = "C-ANNO-REVS"
 REVISION_LAYER_STYLE = (1, "Continuous", "revision clouds and revision tags")
-CLOUD_CHORD_FT = 6.0  # scallop chord, drawn ft (0.3" at 1" = 20')
-CLOUD_ARC_DEG = 120.0  # included angle of each scallop
 POLYLINE_LAYERS = ("C-WALL-OTLN", "C-WALL-FTNG", "C-GRAD-RETD", "C-GRAD-FRNT", "C-GRAD-EXST")
 
 
@@ -77,18 +76,6 @@ def format_ft_in(value_ft: float) -> str:
 
 def format_elev(value_ft: float) -> str:
     return f"{value_ft:.2f}"
-
-
-def station_interval_ft(length_ft: float) -> float:
-    """Station labels every 25, 50 or 100 ft by the wall's length."""
-    if length_ft <= 300:
-        return 25.0
-    if length_ft <= 800:
-        return 50.0
-    return 100.0
-
-
-from .dxf_elev_view import _bottom_ft, _runs, _tw_ends, cloud_arcs  # noqa: E402,F401 - shared
 
 
 def write_elevation_dxf(design, path, *, input_hash: str, site_name: str,

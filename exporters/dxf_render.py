@@ -43,7 +43,9 @@ def render_dxf_png(dxf_path, png_path, *, dpi: int = 150, width_in: float = 24.0
         ctx = RenderContext(doc)
         if layout is not None:
             ctx.set_current_layout(space)
-        Frontend(ctx, MatplotlibBackend(ax), config=cfg).draw_layout(space, finalize=True)
+        # the figure keeps the size asked for (the backend would shrink it to its aspect)
+        backend = MatplotlibBackend(ax, adjust_figure=False)
+        Frontend(ctx, backend, config=cfg).draw_layout(space, finalize=True)
         if window is not None:
             ax.set_xlim(window[0], window[2])
             ax.set_ylim(window[1], window[3])

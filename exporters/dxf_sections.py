@@ -25,7 +25,10 @@ from .dxf_style import (
 )
 from .label_layout import text_box, text_width
 
-LABEL_ROOM_IN = 1.9  # plotted room beside a section for its bar labels, each side
+SECTIONS_PER_SHEET = 6  # typical sections wanted on one sheet (common practice: few sheets)
+SMALLEST_SCALE_FT_PER_IN = 4.0  # 1/4" = 1'-0": below it bar marks crowd the section
+LABEL_ROOM_IN = 2.5  # plotted room beside a section for its bar labels, each side (the reach
+# of the leaders, 0.75", and the longest label, about 1.7" at 0.08")
 BELOW_ROOM_IN = 1.25  # plotted room below a section: dimension rows and the title
 
 
@@ -67,22 +70,28 @@ def _stem_height(design, mark) -> float:
 
 def plan_grid(design, area_w_in: float, area_h_in: float, origin) -> SectionGrid:
     """The largest architectural scale at which a cell holds the biggest section and a sheet
-    holds at least two cells (or all, if fewer)."""
+    holds :data:`SECTIONS_PER_SHEET` cells (or all, if fewer); where that needs a scale
+    smaller than :data:`SMALLEST_SCALE_FT_PER_IN`, the largest at which it holds two."""
     marks = design.marks()
     widths = [sec.footing_width_ft for sec in marks.values()]
     heights = [_stem_height(design, m) + sec.footing_thickness_in / 12.0
                + (sec.key_depth_in / 12.0 if sec.has_key else 0.0) for m, sec in marks.items()]
     w_max, h_max = max(widths), max(heights)
-    want = min(len(marks), 2)
-    choice = None
-    for ft_per_in, text in ARCHITECTURAL_SCALES:
-        cw = w_max + 2 * LABEL_ROOM_IN * ft_per_in
-        ch = h_max + (BELOW_ROOM_IN + 0.9) * ft_per_in
-        cols = int(area_w_in * ft_per_in // cw)
-        rows = int(area_h_in * ft_per_in // ch)
-        choice = (ft_per_in, text, cw, ch, max(cols, 1), max(rows, 1))
-        if cols >= 1 and rows >= 1 and cols * rows >= want:
-            break
+    def fit(want):
+        choice = None
+        for ft_per_in, text in ARCHITECTURAL_SCALES:
+            cw = w_max + 2 * LABEL_ROOM_IN * ft_per_in
+            ch = h_max + (BELOW_ROOM_IN + 0.9) * ft_per_in
+            cols = int(area_w_in * ft_per_in // cw)
+            rows = int(area_h_in * ft_per_in // ch)
+            choice = (ft_per_in, text, cw, ch, max(cols, 1), max(rows, 1))
+            if cols >= 1 and rows >= 1 and cols * rows >= want:
+                break
+        return choice
+
+    choice = fit(min(len(marks), SECTIONS_PER_SHEET))
+    if choice[0] > SMALLEST_SCALE_FT_PER_IN:
+        choice = fit(min(len(marks), 2))
     ft_per_in, text, cw, ch, cols, rows = choice
     cols = min(cols, len(marks)) if rows == 1 else cols
     return SectionGrid(ft_per_in, text, cw, ch, cols, rows, origin)

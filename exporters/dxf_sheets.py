@@ -8,7 +8,6 @@ the wall, the sheet title, its scale, date, revision and "sheet n of m".
 
 from __future__ import annotations
 
-import math
 from dataclasses import dataclass
 
 from ..cautions import CAUTIONS
@@ -213,6 +212,3 @@ def pages(rows: list, per_page: int) -> list[list]:
         return [[]]
     return [rows[i:i + per_page] for i in range(0, len(rows), per_page)]
 
-
-def sheet_count(n_rows: int, per_page: int) -> int:
-    return max(1, math.ceil(n_rows / per_page))

@@ -110,7 +110,9 @@ def draw_wall(doc, design, *, bars, site_name: str, ve: float, sheet_size: str,
         name = _layout_name(design.wall, number)
         psp = new_sheet(doc, name, size)
         info = TitleInfo(site_name, wall_text, title, scale_text, date, revision, number, total)
-        ppen, _ = draw_frame(psp, size, info, notes)
+        # the cautions on every sheet; the general notes once, on the first (common practice)
+        ppen, _ = draw_frame(psp, size, info, notes if number == 1 else [
+            f"General notes: sheet 1 of {total}."])
         return psp, ppen
 
     # sheet 1: plan above, first strip below

@@ -187,8 +187,6 @@ def test_format_ft_in():
     assert de.format_ft_in(1.5) == "1'-6\""
     assert de.format_ft_in(9 + 4 / 12) == "9'-4\""
     assert de.format_ft_in(0.3125) == "0'-3 3/4\""
-    assert de.station_interval_ft(180) == 25 and de.station_interval_ft(500) == 50
-    assert de.station_interval_ft(1500) == 100
 
 
 def test_render_png(drawn, tmp_path):

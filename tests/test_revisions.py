@@ -14,6 +14,7 @@ from click.testing import CliRunner
 from sitekit import SMALL_GRID, make_site
 from wallsched.exporters import dxf_elevation as de
 from wallsched.exporters.diff import DIFF_COLUMNS, LENGTH_TOL_FT, diff_runs
+from wallsched.exporters.dxf_elev_view import cloud_arcs
 from wallsched.exporters.dxf_render import render_dxf_png
 
 from wallsched.cli import main
@@ -135,7 +136,7 @@ def test_dxf_has_a_revision_cloud_around_the_changed_range(runs, tmp_path):
 
 def test_cloud_arcs_meet_on_the_outline_and_bulge_outward():
     x0, y0, x1, y1 = 10.0, 5.0, 40.0, 17.0
-    arcs = de.cloud_arcs(x0, y0, x1, y1, chord_ft=6.0, arc_deg=120.0)
+    arcs = cloud_arcs(x0, y0, x1, y1, chord_ft=6.0, arc_deg=120.0)
     # sides of 30 and 12 ft in chords of about 6 ft: 5 + 2 + 5 + 2 scallops
     assert len(arcs) == 14
     prev_end = None
