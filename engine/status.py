@@ -16,11 +16,14 @@ class StatusCode(Enum):
     OVER_LIMIT = "over_limit"  # retained height above max_retained_height_ft
     NO_SECTION = "no_section"  # nothing on the sizing grid holds the design height
     FAILS = "fails"  # the section fails a check at a station
+    GRADES_CROSS = "grades_cross"  # the front grade stands above the retained grade at a station
 
     @property
     def failing(self) -> bool:
-        """Could not be designed within the limits (exit code 3)."""
-        return self in (StatusCode.OVER_LIMIT, StatusCode.NO_SECTION, StatusCode.FAILS)
+        """Could not be designed within the limits (exit code 3): where the grades cross the
+        soil is retained from the other side, which no check of the section covers."""
+        return self in (StatusCode.OVER_LIMIT, StatusCode.NO_SECTION, StatusCode.FAILS,
+                        StatusCode.GRADES_CROSS)
 
 
 class Status(str):

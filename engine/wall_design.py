@@ -24,6 +24,8 @@ from .segments import SegmentRules, place_joints, plan_segments
 from .sizing import CostRates, DesignTable
 from .status import OK, Status, StatusCode
 
+CROSS_TOLERANCE_FT = 1e-6  # front grade above retained grade by more: the grades cross
+CROSS_STATUS = Status(StatusCode.GRADES_CROSS, "the front grade is above the retained grade")
 MIN_CHECK_HEIGHT_FT = 0.05  # a station with less (or a flipped side) is checked at this height
 NO_WALL_STATUS = Status(StatusCode.NO_WALL, "retained height below min_retained_height_ft")
 OVER_LIMIT_STATUS = Status(StatusCode.OVER_LIMIT,
@@ -362,6 +364,14 @@ def _design_segment(wall: WallToDesign, table: DesignTable, q, piece, last: bool
                         f"{res.worst[bad]} at station {ws.station_ft[idx][bad]:.2f}; no "
                         f"larger section of the design table holds it (widen [sizing] or "
                         f"revisit the soil and loads)")
+    cross = ws.retained_grade_ft[idx] < ws.front_grade_ft[idx] - CROSS_TOLERANCE_FT
+    if cross.any() and (status.ok or status.code is StatusCode.FAILS):
+        kk = int(np.argmin(ws.retained_grade_ft[idx] - ws.front_grade_ft[idx]))
+        status = Status(StatusCode.GRADES_CROSS, (
+            f"the front grade is {ws.front_grade_ft[idx][kk] - ws.retained_grade_ft[idx][kk]:.2f}"
+            f" ft above the retained grade at station {ws.station_ft[idx][kk]:.2f} "
+            f"({int(cross.sum())} station(s)): the soil is retained from the other side there; "
+            "check the grades and retained_side, or end the wall before it"))
     over = hs > c["max_retained_height_ft"] + 1e-9
     if over.any():
         kk = int(np.argmax(hs))
@@ -376,6 +386,9 @@ def _design_segment(wall: WallToDesign, table: DesignTable, q, piece, last: bool
             fields["audited_station_ft"] = audit_stations(wall.inputs, sec, hs, emb, fb, res,
                                                         wall.wall, ws.station_ft[idx])
     _record_stations(out, q, idx, own, over, res, status)
+    for j in idx[cross]:
+        if j in own:
+            out.status[j] = CROSS_STATUS
     t_ft = (sec.footing_thickness_in / 12.0) if sec is not None else 0.0
     rg_seg = ws.retained_grade_ft[idx]
     tw_start = tw if c["top_of_wall"] == "stepped" else float(rg_seg[0] + c["freeboard_ft"])

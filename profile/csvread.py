@@ -31,6 +31,10 @@ MAX_COORDINATE_FT = 1e9  # |x|, |y|, |station|, |elevation|: larger is not a sit
 MAX_LINE_CHARS = 4000  # one CSV line
 GRADE_JUMP_MAX_FT = 10.0  # a grade may not jump more than this between adjacent points ...
 GRADE_JUMP_SLOPE = 1.0  # ... at a slope steeper than 1 vertical : 1 horizontal
+# an alignment may not come within FOLD_NEAR_FT of a part of itself more than FOLD_ALONG_FT
+# away along it (a doubled line or a hairpin: a wall's footing is feet wide; common practice)
+FOLD_NEAR_FT = 1.0
+FOLD_ALONG_FT = 5.0
 
 STATION_NAMES = ("station", "sta", "station_ft", "sta_ft", "stationing")
 ELEVATION_NAMES = ("elevation", "elev", "elevation_ft", "elev_ft", "z")
@@ -110,6 +114,8 @@ def _columns(header_no: int, header: list[str], wanted: dict[str, tuple[str, ...
 
 def _number(cell: str, *, label: str, line: int, column: str) -> float:
     try:
+        if "_" in cell:  # float() reads "10_3.5" as 103.5: a typing error, not a number
+            raise ValueError(cell)
         value = float(cell)
     except ValueError:
         raise ProfileError(f"{column} {cell.strip()!r} is not a number", file=label,
@@ -252,4 +258,37 @@ def alignment_from_xy(xy: np.ndarray, label: str) -> Alignment:
     if not line.is_simple:
         raise ProfileError("the alignment crosses itself; a wall alignment must not "
                            "self-intersect (check the vertex order)", file=label)
+    fold = fold_back(xy)
+    if fold is not None:
+        (x, y), gap, along = fold
+        raise ProfileError(f"the alignment folds back on itself: at ({x:.2f}, {y:.2f}) it "
+                           f"passes {gap:.3f} ft from its own line {along:.1f} ft farther "
+                           "along; a wall alignment may not overlap itself (check for a "
+                           "doubled line or the vertex order)", file=label)
     return Alignment(line, label)
+
+
+def fold_back(xy: np.ndarray, near_ft: float = FOLD_NEAR_FT, along_ft: float = FOLD_ALONG_FT):
+    """Where a (simple) polyline comes within ``near_ft`` of itself at a part more than
+    ``along_ft`` away along it: ((x, y), plan distance, distance along) or None.
+
+    Two segments that do not intersect are closest at an end of one of them, so testing every
+    vertex against every segment finds the closest approach of any two parts."""
+    seg = np.diff(xy, axis=0)
+    seg_len = np.hypot(*seg.T)
+    s0 = np.r_[0.0, np.cumsum(seg_len)]  # distance along at each vertex
+    lines = shapely.linestrings(np.stack([xy[:-1], xy[1:]], axis=1))
+    tree = shapely.STRtree(lines)
+    v_idx, s_idx = tree.query(shapely.points(xy), predicate="dwithin", distance=near_ft)
+    if v_idx.size == 0:
+        return None
+    p, a = xy[v_idx], xy[s_idx]
+    d = seg[s_idx]
+    t = np.clip(np.einsum("ij,ij->i", p - a, d) / np.maximum(seg_len[s_idx] ** 2, 1e-300), 0, 1)
+    along = np.abs(s0[v_idx] - (s0[s_idx] + t * seg_len[s_idx]))
+    gap = np.hypot(*(a + t[:, None] * d - p).T)
+    bad = np.nonzero(along > along_ft)[0]
+    if bad.size == 0:
+        return None
+    k = bad[np.argmin(gap[bad])]
+    return (float(p[k, 0]), float(p[k, 1])), float(gap[k]), float(along[k])

@@ -23,6 +23,7 @@ from __future__ import annotations
 
 import math
 import re
+import weakref
 from collections.abc import Mapping
 from functools import lru_cache
 from pathlib import Path
@@ -40,6 +41,7 @@ from .core import (
     warn,
 )
 from .csvread import (
+    MAX_COORDINATE_FT,
     MAX_PROFILE_POINTS,
     alignment_from_xy,
     grade_jump,
@@ -106,6 +108,7 @@ def _load(path: str, mtime_ns: int, size: int):
 
 
 _REPAIRED_WARNED: set[tuple[str, int]] = set()
+_CUT_SHORT: weakref.WeakSet = weakref.WeakSet()  # drawings whose file ends before its EOF
 
 
 def open_dxf(path: Path, label: str, messages: list[str] | None = None):
@@ -127,7 +130,9 @@ def open_dxf(path: Path, label: str, messages: list[str] | None = None):
     if not _looks_like_dxf(raw[:4096]):
         raise ProfileError("is not a DXF drawing (no DXF section tags at its start); export "
                            "it from the CAD program as DXF", file=label)
-    points = len(_POINT_TAG.findall(raw)) if not raw.startswith(b"AutoCAD Binary") else 0
+    binary = raw.startswith(b"AutoCAD Binary")
+    cut_short = not binary and raw.rstrip()[-3:].upper() != b"EOF"
+    points = len(_POINT_TAG.findall(raw)) if not binary else 0
     del raw
     if points > MAX_DXF_POINTS:
         raise ProfileError(f"holds about {points:,} points; the limit is {MAX_DXF_POINTS:,} - "
@@ -137,6 +142,8 @@ def open_dxf(path: Path, label: str, messages: list[str] | None = None):
         doc, repairs = _load(str(path), st.st_mtime_ns, st.st_size)
     except ProfileError as exc:
         raise ProfileError(exc.message, file=label) from None
+    if cut_short:
+        _CUT_SHORT.add(doc)
     key = (str(path), st.st_mtime_ns)
     if repairs and messages is not None and key not in _REPAIRED_WARNED:
         _REPAIRED_WARNED.add(key)
@@ -165,9 +172,14 @@ def unit_factor(doc, options: Mapping[str, Any], label: str) -> float:
         if code in (0, 2, 21):
             return FT_PER_UNIT["us-ft"] if code == 21 else 1.0
         name = INSUNITS_LABELS.get(code, f"code {code}")
+        if code not in INSUNITS_NAMES:  # miles, yards, ...: no unit option converts them
+            raise ProfileError(
+                f"the drawing's units ($INSUNITS) are {name}, which this reader does not "
+                "convert; save the drawing in feet (or metres, with units = \"m\")",
+                file=label)
         raise ProfileError(
             f"the drawing's units ($INSUNITS) are {name}, not feet; add units = "
-            f"\"{INSUNITS_NAMES.get(code, 'm')}\" to the source to convert, or save the "
+            f"\"{INSUNITS_NAMES[code]}\" to the source to convert, or save the "
             "drawing in feet", file=label)
     if code not in (0, *INSUNITS_NAMES) or (code and INSUNITS_NAMES[code] != declared):
         name = INSUNITS_LABELS.get(code, f"code {code}")
@@ -186,6 +198,11 @@ def layer_entities(doc, layer: str, label: str, types=LINEAR_TYPES):
         used = sorted(names, key=str.lower)
         exists = any(n.lower() == want for n in names)
         what = "has no entities in model space" if exists else "is not in the drawing"
+        if doc in _CUT_SHORT:
+            raise ProfileError(f"layer '{layer}' {what}, and the file ends before its "
+                               "end-of-file marker (EOF): it is cut short (an interrupted "
+                               "copy or export); export it again", file=label,
+                               where=f"layer {layer}")
         raise ProfileError(f"layer '{layer}' {what}; layers present: {', '.join(used)}",
                            file=label, where=f"layer {layer}")
     found = [e for e in on_layer if e.dxftype() in types]
@@ -204,6 +221,7 @@ def entity_points(entity, ft_per_unit: float = 1.0) -> np.ndarray:
     sagitta = ARC_CHORD_ERROR_FT / ft_per_unit
     if entity.dxftype() == "POLYLINE" and not (entity.is_2d_polyline or entity.is_3d_polyline):
         raise ProfileError("is a polygon mesh or polyface, not a line", where=_handle(entity))
+    check_extent(entity, ft_per_unit)
     if entity.dxftype() == "ARC":  # points on the true circle
         verts = entity.flattening(sagitta)
     else:  # bulges become Bezier curves; 16 per quarter turn keep them on the circle
@@ -216,6 +234,71 @@ def entity_points(entity, ft_per_unit: float = 1.0) -> np.ndarray:
     if pts.size == 0 or not np.isfinite(pts).all():
         raise ProfileError("has no usable vertices", where=_handle(entity))
     return pts.reshape(-1, 3)
+
+
+def _arc_points(radius: float, angle_rad: float, sagitta: float) -> float:
+    """About how many points flattening an arc to the chord error ``sagitta`` makes."""
+    if radius <= sagitta:
+        return 4.0
+    return abs(angle_rad) / (2.0 * math.acos(1.0 - sagitta / radius)) + 2.0
+
+
+def check_extent(entity, ft_per_unit: float = 1.0) -> None:
+    """Refuse, before flattening, a linear entity with a coordinate beyond
+    ``MAX_COORDINATE_FT`` or arcs (an ARC, or bulges) that would flatten to more than
+    ``MAX_DXF_POINTS`` points (a radius of millions of feet is a unit error, not a wall)."""
+    limit = MAX_COORDINATE_FT / ft_per_unit
+    sag = ARC_CHORD_ERROR_FT / ft_per_unit
+    kind = entity.dxftype()
+    arcs: list[tuple[float, float]] = []  # (radius, angle) in drawing units
+    if kind == "ARC":
+        c = entity.dxf.center
+        pts = [(c[0], c[1], c[2])]
+        r = float(entity.dxf.radius)
+        span = (float(entity.dxf.end_angle) - float(entity.dxf.start_angle)) % 360.0
+        arcs.append((r, math.radians(span or 360.0)))
+        pts.append((abs(c[0]) + abs(r), abs(c[1]) + abs(r), 0.0))
+    elif kind == "LINE":
+        pts = [tuple(entity.dxf.start), tuple(entity.dxf.end)]
+    elif kind == "LWPOLYLINE":
+        xyb = list(entity.get_points("xyb"))
+        pts = [(x, y, 0.0) for x, y, _ in xyb]
+        bulges = [b for _, _, b in xyb]
+        arcs += _bulge_arcs(pts, bulges, closed=bool(entity.closed))
+    elif kind == "POLYLINE":
+        verts = list(entity.vertices)
+        pts = [tuple(v.dxf.location) for v in verts]
+        bulges = [float(v.dxf.get("bulge", 0.0) or 0.0) for v in verts]
+        arcs += _bulge_arcs(pts, bulges, closed=bool(entity.is_closed))
+    else:
+        return
+    a = np.asarray(pts, dtype=float).reshape(-1, 3)
+    if a.size and (not np.isfinite(a).all() or np.abs(a).max() > limit):
+        raise ProfileError(f"has a coordinate beyond {MAX_COORDINATE_FT:.0e} ft (or not a "
+                           "number); a site drawing is never that large - check the units",
+                           where=_handle(entity))
+    total = sum(_arc_points(r, ang, sag) for r, ang in arcs if math.isfinite(r))
+    if any(not math.isfinite(r) for r, _ in arcs) or total > MAX_DXF_POINTS:
+        big = max((r for r, _ in arcs), default=0.0) * ft_per_unit
+        raise ProfileError(f"has an arc of radius {big:.3g} ft that would be drawn with about "
+                           f"{total:,.0f} points (the limit is {MAX_DXF_POINTS:,}); a wall's "
+                           "arcs are never that large - check the units or the bulges",
+                           where=_handle(entity))
+
+
+def _bulge_arcs(pts, bulges, *, closed: bool) -> list[tuple[float, float]]:
+    out = []
+    n = len(pts)
+    for i in range(n if closed else n - 1):
+        b = bulges[i]
+        if not b or not math.isfinite(b):
+            if b and not math.isfinite(b):
+                out.append((math.inf, 0.0))
+            continue
+        (x0, y0, *_), (x1, y1, *_) = pts[i], pts[(i + 1) % n]
+        chord = math.hypot(x1 - x0, y1 - y0)
+        out.append((chord * (1 + b * b) / (4 * abs(b)), 4 * math.atan(abs(b))))
+    return out
 
 
 def _handle(entity) -> str:

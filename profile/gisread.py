@@ -28,7 +28,7 @@ from .core import (
     project_polyline,
     warn,
 )
-from .csvread import alignment_from_xy
+from .csvread import MAX_COORDINATE_FT, alignment_from_xy
 from .dxfread import (
     FT_PER_UNIT,
     MAX_OFFSET_FT,
@@ -89,7 +89,13 @@ def read_feature(path: Path, options: Mapping[str, Any], label: str):
     if options.get("to_crs") is not None:
         if frame.crs is None:
             raise ProfileError("has no CRS, so to_crs cannot reproject it", file=label)
-        frame = frame.to_crs(options["to_crs"])
+        try:
+            frame = frame.to_crs(options["to_crs"])
+        except Exception as exc:  # noqa: BLE001 - pyproj refuses an unknown CRS its own way
+            text = " ".join(str(exc).split())[:120]
+            raise ProfileError(f"to_crs = {options['to_crs']!r:.40} cannot be used ({text}); "
+                               "give a projected CRS such as \"EPSG:2227\"", file=label,
+                               where="to_crs") from None
     scale = _crs_scale(frame.crs, options, label)
     field = options.get("field")
     if field is None:
@@ -125,6 +131,14 @@ def read_feature(path: Path, options: Mapping[str, Any], label: str):
         raise ProfileError(f"the feature is a {geom.geom_type}; a wall needs one connected "
                            "line", file=label, where=where)
     coords = np.asarray(geom.coords, dtype=float) * scale
+    if not np.isfinite(coords).all() or np.abs(coords).max() > MAX_COORDINATE_FT:
+        bad = int(np.argmax(~np.isfinite(coords).all(axis=1)
+                            | (np.abs(np.nan_to_num(coords, nan=np.inf)) > MAX_COORDINATE_FT
+                               ).any(axis=1)))
+        raise ProfileError(f"vertex {bad + 1} of the feature is {tuple(coords[bad])}: a "
+                           "coordinate or z that is not a finite number of at most "
+                           f"{MAX_COORDINATE_FT:.0e} ft; fix the feature", file=label,
+                           where=where)
     return coords, where, scale
 
 

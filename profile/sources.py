@@ -6,12 +6,13 @@ A new reader goes here: add its option keys to ``OPTION_KEYS`` and a branch to
 
 from __future__ import annotations
 
+import math
 from collections.abc import Mapping
 from typing import Any
 
 from ..errors import InputError
 from .core import Alignment, GradeProfile
-from .csvread import read_alignment_csv, read_grade_csv
+from .csvread import MAX_COORDINATE_FT, read_alignment_csv, read_grade_csv
 
 # Option keys an inline source table may carry besides its file key, per kind.
 OPTION_KEYS: dict[str, tuple[str, ...]] = {
@@ -24,6 +25,11 @@ OPTION_KEYS: dict[str, tuple[str, ...]] = {
     "points": ("offset_ft", "code", "max_edge_ft"),
 }
 UNIT_NAMES = ("ft", "us-ft", "m", "cm", "mm", "in")
+# upper limits of the numeric options (larger is a typing error, never a drawing)
+MAX_GAP_TOLERANCE_FT = 10.0  # ends of alignment pieces joined across at most this
+MAX_OFFSET_LIMIT_FT = 1000.0  # grade vertices read at most this far from the wall
+MAX_ALLOWANCE_FT = 100.0
+MAX_VERTICAL_EXAGGERATION = 100.0
 ALIGNMENT_ONLY = ("start", "gap_tolerance_ft")
 GRADE_ONLY = ("max_offset_ft", "labels", "pattern", "allowance_ft", "view",
               "origin_station_ft", "origin_elevation_ft", "vertical_exaggeration", "origin_xy",
@@ -48,29 +54,56 @@ def check_source_options(kind: str, options: Mapping[str, Any], *, file, key: st
     check_option_values(kind, options, file=file, key=key)
 
 
-def _number(options, name, *, file, key, lo=None, positive=False):
+def _is_number(v) -> bool:
+    return isinstance(v, (int, float)) and not isinstance(v, bool)
+
+
+def _finite(v) -> bool:
+    try:
+        return math.isfinite(float(v))
+    except OverflowError:  # an integer past a float
+        return False
+
+
+def _number(options, name, *, file, key, lo=None, hi=None, positive=False):
     v = options.get(name)
     if v is None:
         return
-    if isinstance(v, bool) or not isinstance(v, (int, float)):
-        raise InputError(f"'{name}' must be a number, got {v!r}", file=file,
+    if not _is_number(v):
+        raise InputError(f"'{name}' must be a number, got {v!r:.60}", file=file,
                          where=f"{key}.{name}")
+    hi = MAX_COORDINATE_FT if hi is None else hi
+    if not _finite(v) or abs(v) > MAX_COORDINATE_FT:
+        raise InputError(f"'{name}' must be a finite number of at most {MAX_COORDINATE_FT:.0e} "
+                         f"in size, got {_text(v)}", file=file, where=f"{key}.{name}")
     if positive and not v > 0:
         raise InputError(f"'{name}' must be greater than 0, got {v!r}", file=file,
                          where=f"{key}.{name}")
     if lo is not None and v < lo:
         raise InputError(f"'{name}' must be at least {lo:g}, got {v!r}", file=file,
                          where=f"{key}.{name}")
+    if v > hi:
+        raise InputError(f"'{name}' must be at most {hi:g}, got {v:g}", file=file,
+                         where=f"{key}.{name}")
+
+
+def _text(v) -> str:
+    if isinstance(v, int) and abs(v) >= 10 ** 15:
+        return f"a {len(str(abs(v)))}-digit number"
+    return repr(v)
 
 
 def _point(options, name, *, file, key):
     v = options.get(name)
     if v is None:
         return
-    ok = (isinstance(v, list) and len(v) == 2
-          and all(isinstance(c, (int, float)) and not isinstance(c, bool) for c in v))
+    ok = isinstance(v, list) and len(v) == 2 and all(_is_number(c) for c in v)
     if not ok:
-        raise InputError(f"'{name}' must be a point [x, y] (two numbers), got {v!r}",
+        raise InputError(f"'{name}' must be a point [x, y] (two numbers), got {v!r:.60}",
+                         file=file, where=f"{key}.{name}")
+    if not all(_finite(c) and abs(c) <= MAX_COORDINATE_FT for c in v):
+        raise InputError(f"'{name}' must be a point of finite coordinates of at most "
+                         f"{MAX_COORDINATE_FT:.0e} in size, got [{', '.join(map(_text, v))}]",
                          file=file, where=f"{key}.{name}")
 
 
@@ -169,12 +202,13 @@ def check_option_values(kind: str, options: Mapping[str, Any], *, file, key: str
             "first vertex", "last vertex")):
         _point(options, "start", file=file, key=key)
     _point(options, "origin_xy", file=file, key=key)
-    _number(options, "gap_tolerance_ft", file=file, key=key, lo=0.0)
-    _number(options, "max_offset_ft", file=file, key=key, positive=True)
-    _number(options, "allowance_ft", file=file, key=key, lo=0.0)
+    _number(options, "gap_tolerance_ft", file=file, key=key, lo=0.0, hi=MAX_GAP_TOLERANCE_FT)
+    _number(options, "max_offset_ft", file=file, key=key, positive=True, hi=MAX_OFFSET_LIMIT_FT)
+    _number(options, "allowance_ft", file=file, key=key, lo=0.0, hi=MAX_ALLOWANCE_FT)
     _number(options, "origin_station_ft", file=file, key=key)
     _number(options, "origin_elevation_ft", file=file, key=key)
-    _number(options, "vertical_exaggeration", file=file, key=key, positive=True)
+    _number(options, "vertical_exaggeration", file=file, key=key, positive=True,
+            hi=MAX_VERTICAL_EXAGGERATION)
     labels = options.get("labels")
     if labels is not None and (not isinstance(labels, str) or labels.upper() not in ("TW", "BW")):
         raise InputError(f"labels = {labels!r}; use \"TW\" (top of wall / retained grade) or "

@@ -19,7 +19,7 @@ def test_text_is_code_then_reason():
 
 def test_which_codes_fail():
     assert {c for c in StatusCode if c.failing} == {
-        StatusCode.OVER_LIMIT, StatusCode.NO_SECTION, StatusCode.FAILS}
+        StatusCode.OVER_LIMIT, StatusCode.NO_SECTION, StatusCode.FAILS, StatusCode.GRADES_CROSS}
     assert not Status(StatusCode.NO_WALL, "retained height below min_retained_height_ft").failing
 
 

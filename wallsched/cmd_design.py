@@ -31,6 +31,7 @@ def design(ctx, site_file: Path, out_dir: Path, compare_dir: Path | None, replac
     Exit 0 when every segment passes every check, 3 when outputs were written but some
     stretch could not be designed within the limits (see the status column).
     """
+    from .budget import check_budget
     from .design import design_site, previous_run
     from .guardrails import site_warnings
     from .outdir import claim_output, staged_output
@@ -44,6 +45,7 @@ def design(ctx, site_file: Path, out_dir: Path, compare_dir: Path | None, replac
     claim_output(ctx, out_dir, protect=site.input_files(), replace=replace, warn=_warn(quiet))
     with stages.stage("sampling", f"{len(site.walls)} walls"), collect_warnings() as warns:
         walls = site_stations(site)
+    check_budget(site, walls)  # refused before the design allocates what it cannot have
     if compare_dir is not None:
         from .errors import InputError
 

@@ -214,6 +214,9 @@ SIZING_KEYS = {
                          "table (common practice: a few marks a crew can build)"),
     "marks_per": Key(str, "wall", choices=("wall", "site"),
                      doc="marks_max counts the marks of each wall, or of the whole site"),
+    "memory_budget_gb": Key(float, 2.0, lo=0.1, hi=4096,
+                            doc="memory a design may need, GB: a run estimated to need more "
+                                "is refused before it starts"),
 }
 
 # [drawing]: the DXF sheet set (exporters/dxf_wall.py)

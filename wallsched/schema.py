@@ -119,6 +119,12 @@ def load_toml(path: Path) -> tuple[dict, SourceText]:
         where = f"line {m.group(1)}" if m else None
         msg = re.sub(r"\s*\(at line \d+, column \d+\)", "", msg)
         raise InputError(f"not valid TOML: {msg}", file=path, where=where) from None
+    except ValueError as exc:  # tomllib's own, e.g. an integer of thousands of digits
+        long = re.search(r"\d{1000,}", text)
+        where = f"line {text.count(chr(10), 0, long.start()) + 1}" if long else None
+        msg = " ".join(str(exc).split())[:80]
+        raise InputError(f"holds a value that cannot be read ({msg}); no key takes a number "
+                         "that large", file=path, where=where) from None
     return data, SourceText(path, text)
 
 

@@ -8,6 +8,7 @@ the site file and may not leave its folder.
 from __future__ import annotations
 
 import hashlib
+import re
 from collections.abc import Mapping
 from dataclasses import dataclass, field
 from pathlib import Path
@@ -320,6 +321,7 @@ def _wall(i: int, raw: Any, site: dict[str, dict], *, folder: Path, file, src: S
         loads[t] = optional_table(site[t], nested.get(t), keys, file=file,
                                   where=f"{label}.{t}")
     _check_inputs(resolved, file=file, where=label)
+    check_criteria_sets(resolved["criteria"], file=file, where=f"{label}.criteria")
     sources = {}
     for name in WALL_SOURCES:
         if name not in own:
@@ -335,6 +337,57 @@ def _wall(i: int, raw: Any, site: dict[str, dict], *, folder: Path, file, src: S
         materials=MappingProxyType(resolved["materials"]),
         criteria=MappingProxyType(resolved["criteria"]), **sources,
     )
+
+
+# [criteria] keys that must not exceed their partner (each pair: least, greatest)
+CRITERIA_ORDER = (("segment_min_ft", "segment_max_ft"),
+                  ("contraction_joint_max_ft", "expansion_joint_max_ft"),
+                  ("min_retained_height_ft", "max_retained_height_ft"))
+# [sizing] ranges: (least, greatest, what)
+SIZING_RANGES = (("footing_thickness_min_in", "footing_thickness_max_in", "footing thickness"),
+                 ("stem_min_in", "stem_max_in", "stem thickness"))
+
+
+def check_criteria_sets(c: Mapping[str, Any], *, file, where: str) -> None:
+    """The [criteria] limits as a set: each least value at most its greatest."""
+    for lo, hi in CRITERIA_ORDER:
+        if c.get(lo) is not None and c.get(hi) is not None and c[lo] > c[hi]:
+            raise InputError(f"{lo} = {c[lo]:g} is more than {hi} = {c[hi]:g}; the least "
+                             "must not exceed the greatest - swap or correct them",
+                             file=file, where=f"{where} {lo}")
+
+
+def check_sizing_sets(t: Mapping[str, Any], *, file, src: SourceText | None = None) -> None:
+    """The [sizing] grid as a set: every range from its least to its greatest value, a
+    heel of at least two steps, and bar sizes that parse."""
+    from .engine.bars import SIZES
+    from .engine.sizing import parse_sizes
+
+    for lo, hi, what in SIZING_RANGES:
+        if t[lo] > t[hi]:
+            raise InputError(f"{lo} = {t[lo]:g} is more than {hi} = {t[hi]:g}: the {what} "
+                             "range is empty; swap or correct them", file=file,
+                             where=_where(src, "sizing", lo))
+    least_heel = 2 * t["toe_heel_step_in"] / 12.0
+    if t["heel_max_ft"] < least_heel - 1e-9:
+        raise InputError(f"heel_max_ft = {t['heel_max_ft']:g} is less than the smallest heel "
+                         f"of the grid, two steps of toe_heel_step_in ({least_heel:g} ft); "
+                         "raise heel_max_ft or lower toe_heel_step_in", file=file,
+                         where=_where(src, "sizing", "heel_max_ft"))
+    text = t["bar_sizes"]
+    sizes = ", ".join(str(int(s)) for s in SIZES)
+    backwards = [p for p in str(text).replace(" ", "").split(",")
+                 if re.fullmatch(r"\d+-\d+", p) and int(p.split("-")[0]) > int(p.split("-")[1])]
+    if backwards:
+        a, b = backwards[0].split("-")
+        raise InputError(f"bar_sizes = {text!r}: the range {backwards[0]} runs downward; "
+                         f"write it {b}-{a}", file=file, where=_where(src, "sizing", "bar_sizes"))
+    try:
+        parse_sizes(text)
+    except ValueError:
+        raise InputError(f"bar_sizes = {text[:40]!r} cannot be read; give ASTM A615 bar "
+                         f"numbers as a range \"4-9\" or a list \"4,5,6\" (sizes {sizes})",
+                         file=file, where=_where(src, "sizing", "bar_sizes")) from None
 
 
 def _check_inputs(tables: Mapping[str, Mapping], *, file, where: str) -> None:
@@ -384,6 +437,7 @@ def load_site(path: str | Path) -> Site:
     for t, keys in OPTIONAL_TABLES.items():
         tables[t] = (check_table(data[t], keys, table=t, file=file, src=src)
                      if t in data else None)
+    check_criteria_sets(tables["criteria"], file=file, where="[criteria]")
     soil_raw = data["soil"]
     soil = check_table(soil_raw, SOIL_KEYS, table="soil", file=file, src=src,
                        fill_defaults=False)
@@ -415,6 +469,7 @@ def load_site(path: str | Path) -> Site:
     site_only = {t: MappingProxyType(check_table(data.get(t, {}), keys, table=t, file=file,
                                                  src=src))
                  for t, keys in SITE_ONLY.items()}
+    check_sizing_sets(site_only["sizing"], file=file, src=src)
     # the site-level soil, for the record (validated per wall above)
     return Site(costs=site_only["costs"], sizing=site_only["sizing"],
         drawing=site_only["drawing"],

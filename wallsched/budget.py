@@ -1,0 +1,115 @@
+"""Resources estimated before a design allocates them; a run over the budget is refused.
+
+``wallsched design`` needs memory for two things that grow faster than the stations:
+
+- the least-cost search over the ``[sizing]`` grid (``engine/sizing.py``): about
+  ``BYTES_PER_GEOMETRY`` per candidate geometry (toes x heels x footings x stems), measured
+  as the growth of the peak RSS of a design between the default grid (1.1 million geometries)
+  and grids of 10 and 20 million (about 75 bytes each), plus the per-height bar tables;
+- the segments' recursion (``engine/segments.py``): its state arrays hold every station x
+  every number of stations a segment may span x every footing lowering, and each block of
+  stations compares every pair of states, a block x span^2 x lowering^2 temporaries.
+
+Both are estimated from the sampled stations and the grid, before anything is allocated, and
+a run whose estimate exceeds ``[sizing] memory_budget_gb`` (default 2 GB) is refused with
+one line naming what is too large and how to change it. The lowerings are counted at their
+most (``LOWERINGS_STEEP``, offered where the ground is steep), so the estimate bounds the
+run whatever the ground.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+
+from .engine.segments import BATCH_STATIONS, LOWERINGS_STEEP
+from .errors import InputError
+
+BYTES_PER_GEOMETRY = 80  # measured (see above), rounded up
+BASE_BYTES = 0.3e9  # the interpreter, numpy/pandas/shapely, the stations and the results
+STATE_BYTES = 8 * (2 + 3 * LOWERINGS_STEEP) + 4 * 8 * LOWERINGS_STEEP + 9  # per [j, k]
+PAIR_BYTES = 34  # per pair of states in a block: the differences, masks, penalties, sums
+GB = 1e9
+
+
+def span_and_block(station_ft: np.ndarray, segment_min_ft: float, segment_max_ft: float
+                   ) -> tuple[int, int]:
+    """(states per station: the most stations one segment may span + 1, the block: the
+    fewest stations any segment spans) of a run of stations."""
+    s = np.asarray(station_ft, float)
+    if s.size < 2:
+        return 2, 1
+    total = s[-1] - s[0]
+    seg_max = max(segment_max_ft, min(total, segment_min_ft))
+    idx = np.arange(s.size)
+    first = np.searchsorted(s, s - seg_max - 1e-9, side="left")
+    span = max(1, int(np.max(idx - first)))
+    last_before = np.searchsorted(s, s - segment_min_ft + 1e-9, side="right") - 1
+    k = (idx - last_before)[last_before >= 0]
+    block = max(1, int(k.min())) if k.size else 1
+    return span + 1, block
+
+
+def segmenting_bytes(walls: list[tuple[int, int, int]]) -> float:
+    """Peak bytes of the segments' recursion for walls given as (stations, states per
+    station, block); the walls are solved together in batches of ``BATCH_STATIONS``."""
+    if not walls:
+        return 0.0
+    n_max = max(n for n, _, _ in walls)
+    k1 = max(k for _, k, _ in walls)
+    block = min(b for _, _, b in walls)
+    together = max(1, min(len(walls), BATCH_STATIONS // max(n_max, 1)))
+    states = together * n_max * k1
+    pairs = together * block * k1 * k1 * LOWERINGS_STEEP ** 2
+    return float(states) * STATE_BYTES + float(pairs) * PAIR_BYTES
+
+
+def sizing_bytes(sizing) -> tuple[float, int]:
+    """(peak bytes, candidate geometries) of the least-cost search over the grid."""
+    from .engine.sizing import SizingGrid
+
+    g = SizingGrid.from_table(sizing)
+    nt, nh = g.toe_ft.size, g.heel_ft.size
+    n_t, n_s = g.footing_thickness_in.size, g.stem_base_in.size
+    geometries = nt * nh * n_t * n_s
+    bars = g.bar_sizes.size * g.bar_spacings_in.size
+    tables = 8.0 * 4 * (n_s * n_t + nh * n_t + nt * n_t) * bars
+    return BYTES_PER_GEOMETRY * float(geometries) + tables, geometries
+
+
+def check_budget(site, walls) -> float:
+    """Refuse (InputError) a design estimated to need more than the budget; returns the
+    estimate in bytes. ``walls``: the sampled ``WallStations``, in site-file order."""
+    budget_gb = float(site.sizing.get("memory_budget_gb") or 2.0)
+    budget = budget_gb * GB
+    file = site.path.name
+    key = f"[sizing] memory_budget_gb = {budget_gb:g}"
+    grid, geometries = sizing_bytes(site.sizing)
+    if BASE_BYTES + grid > budget:
+        raise InputError(
+            f"the [sizing] grid has {geometries:,} candidate geometries, about "
+            f"{grid / GB:,.1f} GB to search; the limit is {key} - coarsen the grid "
+            "(toe_heel_step_in, footing_thickness_step_in, stem_step_in) or narrow its "
+            "ranges, or raise memory_budget_gb where the machine has the memory",
+            file=file, where="[sizing]")
+    shapes = []
+    worst = None
+    for spec, ws in zip(site.walls, walls, strict=True):
+        c = spec.criteria
+        k1, block = span_and_block(ws.station_ft, c["segment_min_ft"], c["segment_max_ft"])
+        shapes.append((len(ws), k1, block))
+        one = segmenting_bytes([shapes[-1]])
+        if worst is None or one > worst[0]:
+            worst = (one, spec, k1, len(ws))
+    seg = segmenting_bytes(shapes)
+    total = BASE_BYTES + max(grid, seg)
+    if total > budget:
+        _, spec, k1, n = worst
+        c = spec.criteria
+        raise InputError(
+            f"wall {spec.id!r}: planning its segments would need about {seg / GB:,.1f} GB "
+            f"({n:,} stations, a segment may span {k1 - 1:,} of them: station_interval_ft "
+            f"{c['station_interval_ft']:g} and the grade breaks, segment_max_ft "
+            f"{c['segment_max_ft']:g}); the limit is {key} - raise station_interval_ft, thin "
+            "the grade points, or lower segment_max_ft (or raise memory_budget_gb where the "
+            "machine has the memory)", file=file, where=f"walls[{spec.index + 1}]")
+    return total
