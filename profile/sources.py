@@ -77,10 +77,10 @@ def _number(options, name, *, file, key, lo=None, hi=None, positive=False):
         raise InputError(f"'{name}' must be a finite number of at most {MAX_COORDINATE_FT:.0e} "
                          f"in size, got {_text(v)}", file=file, where=f"{key}.{name}")
     if positive and not v > 0:
-        raise InputError(f"'{name}' must be greater than 0, got {v!r}", file=file,
+        raise InputError(f"'{name}' must be greater than 0, got {v!r:.60}", file=file,
                          where=f"{key}.{name}")
     if lo is not None and v < lo:
-        raise InputError(f"'{name}' must be at least {lo:g}, got {v!r}", file=file,
+        raise InputError(f"'{name}' must be at least {lo:g}, got {v!r:.60}", file=file,
                          where=f"{key}.{name}")
     if v > hi:
         raise InputError(f"'{name}' must be at most {hi:g}, got {v:g}", file=file,
@@ -180,7 +180,7 @@ def check_option_values(kind: str, options: Mapping[str, Any], *, file, key: str
     for name in ("layer", "field", "to_crs", "pattern"):
         v = options.get(name)
         if v is not None and (not isinstance(v, str) or not v.strip()):
-            raise InputError(f"'{name}' must be a non-empty string, got {v!r}", file=file,
+            raise InputError(f"'{name}' must be a non-empty string, got {v!r:.60}", file=file,
                              where=f"{key}.{name}")
     if kind == "dxf" and "layer" not in options:
         raise InputError("a DXF source needs layer = \"...\" (the drawing's layer name)",
@@ -190,11 +190,11 @@ def check_option_values(kind: str, options: Mapping[str, Any], *, file, key: str
                          "feature and its value)", file=file, where=key)
     v = options.get("value")
     if v is not None and (isinstance(v, bool) or not isinstance(v, (str, int, float))):
-        raise InputError(f"'value' must be a string or a number, got {v!r}", file=file,
+        raise InputError(f"'value' must be a string or a number, got {v!r:.60}", file=file,
                          where=f"{key}.value")
     u = options.get("units")
     if u is not None and u not in UNIT_NAMES:
-        raise InputError(f"units = {u!r} is not known; use one of "
+        raise InputError(f"units = {u!r:.60} is not known; use one of "
                          + ", ".join(f'"{n}"' for n in UNIT_NAMES), file=file,
                          where=f"{key}.units")
     start = options.get("start")
@@ -211,7 +211,7 @@ def check_option_values(kind: str, options: Mapping[str, Any], *, file, key: str
             hi=MAX_VERTICAL_EXAGGERATION)
     labels = options.get("labels")
     if labels is not None and (not isinstance(labels, str) or labels.upper() not in ("TW", "BW")):
-        raise InputError(f"labels = {labels!r}; use \"TW\" (top of wall / retained grade) or "
+        raise InputError(f"labels = {labels!r:.60}; use \"TW\" (top of wall / retained grade) or "
                          "\"BW\" (bottom of wall / front grade)", file=file,
                          where=f"{key}.labels")
     for name in ("pattern", "allowance_ft"):
@@ -230,7 +230,7 @@ def check_option_values(kind: str, options: Mapping[str, Any], *, file, key: str
             raise InputError(f"pattern {exc}", file=file, where=f"{key}.pattern") from None
     view = options.get("view", "plan")
     if view not in ("plan", "profile"):
-        raise InputError(f"view = {view!r}; use \"plan\" (lines drawn in plan, the default) or "
+        raise InputError(f"view = {view!r:.60}; use \"plan\" (lines drawn in plan, the default) or "
                          "\"profile\" (a profile view)", file=file, where=f"{key}.view")
     profile_keys = ("origin_station_ft", "origin_elevation_ft", "vertical_exaggeration",
                     "origin_xy")

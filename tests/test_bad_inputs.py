@@ -16,12 +16,16 @@ from concurrent.futures import ThreadPoolExecutor
 from pathlib import Path
 
 import pytest
-from bad_inputs.corpus import CASES, Case
+from bad_inputs.corpus import CASES, DESIGN_ONLY, HOSTILE, Case
 from sitekit import make_site
 
 from wallsched.cli import main
 
 EXE = Path(sys.executable).with_name("wallsched")
+ALL = CASES + HOSTILE + DESIGN_ONLY
+# (case, command): every case through both commands, the design-only ones through design
+RUNS = [(c, cmd) for c in CASES + HOSTILE for cmd in ("stations", "design")] + [
+    (c, "design") for c in DESIGN_ONLY]
 PREVIOUS = {"stations.csv": b"wall,station_ft\nA,0.0\n",
             "run.json": b'{"format": "wallsched-run", "files": ["run.json", "stations.csv"]}\n'}
 
@@ -50,7 +54,7 @@ def corpus(tmp_path_factory) -> dict[str, tuple[Path, subprocess.CompletedProces
     output folder beside the site."""
     root = tmp_path_factory.mktemp("bad")
     built = {}
-    for i, case in enumerate(CASES):
+    for i, case in enumerate(ALL):
         folder = root / case.name
         folder.mkdir()
         site = case.build(folder)
@@ -62,7 +66,7 @@ def corpus(tmp_path_factory) -> dict[str, tuple[Path, subprocess.CompletedProces
 
     def run(item):
         name, (i, folder, site) = item
-        command = "design" if i % 2 else "stations"
+        command = "design" if i % 2 or i >= len(CASES) + len(HOSTILE) else "stations"
         done = subprocess.run([str(EXE), command, str(site), "--out", str(folder / "out")],
                               capture_output=True, text=True, timeout=300)
         return name, (folder, done)
@@ -72,11 +76,12 @@ def corpus(tmp_path_factory) -> dict[str, tuple[Path, subprocess.CompletedProces
 
 
 def test_corpus_is_large_and_distinct():
-    names = [c.name for c in CASES]
+    names = [c.name for c in ALL]
     assert len(names) >= 30 and len(set(names)) == len(names)
+    assert len(HOSTILE) + len(DESIGN_ONLY) >= 40
 
 
-@pytest.mark.parametrize("case", CASES, ids=[c.name for c in CASES])
+@pytest.mark.parametrize("case", ALL, ids=[c.name for c in ALL])
 def test_subprocess_exit_2_one_line_previous_output_untouched(case: Case, corpus):
     folder, done = corpus[case.name]
     assert done.returncode == 2, (done.stdout, done.stderr)
@@ -87,8 +92,7 @@ def test_subprocess_exit_2_one_line_previous_output_untouched(case: Case, corpus
     assert not list(folder.glob(".out.*"))
 
 
-@pytest.mark.parametrize("case", CASES, ids=[c.name for c in CASES])
-@pytest.mark.parametrize("command", ["stations", "design"])
+@pytest.mark.parametrize("case, command", RUNS, ids=[f"{c.name}-{cmd}" for c, cmd in RUNS])
 def test_cli_runner_exit_2_one_line_nothing_written(case: Case, command: str, corpus, runner):
     folder, _ = corpus[case.name]
     site = folder / "site.toml"
@@ -101,6 +105,16 @@ def test_cli_runner_exit_2_one_line_nothing_written(case: Case, command: str, co
     assert res.stdout == ""
     assert not out.exists()
     assert sorted(p.name for p in folder.iterdir()) == before
+
+
+@pytest.mark.parametrize("case", DESIGN_ONLY, ids=[c.name for c in DESIGN_ONLY])
+def test_design_only_cases_sample_fine(case: Case, corpus, runner, tmp_path: Path):
+    # the refusal comes from the design's resource estimate, not from reading or sampling
+    folder, _ = corpus[case.name]
+    res = runner.invoke(main, ["stations", str(folder / "site.toml"), "--out",
+                               str(tmp_path / "sampled"), "--no-plots"])
+    assert res.exit_code == 0, res.output
+    assert (tmp_path / "sampled" / "stations.csv").is_file()
 
 
 def test_bom_alone_is_accepted(runner, tmp_path: Path):

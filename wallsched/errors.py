@@ -8,6 +8,8 @@ from __future__ import annotations
 
 from pathlib import Path
 
+MAX_LINE = 800  # characters of a message in the one line (longer is cut in the middle)
+
 
 class WallError(Exception):
     """Root of every error the project raises on purpose."""
@@ -33,6 +35,8 @@ class InputError(WallError, ValueError):
         parts = [p for p in (self.file, self.where) if p]
         head = ": ".join(parts)
         text = " ".join(self.message.split())
+        if len(text) > MAX_LINE:  # a value quoted whole would bury what to do
+            text = text[:MAX_LINE * 3 // 4] + " ... " + text[-MAX_LINE // 4:]
         return f"{head}: {text}" if head else text
 
 

@@ -144,7 +144,7 @@ def where_text(src: SourceText | None, table: str | None, key: str) -> str:
     return label
 
 
-def _short(value: Any, limit: int = 60) -> str:
+def short_value(value: Any, limit: int = 60) -> str:
     """``repr(value)`` cut to ``limit`` characters (a huge value is named, not printed)."""
     if isinstance(value, int) and not isinstance(value, bool) and abs(value) >= 10 ** 15:
         return f"a {len(str(abs(value)))}-digit number"
@@ -160,7 +160,7 @@ def _finite(value: int | float, spec: Key, *, file, where: str) -> float:
     except OverflowError:
         out = math.inf
     if not math.isfinite(out):
-        raise InputError(f"must be a finite number, got {_short(value)}; allowed: "
+        raise InputError(f"must be a finite number, got {short_value(value)}; allowed: "
                          f"{spec.range_text()}", file=file, where=where)
     return out
 
@@ -171,23 +171,23 @@ def check_value(value: Any, spec: Key, *, file, where: str) -> Any:
     if kind is float:
         if isinstance(value, bool) or not isinstance(value, int | float):
             raise InputError(
-                f"must be a number, got {_short(value)}; allowed: {spec.range_text()}",
+                f"must be a number, got {short_value(value)}; allowed: {spec.range_text()}",
                 file=file, where=where,
             )
         value = _finite(value, spec, file=file, where=where)
     elif kind is int:
         if isinstance(value, bool) or not isinstance(value, int):
-            raise InputError(f"must be a whole number, got {_short(value)}", file=file,
+            raise InputError(f"must be a whole number, got {short_value(value)}", file=file,
                              where=where)
         _finite(value, spec, file=file, where=where)
     elif kind is bool:
         if not isinstance(value, bool):
-            raise InputError(f"must be true or false, got {_short(value)}", file=file,
+            raise InputError(f"must be true or false, got {short_value(value)}", file=file,
                              where=where)
         return value
     elif kind is str:
         if not isinstance(value, str):
-            raise InputError(f"must be a text string, got {_short(value)}", file=file,
+            raise InputError(f"must be a text string, got {short_value(value)}", file=file,
                              where=where)
         if len(value) > MAX_TEXT:
             raise InputError(f"is {len(value):,} characters long; the limit is {MAX_TEXT:,} "
@@ -202,7 +202,7 @@ def check_value(value: Any, spec: Key, *, file, where: str) -> Any:
             hint = difflib.get_close_matches(value, spec.choices, n=1)
             extra = f" (did you mean {hint[0]!r}?)" if hint else ""
             raise InputError(
-                f"{_short(value)} is not allowed; use {spec.range_text()}{extra}",
+                f"{short_value(value)} is not allowed; use {spec.range_text()}{extra}",
                 file=file, where=where,
             )
         return value

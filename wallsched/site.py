@@ -29,7 +29,16 @@ from .keys import (
     STRIP_KEYS,
     WATER_KEYS,
 )
-from .schema import REQUIRED, Key, SourceText, check_table, check_value, did_you_mean, load_toml
+from .schema import (
+    REQUIRED,
+    Key,
+    SourceText,
+    check_table,
+    check_value,
+    did_you_mean,
+    load_toml,
+    short_value,
+)
 from .schema import where_text as _where
 
 # Tables a wall may override, with their declared keys.
@@ -133,21 +142,31 @@ def resolve_inside(folder: Path, value: str, *, file, where: str) -> Path:
     """A path relative to the site folder that must stay inside it (symlinks resolved)."""
     if not value.strip():
         raise InputError("path is empty", file=file, where=where)
+    if len(value) > 1000 or any(ord(c) < 32 or ord(c) == 127 for c in value):
+        raise InputError(f"{value[:40]!r}... is not a usable path (too long, or a control "
+                         "character); give the file's name relative to the site file",
+                         file=file, where=where)
     p = Path(value)
     if p.is_absolute():
         raise InputError(f"'{value}' is an absolute path; give a path relative to the site file",
                          file=file, where=where)
-    root = folder.resolve()
-    full = (folder / p).resolve()
     try:
-        full.relative_to(root)
-    except ValueError:
-        raise InputError(f"'{value}' leaves the site folder; keep every input file beside or "
-                         "below the site file", file=file, where=where) from None
-    if not full.exists():
-        raise InputError(f"file '{value}' not found (looked in {folder})", file=file, where=where)
-    if not full.is_file():
-        raise InputError(f"'{value}' is not a file", file=file, where=where)
+        root = folder.resolve()
+        full = (folder / p).resolve()
+        try:
+            full.relative_to(root)
+        except ValueError:
+            raise InputError(f"'{value}' leaves the site folder; keep every input file beside "
+                             "or below the site file", file=file, where=where) from None
+        if not full.exists():
+            raise InputError(f"file '{value}' not found (looked in {folder})", file=file,
+                             where=where)
+        if not full.is_file():
+            raise InputError(f"'{value}' is not a file", file=file, where=where)
+    except OSError as exc:
+        raise InputError(f"'{value[:60]}' cannot be used as a path ({exc.strerror}); give the "
+                         "file's name relative to the site file", file=file,
+                         where=where) from None
     return full
 
 
@@ -209,8 +228,8 @@ def check_backslope(soil: dict, *, file, table: str) -> None:
         raise InputError(f"{exc}; give horizontal:vertical, e.g. backslope = \"2:1\"",
                          file=file, where=f"[{table}] backslope") from None
     if deg >= 60.0:
-        raise InputError(f"{soil['backslope']!r} is {deg:.1f} deg; allowed: flatter than "
-                         "60 deg", file=file, where=f"[{table}] backslope")
+        raise InputError(f"{short_value(soil['backslope'])} is {deg:.1f} deg; allowed: "
+                         "flatter than 60 deg", file=file, where=f"[{table}] backslope")
 
 
 def optional_table(base: Mapping | None, over: Any, keys: Mapping, *, file, where: str,
@@ -252,7 +271,7 @@ def _source(value: Any, *, folder: Path, file, key: str) -> Source:
         check_source_options(kind, options, file=file, key=key)
         return Source(kind, path, key, MappingProxyType(options))
     raise InputError(f"must be a CSV path or an inline table such as {{ dxf = \"plan.dxf\", "
-                     f"layer = \"...\" }}, got {value!r}", file=file, where=key)
+                     f"layer = \"...\" }}, got {short_value(value)}", file=file, where=key)
 
 
 def _wall(i: int, raw: Any, site: dict[str, dict], *, folder: Path, file, src: SourceText):
@@ -289,7 +308,8 @@ def _wall(i: int, raw: Any, site: dict[str, dict], *, folder: Path, file, src: S
     for table, keys in OVERRIDABLE.items():
         if not isinstance(nested.get(table, {}), dict):
             raise InputError(f"'{table}' must be a table of keys, e.g. {table} = {{ ... }}, "
-                             f"got {nested[table]!r}", file=file, where=f"{label}.{table}")
+                             f"got {short_value(nested[table])}", file=file,
+                             where=f"{label}.{table}")
         over = dict(nested.get(table, {}))
         over.update(flat_override.get(table, {}))
         for k in over:

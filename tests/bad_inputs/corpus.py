@@ -324,3 +324,238 @@ CASES: list[Case] = [
     Case("million_row_profile", million_rows, "1,000,000 data rows; the limit is 100,000",
          "top.csv", None),
 ]
+
+
+# ---- hostile inputs and faults (issue 19): ids, numbers from every source, alignments that
+# fold back, DXF geometry, ranges as sets, resources. ``DESIGN_ONLY`` cases are refused by
+# ``design`` (the resource estimate) and run by ``stations``.
+
+def wall_line(new: str):
+    """Add ``new`` to the wall's keys."""
+    return edit('front_grade = "bottom.csv"', 'front_grade = "bottom.csv"\n' + new)
+
+
+def table(text: str):
+    """Add a table before [loads] (an array of tables at the end); ``[sizing]`` keys go into
+    the small grid's table, replacing its own."""
+    def build(folder: Path) -> Path:
+        import re
+
+        path = site(folder)
+        body = path.read_text()
+        if text.startswith("[sizing]"):
+            for line in text.splitlines()[1:]:
+                key = line.split("=")[0].strip()
+                body, n = re.subn(rf"(?m)^{key} = .*$", line, body)
+                if not n:
+                    body = body.replace("[sizing]\n", f"[sizing]\n{line}\n", 1)
+        elif text.startswith("[["):
+            body += "\n" + text + "\n"
+        else:
+            body = body.replace("[loads]", text + "\n[loads]", 1)
+        path.write_text(body)
+        return path
+    return build
+
+
+def profile_view(**opts):
+    """The retained grade read from a DXF profile view with ``opts`` (TOML values as text)."""
+    def draw(doc):
+        doc.modelspace().add_lwpolyline([(0, 10), (40, 22), (100, 16)],
+                                        dxfattribs={"layer": "TW"})
+    base = {"view": '"profile"', "origin_station_ft": "0", "origin_elevation_ft": "95",
+            "vertical_exaggeration": "2"}
+    base.update(opts)
+    inline = 'layer = "TW", ' + ", ".join(f"{k} = {v}" for k, v in base.items())
+    return dxf_source(draw, key="retained_grade", old='"top.csv"', options=inline)
+
+
+def plan_alignment(opt: str):
+    """The alignment from two pieces 40 ft apart on a DXF layer, with the option ``opt``."""
+    def draw(doc):
+        doc.modelspace().add_lwpolyline([(0, 0), (50, 0)], dxfattribs={"layer": "WALL"})
+        doc.modelspace().add_lwpolyline([(90, 0), (140, 0)], dxfattribs={"layer": "WALL"})
+    return dxf_source(draw, options=f'layer = "WALL", {opt}')
+
+
+def dxf_truncated(folder: Path) -> Path:
+    path = site(folder)
+    doc = new_dxf()
+    doc.modelspace().add_lwpolyline([(0, 0), (100, 0)], dxfattribs={"layer": "WALL"})
+    buf = io.StringIO()
+    doc.write(buf)
+    text = buf.getvalue()
+    (folder / "plan.dxf").write_text(text[:text.index("ENTITIES")])  # cut before the lines
+    path.write_text(path.read_text().replace(
+        'alignment = "align.csv"', 'alignment = { dxf = "plan.dxf", layer = "WALL" }'))
+    return path
+
+
+def gis_grade(z: float, *, to_crs: str | None = None):
+    """The retained grade from a GeoPackage line whose middle vertex has elevation ``z``."""
+    def build(folder: Path) -> Path:
+        import geopandas as gpd
+        import shapely
+
+        path = site(folder)
+        line = shapely.LineString([(0, 1, 100.0), (40, 1, z), (100, 1, 103.0)])
+        gpd.GeoDataFrame({"name": ["TW"]}, geometry=[line], crs="EPSG:2227").to_file(
+            folder / "grade.gpkg", driver="GPKG")
+        extra = f', to_crs = "{to_crs}"' if to_crs else ""
+        path.write_text(path.read_text().replace(
+            'retained_grade = "top.csv"', f'retained_grade = {{ gis = "grade.gpkg"{extra} }}'))
+        return path
+    return build
+
+
+def dense_points(folder: Path) -> Path:
+    """5,001 grade points 0.02 ft apart: a segment may span thousands of stations."""
+    path = site(folder)
+    rows = "".join(f"{k * 0.02:.2f},{104.0 + 0.01 * (k % 2):.2f}\n" for k in range(5001))
+    (folder / "top.csv").write_text("station,elevation\n" + rows)
+    return path
+
+
+FINEST_GRID = ("[sizing]\ntoe_max_ft = 30\nheel_max_ft = 40\ntoe_heel_step_in = 1\n"
+               "footing_thickness_min_in = 8\nfooting_thickness_max_in = 96\n"
+               "footing_thickness_step_in = 0.5\nstem_min_in = 6\nstem_max_in = 72\n"
+               "stem_step_in = 0.5")
+HUGE = "9" * 400
+WS = f"{W}.retained_grade"
+WA = f"{W}.alignment"
+
+HOSTILE: list[Case] = [
+    # ---- wall ids and text
+    Case("id_empty", edit('id = "A"', 'id = " "'), "wall id is empty", ST, "walls[1].id"),
+    Case("id_bell", edit('id = "A"', 'id = "A\\u0007"'), "control character (U+0007)", ST,
+         "[walls] id"),
+    Case("id_nul", edit('id = "A"', 'id = "A\\u0000B"'), "control character (U+0000)", ST,
+         "[walls] id"),
+    Case("id_bidi_override", edit('id = "A"', 'id = "W\\u202e1"'), "control character (U+202E)",
+         ST, "walls[1].id"),
+    Case("site_name_escape", edit('name = "Test site"', 'name = "Test\\u001b[31m site"'),
+         "control character (U+001B)", ST, "[site] name"),
+    Case("notes_too_long", edit('name = "Test site"',
+                                f'name = "Test site"\nnotes = "{"x" * 5000}"'),
+         "5,000 characters long", ST, "[site] notes"),
+    # ---- numbers in the site file
+    Case("soil_nan", edit("unit_weight_pcf = 120", "unit_weight_pcf = nan"),
+         "must be a finite number", ST, "[soil] unit_weight_pcf"),
+    Case("bearing_inf", edit("allowable_bearing_psf = 2500", "allowable_bearing_psf = inf"),
+         "must be a finite number", ST, "[soil] allowable_bearing_psf"),
+    Case("surcharge_minus_inf", edit("surcharge_psf = 100", "surcharge_psf = -inf"),
+         "must be a finite number", ST, "[loads] surcharge_psf"),
+    Case("soil_400_digits", edit("unit_weight_pcf = 120", f"unit_weight_pcf = {HUGE}"),
+         "a 400-digit number", ST, "[soil] unit_weight_pcf"),
+    Case("toml_5000_digits", edit("surcharge_psf = 100", "surcharge_psf = " + "7" * 5000),
+         "cannot be read", ST, "line 12"),
+    Case("start_station_overflow", edit("start_station_ft = 0.0", "start_station_ft = 1e400"),
+         "must be a finite number", ST, "start_station_ft"),
+    Case("wall_override_nan", wall_line("surcharge_psf = nan"), "must be a finite number", ST,
+         f"{W}.surcharge_psf"),
+    Case("interval_huge_int", table(f"[criteria]\nstation_interval_ft = {'1' + '0' * 30}"),
+         "out of range", ST, "[criteria] station_interval_ft"),
+    Case("strip_offset_nan", table("[[loads.strip]]\noffset_ft = nan\nwidth_ft = 4\n"
+                                   "pressure_psf = 250"),
+         "must be a finite number", ST, "offset_ft"),
+    Case("seismic_kh_inf", table("[seismic]\nkh = inf"), "must be a finite number", ST,
+         "[seismic] kh"),
+    Case("water_level_nan", table("[water]\nlevel_ft = nan"), "must be a finite number", ST,
+         "[water] level_ft"),
+    Case("budget_zero", table("[sizing]\nmemory_budget_gb = 0"), "out of range", ST,
+         "[sizing] memory_budget_gb"),
+    # ---- numbers in the options of an inline source
+    Case("view_origin_nan", profile_view(origin_elevation_ft="nan"),
+         "'origin_elevation_ft' must be a finite number", ST, f"{WS}.origin_elevation_ft"),
+    Case("view_exaggeration_inf", profile_view(vertical_exaggeration="inf"),
+         "'vertical_exaggeration' must be a finite number", ST, f"{WS}.vertical_exaggeration"),
+    Case("view_exaggeration_huge", profile_view(vertical_exaggeration="1e6"),
+         "'vertical_exaggeration' must be at most 100", ST, f"{WS}.vertical_exaggeration"),
+    Case("view_station_400_digits", profile_view(origin_station_ft=HUGE),
+         "a 400-digit number", ST, f"{WS}.origin_station_ft"),
+    Case("view_origin_xy_inf", profile_view(origin_xy="[inf, 0]"),
+         "'origin_xy' must be a point of finite coordinates", ST, f"{WS}.origin_xy"),
+    Case("start_nan", plan_alignment("start = [nan, nan]"),
+         "'start' must be a point of finite coordinates", ST, f"{WA}.start"),
+    Case("gap_tolerance_inf", plan_alignment("gap_tolerance_ft = inf"),
+         "'gap_tolerance_ft' must be a finite number", ST, f"{WA}.gap_tolerance_ft"),
+    Case("gap_tolerance_40", plan_alignment("gap_tolerance_ft = 40"),
+         "'gap_tolerance_ft' must be at most 10", ST, f"{WA}.gap_tolerance_ft"),
+    Case("max_offset_huge", dxf_source(lambda d: None, key="retained_grade", old='"top.csv"',
+                                       options='layer = "TW", max_offset_ft = 1e12'),
+         "'max_offset_ft' must be", ST, f"{WS}.max_offset_ft"),
+    # ---- GIS
+    Case("gis_z_nan", gis_grade(float("nan")), "not a finite number", "grade.gpkg",
+         "feature 1"),
+    Case("gis_z_huge", gis_grade(1e15), "not a finite number of at most", "grade.gpkg",
+         "feature 1"),
+    Case("gis_unknown_crs", gis_grade(104.0, to_crs="EPSG:999999"), "cannot be used",
+         "grade.gpkg", "to_crs"),
+    # ---- DXF geometry, units, damage
+    Case("dxf_arc_radius_1e11", dxf_source(lambda d: d.modelspace().add_arc(
+        (0, 0), 1e11, 0, 1e-7, dxfattribs={"layer": "WALL"})),
+         "beyond 1e+09 ft", "plan.dxf", "ARC handle"),
+    Case("dxf_arc_points", dxf_source(lambda d: d.modelspace().add_arc(
+        (0, 0), 5e8, 0, 350, dxfattribs={"layer": "WALL"})),
+         "would be drawn with about", "plan.dxf", "ARC handle"),
+    Case("dxf_vertex_far_away", dxf_source(lambda d: d.modelspace().add_lwpolyline(
+        [(0, 0), (100, 0), (1e12, 0)], dxfattribs={"layer": "WALL"})),
+         "beyond 1e+09 ft", "plan.dxf", "LWPOLYLINE handle"),
+    Case("dxf_in_miles", dxf_source(lambda d: d.modelspace().add_lwpolyline(
+        [(0, 0), (0.02, 0)], dxfattribs={"layer": "WALL"}), units=3),
+         "are miles, which this reader does not convert", "plan.dxf", None),
+    Case("dxf_truncated", dxf_truncated, "the file ends before its end-of-file marker",
+         "plan.dxf", "layer WALL"),
+    # ---- alignments and CSV numbers
+    Case("alignment_hairpin", file_text("align.csv", "x,y\n0,0\n100,0\n100,0.001\n0,0.001\n"),
+         "folds back on itself", "align.csv", None),
+    Case("alignment_doubled_stretch",
+         file_text("align.csv", "x,y\n0,0\n60,0\n60,0.2\n40,0.2\n40,10\n100,10\n"),
+         "folds back on itself", "align.csv", None),
+    Case("alignment_inf", file_text("align.csv", "x,y\n0,0\ninf,0\n"),
+         "'inf' is not a finite number", "align.csv", "line 3"),
+    Case("csv_underscore", file_text("top.csv", grade("0,100", "50,10_3.5", "100,101")),
+         "'10_3.5' is not a number", "top.csv", "line 3"),
+    Case("csv_exponent_overflow", file_text("top.csv", grade("0,100", "50,1e999", "100,101")),
+         "'1e999' is not a finite number", "top.csv", "line 3"),
+    # ---- ranges as sets
+    Case("segment_min_over_max", table("[criteria]\nsegment_min_ft = 60\nsegment_max_ft = 40"),
+         "segment_min_ft = 60 is more than segment_max_ft = 40", ST,
+         "[criteria] segment_min_ft"),
+    Case("joints_inverted", table("[criteria]\ncontraction_joint_max_ft = 100\n"
+                                  "expansion_joint_max_ft = 50"),
+         "contraction_joint_max_ft = 100 is more than", ST, "[criteria] contraction_joint_max_ft"),
+    Case("heights_inverted", table("[criteria]\nmin_retained_height_ft = 4\n"
+                                   "max_retained_height_ft = 2"),
+         "min_retained_height_ft = 4 is more than", ST, "[criteria] min_retained_height_ft"),
+    Case("wall_segment_min_over_max", wall_line("segment_min_ft = 95"),
+         "segment_min_ft = 95 is more than segment_max_ft = 90", ST, W),
+    Case("footing_min_over_max", table("[sizing]\nfooting_thickness_min_in = 30\n"
+                                       "footing_thickness_max_in = 20"),
+         "footing thickness range is empty", ST, "[sizing] footing_thickness_min_in"),
+    Case("stem_min_over_max", table("[sizing]\nstem_min_in = 20"),
+         "stem thickness range is empty", ST, "[sizing] stem_min_in"),
+    Case("spacing_min_over_max", table("[sizing]\nbar_spacing_min_in = 12\n"
+                                       "bar_spacing_max_in = 6"),
+         "bar spacing range is empty", ST, "[sizing] bar_spacing_min_in"),
+    Case("heel_below_two_steps", table("[sizing]\ntoe_heel_step_in = 24\nheel_max_ft = 2"),
+         "smallest heel", ST, "[sizing] heel_max_ft"),
+    Case("bar_sizes_backwards", table('[sizing]\nbar_sizes = "9-4"'),
+         "runs downward; write it 4-9", ST, "[sizing] bar_sizes"),
+    Case("bar_sizes_words", table('[sizing]\nbar_sizes = "#4 to #99"'), "cannot be read", ST,
+         "[sizing] bar_sizes"),
+    Case("bar_sizes_unknown", table('[sizing]\nbar_sizes = "4,99"'), "cannot be read", ST,
+         "[sizing] bar_sizes"),
+]
+
+# refused by ``design`` before it allocates (``stations`` samples them fine)
+DESIGN_ONLY: list[Case] = [
+    Case("budget_fine_interval", table("[criteria]\nstation_interval_ft = 0.1"),
+         "planning its segments would need about", ST, "walls[1]"),
+    Case("budget_dense_points", dense_points, "a segment may span", ST, "walls[1]"),
+    Case("budget_finest_grid", lambda f: (site(f), (f / ST).write_text(
+        (f / ST).read_text().replace(SMALL_GRID, "\n" + FINEST_GRID + "\n")))[0],
+         "candidate geometries", ST, "[sizing]"),
+    Case("budget_small_limit", table("[sizing]\nmemory_budget_gb = 0.1"),
+         "the limit is [sizing] memory_budget_gb = 0.1", ST, "[sizing]"),
+]
