@@ -266,3 +266,14 @@ def test_a_wall_at_the_station_limit_fits_the_default_budget():
     s = np.arange(50_000) * 5.0
     k1, block = span_and_block(s, 10.0, 90.0)
     assert BASE_BYTES + segmenting_bytes([(s.size, k1, block)]) < 2 * GB
+
+
+def test_groups_planned_side_by_side_add_up(monkeypatch):
+    from wallsched.budget import parallel_segmenting_bytes
+
+    walls = [(1000, 50, 5)] * 8
+    monkeypatch.setenv("WALLSCHED_WORKERS", "2")  # 8 walls in 4 groups of 2, 2 at a time
+    assert parallel_segmenting_bytes(walls) == pytest.approx(
+        2 * segmenting_bytes([(1000, 50, 5)] * 2))
+    monkeypatch.setenv("WALLSCHED_WORKERS", "1")  # one process, one batch
+    assert parallel_segmenting_bytes(walls) == pytest.approx(segmenting_bytes(walls))

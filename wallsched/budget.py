@@ -8,7 +8,8 @@
   and grids of 10 and 20 million (about 75 bytes each), plus the per-height bar tables;
 - the segments' recursion (``engine/segments.py``): its state arrays hold every station x
   every number of stations a segment may span x every footing lowering, and each block of
-  stations compares every pair of states, a block x span^2 x lowering^2 temporaries.
+  stations compares every pair of states, a block x span^2 x lowering^2 temporaries; the
+  groups of walls planned side by side in worker processes each need their own.
 
 Both are estimated from the sampled stations and the grid, before anything is allocated, and
 a run whose estimate exceeds ``[sizing] memory_budget_gb`` (default 2 GB) is refused with
@@ -63,6 +64,21 @@ def segmenting_bytes(walls: list[tuple[int, int, int]]) -> float:
     return float(states) * STATE_BYTES + float(pairs) * PAIR_BYTES
 
 
+def parallel_segmenting_bytes(walls: list[tuple[int, int, int]]) -> float:
+    """:func:`segmenting_bytes` of the groups of walls the design plans side by side in
+    worker processes (``wallsched.design``: up to ``2 x workers`` groups of neighbouring
+    walls, ``workers`` at a time): the sum over the largest groups that run together."""
+    from .engine.site_design import _groups  # the design's own grouping
+    from .parallel import worker_count
+
+    if not walls:
+        return 0.0
+    workers = worker_count(len(walls))
+    groups = _groups(walls, 1 if workers <= 1 else 2 * workers)
+    each = sorted((segmenting_bytes(g) for g in groups), reverse=True)
+    return float(sum(each[:max(1, workers)]))
+
+
 def sizing_bytes(sizing) -> tuple[float, int]:
     """(peak bytes, candidate geometries) of the least-cost search over the grid."""
     from .engine.sizing import SizingGrid
@@ -100,7 +116,7 @@ def check_budget(site, walls) -> float:
         one = segmenting_bytes([shapes[-1]])
         if worst is None or one > worst[0]:
             worst = (one, spec, k1, len(ws))
-    seg = segmenting_bytes(shapes)
+    seg = parallel_segmenting_bytes(shapes)
     total = BASE_BYTES + max(grid, seg)
     if total > budget:
         _, spec, k1, n = worst
