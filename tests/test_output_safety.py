@@ -150,21 +150,56 @@ def test_a_file_added_to_out_is_named_and_kept_in_prev(runner, tmp_path: Path):
 # ---- the lock, signals, leftovers, a full disk, the umask
 
 def test_a_second_run_into_the_same_out_is_refused(runner, tmp_path: Path):
-    import fcntl
+    import subprocess
+    import sys
 
     site = make_site(tmp_path / "site")
     out = tmp_path / "out"
-    fd = os.open(tmp_path / ".out.lock", os.O_RDWR | os.O_CREAT)
+    hold = ("import fcntl, os, sys\n"
+            "fd = os.open(sys.argv[1], os.O_RDWR | os.O_CREAT)\n"
+            "fcntl.lockf(fd, fcntl.LOCK_EX)\n"
+            "print('held', flush=True)\n"
+            "sys.stdin.read()\n")
+    other = subprocess.Popen([sys.executable, "-c", hold, str(tmp_path / ".out.lock")],
+                             stdin=subprocess.PIPE, stdout=subprocess.PIPE, text=True)
     try:
-        fcntl.flock(fd, fcntl.LOCK_EX)  # as a running wallsched holds it
+        assert other.stdout.readline().strip() == "held"  # as a running wallsched holds it
         res = _stations(runner, site, out)
     finally:
-        os.close(fd)
+        other.stdin.close()
+        other.wait(timeout=60)
     assert res.exit_code == 2
     _one_error_line(res.stderr, "another wallsched run", "--out")
     assert not out.exists()
     assert _stations(runner, site, out).exit_code == 0  # released: runs
     assert sorted(p.name for p in tmp_path.iterdir()) == ["out", "site"]
+
+
+def test_the_lock_is_not_held_by_forked_children(tmp_path: Path):
+    # a worker forked during the run (the drawing pool) must not keep the lock after the
+    # run's own process is gone
+    import subprocess
+    import sys
+
+    code = ("import os, sys\n"
+            "from wallsched.outdir import output_lock\n"
+            "with output_lock(sys.argv[1]):\n"
+            "    if os.fork() == 0:\n"
+            "        sys.stdin.read()  # a child that lives on until the test lets it go\n"
+            "        os._exit(0)\n"
+            "    print('forked', flush=True)\n"
+            "    os._exit(0)  # the run's process dies without unlocking\n")
+    run = subprocess.Popen([sys.executable, "-c", code, str(tmp_path / "out")],
+                           stdin=subprocess.PIPE, stdout=subprocess.PIPE, text=True)
+    try:
+        assert run.stdout.readline().strip() == "forked"
+        run.wait(timeout=60)
+        from wallsched.outdir import output_lock
+
+        with output_lock(tmp_path / "out"):  # taken while the child still holds the file
+            pass
+    finally:
+        run.stdin.close()
 
 
 @pytest.mark.parametrize("signum", [signal.SIGTERM, signal.SIGHUP])

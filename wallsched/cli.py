@@ -14,14 +14,14 @@ import click
 from . import __version__
 from .cautions import EPILOG
 from .errors import InputError
-from .outdir import Stopped, install_signal_handlers
+from .outdir import Stopped, install_signal_handlers, restore_signal_handlers
 
 
 class WallGroup(click.Group):
     """Maps InputError (and a command's usage error) to one line on stderr and exit code 2."""
 
     def invoke(self, ctx):
-        install_signal_handlers()
+        handlers = install_signal_handlers()
         try:
             return super().invoke(ctx)
         except InputError as exc:
@@ -36,6 +36,8 @@ class WallGroup(click.Group):
             text = " ".join(exc.format_message().split())
             click.echo(f"error: {text} (see '{sub} --help')", err=True)
             ctx.exit(2)
+        finally:
+            restore_signal_handlers(handlers)
 
 
 @click.group(cls=WallGroup, epilog=EPILOG, context_settings={"help_option_names": ["-h", "--help"]})

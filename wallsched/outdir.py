@@ -16,8 +16,10 @@ warning and go with it into ``DIR.prev`` (and from an old ``DIR.prev`` into the 
 
 One run at a time per target: :func:`output_lock` holds an advisory lock on
 ``.DIR.lock`` beside the target for the whole run (a second run into the same ``--out`` is
-refused), and on taking it finishes or removes what a killed earlier run left behind (its
-temporary folder, and ``DIR``/``DIR.prev`` half-way through the renames).
+refused; a POSIX record lock, so it ends with the process that took it, even when worker
+processes forked from it live on), and on taking it finishes or removes what a killed
+earlier run left behind (its temporary folder, and ``DIR``/``DIR.prev`` half-way through the
+renames).
 """
 
 from __future__ import annotations
@@ -62,12 +64,22 @@ def _on_signal(signum, frame):  # noqa: ARG001 - the signal module's signature
 _STOP_SIGNALS = tuple(getattr(signal, n) for n in ("SIGTERM", "SIGHUP") if hasattr(signal, n))
 
 
-def install_signal_handlers() -> None:
+def install_signal_handlers() -> dict:
     """SIGTERM and SIGHUP raise :class:`Stopped` in the main thread (like SIGINT raises
-    KeyboardInterrupt), so every ``finally`` and clean-up runs."""
+    KeyboardInterrupt), so every ``finally`` and clean-up runs. Returns the handlers they
+    replace, for :func:`restore_signal_handlers`."""
+    old = {}
     for s in _STOP_SIGNALS:
         with contextlib.suppress(ValueError, OSError):  # not the main thread
-            signal.signal(s, _on_signal)
+            old[s] = signal.signal(s, _on_signal)
+    return old
+
+
+def restore_signal_handlers(old: dict) -> None:
+    """Put back the handlers :func:`install_signal_handlers` replaced (the command is done)."""
+    for s, handler in old.items():
+        with contextlib.suppress(ValueError, OSError, TypeError):
+            signal.signal(s, handler if handler is not None else signal.SIG_DFL)
 
 
 def _umask() -> int:
@@ -207,8 +219,8 @@ def _try_lock(fd: int) -> bool:
         except OSError:
             return False
         return True
-    try:
-        fcntl.flock(fd, fcntl.LOCK_EX | fcntl.LOCK_NB)
+    try:  # a POSIX record lock: held by this process alone, never by forked workers
+        fcntl.lockf(fd, fcntl.LOCK_EX | fcntl.LOCK_NB)
     except OSError:
         return False
     return True
