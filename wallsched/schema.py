@@ -208,7 +208,8 @@ def check_value(value: Any, spec: Key, *, file, where: str) -> Any:
         return value
     elif kind is list:
         if not isinstance(value, list):
-            raise InputError(f"must be a list, got {value!r}", file=file, where=where)
+            raise InputError(f"must be a list, got {short_value(value)}", file=file,
+                             where=where)
         if spec.lo is not None or spec.hi is not None:  # a list of numbers in range
             if not value:
                 raise InputError("must list at least one number", file=file, where=where)

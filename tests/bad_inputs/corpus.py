@@ -535,9 +535,8 @@ HOSTILE: list[Case] = [
          "footing thickness range is empty", ST, "[sizing] footing_thickness_min_in"),
     Case("stem_min_over_max", table("[sizing]\nstem_min_in = 20"),
          "stem thickness range is empty", ST, "[sizing] stem_min_in"),
-    Case("spacing_min_over_max", table("[sizing]\nbar_spacing_min_in = 12\n"
-                                       "bar_spacing_max_in = 6"),
-         "bar spacing range is empty", ST, "[sizing] bar_spacing_min_in"),
+    Case("spacing_nan", table("[sizing]\nbar_spacings_in = [6, nan, 12]"),
+         "must be a finite number", ST, "[sizing] bar_spacings_in"),
     Case("heel_below_two_steps", table("[sizing]\ntoe_heel_step_in = 24\nheel_max_ft = 2"),
          "smallest heel", ST, "[sizing] heel_max_ft"),
     Case("bar_sizes_backwards", table('[sizing]\nbar_sizes = "9-4"'),
