@@ -54,11 +54,29 @@ def worker_count(n_tasks: int) -> int:
 def _worker_start() -> None:
     """A worker leaves the run's clean-up to the parent: the default action for SIGTERM and
     SIGHUP (the pool ends its workers with SIGTERM; the parent's handlers would unwind a stack
-    that is not the worker's), and Ctrl-C goes to the parent alone."""
+    that is not the worker's), and Ctrl-C goes to the parent alone. The worker is forked with
+    these signals blocked (:func:`_pool`), so that one arriving before this runs waits for it."""
     for name in ("SIGTERM", "SIGHUP"):
         if hasattr(signal, name):
             signal.signal(getattr(signal, name), signal.SIG_DFL)
     signal.signal(signal.SIGINT, signal.SIG_IGN)
+    signal.pthread_sigmask(signal.SIG_UNBLOCK, _STOPPING)
+
+
+_STOPPING = {getattr(signal, n) for n in ("SIGTERM", "SIGHUP", "SIGINT") if hasattr(signal, n)}
+
+
+def _pool(workers: int):
+    """A pool of forked workers, created with the stopping signals blocked (the workers and
+    the pool's threads inherit the mask; each worker unblocks them once its handlers are
+    set); the caller unblocks them in this process with :func:`_unblock`."""
+    old = signal.pthread_sigmask(signal.SIG_BLOCK, _STOPPING)
+    try:
+        pool = mp.get_context("fork").Pool(workers, initializer=_worker_start)
+    except BaseException:
+        signal.pthread_sigmask(signal.SIG_SETMASK, old)
+        raise
+    return pool, old
 
 
 def _call(k: int):
@@ -80,7 +98,9 @@ def fork_imap(fn: Callable, items: Sequence, *, workers: int | None = None) -> I
         return
     _JOB = (fn, items)
     try:
-        with mp.get_context("fork").Pool(workers, initializer=_worker_start) as pool:
+        pool, mask = _pool(workers)
+        with pool:
+            signal.pthread_sigmask(signal.SIG_SETMASK, mask)  # a pending stop arrives here
             yield from pool.imap(_call, range(n))
     finally:
         _JOB = ()
