@@ -177,17 +177,18 @@ def wall_run(ws: StationSeries, c) -> np.ndarray | None:
 def section_for(table: DesignTable, hc: float, geometry_at, inputs: DesignInputs,
                 first=None):
     """The envelope section of the design table for ``hc`` checked at the segment's stations;
-    if a station still fails, the next taller one (rare). Returns (section, checks, status):
-    section and checks None with a ``no_section`` status when nothing on the grid holds.
-    ``first``: (section, checks) of the first candidate, already checked
-    (:func:`_checked_first`)."""
+    if a station still fails, the next larger section of a taller row (rare). Returns
+    (section, checks, status, design height): section and checks None with a ``no_section``
+    status when nothing on the grid holds; the design height is ``hc``, or the height of the
+    taller row whose section holds (so that the sections still grow with it). ``first``:
+    (section, checks) of the first candidate, already checked (:func:`_checked_first`)."""
     k0 = int(table.index(hc))
     tries = []
     seen = set()
     if first is not None:
         if bool(np.all(first[1].passes)):
-            return first[0], first[1], OK
-        tries.append(first)
+            return first[0], first[1], OK, hc
+        tries.append((first[0], first[1], hc))
         seen.add(first[0].signature())
     for k in range(k0 if k0 >= 0 else len(table.choices), len(table.choices)):
         cand = table.choices[k].section
@@ -197,16 +198,16 @@ def section_for(table: DesignTable, hc: float, geometry_at, inputs: DesignInputs
             continue
         seen.add(cand.signature())
         r = check_section(geometry_at(cand), inputs, reinforcement(cand))
-        tries.append((cand, r))
+        tries.append((cand, r, max(hc, table.choices[k].design_height_ft) if tries else hc))
         if bool(np.all(r.passes)):
             break
     if not tries:
         return None, None, Status(StatusCode.NO_SECTION, (
             f"nothing on the sizing grid holds a design height of "
             f"{hc:.2f} ft; widen [sizing] (footing_thickness_max_in, heel_max_ft, "
-            f"toe_max_ft, stem_max_in) or revisit the soil and loads"))
-    sec, res = tries[-1] if bool(np.all(tries[-1][1].passes)) else tries[0]
-    return sec, res, OK
+            f"toe_max_ft, stem_max_in) or revisit the soil and loads")), hc
+    sec, res, h = tries[-1] if bool(np.all(tries[-1][1].passes)) else tries[0]
+    return sec, res, OK, h
 
 
 @dataclass
@@ -356,8 +357,9 @@ def _design_segment(wall: WallToDesign, table: DesignTable, q, piece, last: bool
     idx = np.arange(i0, i1 + 1)  # both ends are checked
     own = idx if last else idx[:-1]  # the end station goes to the next
     hs, emb, fb = station_cases(ws, idx, bf, tw, c["freeboard_ft"], c["top_of_wall"])
-    sec, res, status = section_for(table, hc, lambda cand: station_geometry(cand, hs, emb, fb),
-                                   wall.inputs, first=first)
+    sec, res, status, hc = section_for(table, hc,
+                                       lambda cand: station_geometry(cand, hs, emb, fb),
+                                       wall.inputs, first=first)
     if res is not None and not bool(np.all(res.passes)):
         bad = int(np.argmax(~np.asarray(res.passes)))
         status = Status(StatusCode.FAILS,

@@ -114,3 +114,39 @@ def test_starter_site_with_a_raised_retained_grade_point_designs(runner, tmp_pat
         sched = pd.read_csv(out / "schedule.csv")
         assert (sched.status == "ok").all()
         check_buildable(sched)
+
+
+def test_a_failing_station_gets_the_next_larger_section():
+    # issue 15 item 7: where the envelope section fails at a station, the next larger section
+    # of a taller row holds it, and the segment is reported at that row's height
+    from wallsched.engine.bars import BarSpec
+    from wallsched.engine.checks import check_section
+    from wallsched.engine.model import SectionDims
+    from wallsched.engine.section import DesignInputs
+    from wallsched.engine.sizing import Choice, DesignTable
+    from wallsched.engine.wall_design import reinforcement, section_for, station_geometry
+
+    inputs = DesignInputs(unit_weight_pcf=120, active_efp_pcf=35, passive_efp_pcf=300,
+                          friction_coefficient=0.4, allowable_bearing_psf=2500)
+    bars = dict(stem_bars=BarSpec(5, 12.0), heel_bars=BarSpec(5, 12.0),
+                toe_bars=BarSpec(5, 12.0), horizontal_bars=BarSpec(4, 12.0),
+                footing_long_bars=BarSpec(4, 12.0))
+    small = SectionDims(stem_top_in=8, stem_base_in=8, footing_thickness_in=12, toe_ft=1.0,
+                        heel_ft=0.75, **bars)
+    large = SectionDims(stem_top_in=12, stem_base_in=12, footing_thickness_in=18, toe_ft=2.0,
+                        heel_ft=4.0, **dict(bars, heel_bars=BarSpec(6, 8.0),
+                                            toe_bars=BarSpec(6, 8.0),
+                                            footing_long_bars=BarSpec(5, 12.0)))
+    table = DesignTable(1.0, 1.0, 0.5, (Choice(1.0, small, 50.0), Choice(2.0, small, 50.0),
+                                        Choice(3.0, large, 90.0)))
+    h = np.array([1.0, 6.0])  # the second station is taller than the envelope said
+
+    def at(sec):
+        return station_geometry(sec, h, np.full(2, 2.0), np.full(2, 0.5))
+
+    small_checks = check_section(at(small), inputs, reinforcement(small))
+    large_checks = check_section(at(large), inputs, reinforcement(large))
+    assert not small_checks.passes.all() and large_checks.passes.all()  # the premise
+    sec, res, status, height = section_for(table, 1.0, at, inputs)
+    assert sec == large and res.passes.all() and status.code.name == "OK"
+    assert height == 3.0
