@@ -477,10 +477,13 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
         else:
             fh0, mh0, fv0 = efp * H ** 2 / 2, efp * H ** 3 / 6, 0.0
         fi = mi = 0.0
-        for poly in concrete:
+        moving = [(gc, c) for c in concrete]
+        if sz.soil_inertia and H > T:  # the soil over the heel moves with the wall
+            moving.append((gam, soil_region))
+        for unit, poly in moving:
             a_c, _, y_c = _polygon_y(poly)
-            fi += kh * gc * a_c
-            mi += kh * gc * a_c * y_c
+            fi += kh * unit * a_c
+            mi += kh * unit * a_c * y_c
         HE = fh0 + lf * dpae * dc + lf * fi
         ME = mh0 + lf * dpae * dc * 0.6 * Hv + lf * mi
         VE = V_perm + fv0 + lf * dpae * ds
@@ -603,42 +606,167 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
                                  12 * 40000 / fs_serv))
     rows["stem_spacing"] = AuditRow(s_sp, s_lim, s_sp <= s_lim)
     ldh = _ldh(s_size, fc, fy, s_sp, i.hook_psi_o)
-    rows["stem_hook"] = AuditRow(ldh, T_in - i.cover_toe_in, ldh <= T_in - i.cover_toe_in)
+    # the hook rests on the bottom mat: the toe bars and the longitudinal bars (when given)
+    mat = A615[_bar(bars["toe"])[0]][0]
+    if bars.get("longitudinal") is not None:
+        mat += A615[_bar(bars["longitudinal"])[0]][0]
+    room_hook = T_in - i.cover_toe_in - mat
+    rows["stem_hook"] = AuditRow(ldh, room_hook, ldh <= room_hook)
 
-    # ---- heel: cantilever from the back face, 1.2 D + 1.6 L, upward pressure neglected
+    # ---- heel: cantilever from the back face
     h_size, h_sp = _bar(bars["heel"])
+    t_size, t_sp = _bar(bars["toe"])
+    # dead and live parts of the thrust on the heel plane: (horizontal, moment, vertical)
     if ext:
-        # soil region right of the stem's back face (full unit weight), footing, surcharge
-        # and the thrust's vertical component at the heel edge
+        th_all = heel_plane(True)
+        th_h = heel_plane(False)
+    else:
+        th_h = (efp * H ** 2 / 2, efp * H ** 3 / 6, 0.0)
+        th_all = (th_h[0] + ka * q * H, th_h[1] + ka * q * H * H / 2, 0.0)
+    th_l = tuple(x - y for x, y in zip(th_all, th_h, strict=True))
+    # the heel's own downward loads: soil right of the stem's back face, heel concrete
+    if ext:
         a_h, x_h, _ = (_polygon_y(_clip_x(soil_region, x_back)) if H > T
                        else (0.0, 0.0, 0.0))
-        mu_h = (1.2 * (gam * a_h * (x_h - x_back) + gc * T * heel ** 2 / 2)
-                + 1.6 * (q * heel ** 2 / 2 + V_th * heel))
-        vu_h = 1.2 * (gam * a_h + gc * T * heel) + 1.6 * (q * heel + V_th)
+        dead_f = gam * a_h + gc * T * heel
+        dead_m = gam * a_h * (x_h - x_back) + gc * T * heel ** 2 / 2
     else:
-        w_heel = 1.2 * (gam * hs + gc * T) + 1.6 * q
-        mu_h, vu_h = w_heel * heel ** 2 / 2, w_heel * heel
-    d_h, pmn_h, pvn_h = _footing_audit(rows, "heel", mu_h, vu_h, h_size, h_sp,
-                                       _cover(h_size, i.cover_heel_in), T_in, fc, fy, i)
+        dead_f = (gam * hs + gc * T) * heel
+        dead_m = dead_f * heel / 2
 
-    # ---- toe: 1.6 x service bearing pressure - 0.9 x weight over the toe, at the front face
-    t_size, t_sp = _bar(bars["toe"])
+    def pressure_fn(V, M, MO):
+        """q(x) of a factored combination from its resultant's distance to the toe (none
+        outside the base), and the break of the diagram (where a triangle ends)."""
+        if V <= 0:
+            return (lambda x: 0.0), ()
+        xr = (M - MO) / V
+        if not (0 < xr < B):
+            return (lambda x: 0.0), ()
+        if B / 3 <= xr <= 2 * B / 3:
+            p0 = V * (4 * B - 6 * xr) / B ** 2
+            p1 = V * (6 * xr - 2 * B) / B ** 2
+            return (lambda x: p0 + (p1 - p0) * x / B), ()
+        if xr < B / 3:
+            n3 = 3 * xr
+            return (lambda x: max(0.0, 2 * V / n3 * (1 - x / n3))), (n3,)
+        n3 = 3 * (B - xr)
+        return (lambda x: max(0.0, 2 * V / n3 * (1 - (B - x) / n3))), (B - n3,)
+
+    def e_loads():
+        """E at 1.0 (ASCE 7-22 2.3.6): horizontal, moment about the base, vertical at the heel
+        edge: the increment at 0.6 H' and kh W of the concrete (and the soil region)."""
+        if sz.method == "seed-whitman":
+            dp, cc, ss = 0.375 * sz.kh * gam * Hv * Hv, 1.0, 0.0
+        else:
+            dp = (_wedge_k(i.friction_angle_deg, incl, beta, sz.kh) - ka) * gam * Hv * Hv / 2
+            cc, ss = ci, si_
+        fh_, mh_ = dp * cc, dp * cc * 0.6 * Hv
+        mass = [(gc, c) for c in concrete]
+        if sz.soil_inertia and H > T:
+            mass.append((gam, soil_region))
+        for unit, poly in mass:
+            a_c, _, y_c = _polygon_y(poly)
+            fh_ += sz.kh * unit * a_c
+            mh_ += sz.kh * unit * a_c * y_c
+        return fh_, mh_, dp * ss
+
+    combos = [("1.2D + 1.6H + 1.6L", 1.2, 1.6, 1.6, None), ("1.2D + 1.6H", 1.2, 1.6, 0.0, None),
+              ("0.9D + 1.6H", 0.9, 1.6, 0.0, None)]
+    if sz is not None:
+        combos.append(("1.2D + 1.0E + 1.6H", 1.2, 1.6, 0.0, e_loads()))
+
+    def combo_pressure(fd, fh, fl, e):
+        V = fd * V_perm + fh * th_h[2] + fl * (Wq + th_l[2])
+        M = fd * M_perm + (fh * th_h[2] + fl * th_l[2]) * B + fl * Mq
+        MO = fh * th_h[1] + fl * th_l[1]
+        if e is not None:
+            V, M, MO = V + e[2], M + e[2] * B, MO + e[1]
+        return pressure_fn(V, M, MO)
+
+    if not i.heel_upward_pressure:
+        mu_h = 1.2 * dead_m + 1.6 * (q * heel ** 2 / 2 + th_all[2] * heel)
+        vu_h = 1.2 * dead_f + 1.6 * (q * heel + th_all[2])
+        heel_combo = "1.2D + 1.6L + 1.6H, upward pressure neglected"
+    else:
+        mu_h = vu_h = -math.inf
+        heel_combo = ""
+        for name, fd, fh, fl, e in combos:
+            pf, brk = combo_pressure(fd, fh, fl, e)
+            up_f = _simpson(pf, x_back, B, brk, 4)
+            up_m = _simpson(lambda x, pf=pf: pf(x) * (x - x_back), x_back, B, brk, 4)
+            pv = fh * th_h[2] + fl * th_l[2] + (e[2] if e is not None else 0.0)
+            v_c = fd * dead_f + fl * q * heel + pv - up_f
+            m_c = fd * dead_m + fl * q * heel ** 2 / 2 + pv * heel - up_m
+            if v_c > vu_h:
+                heel_combo = name
+            mu_h, vu_h = max(mu_h, m_c), max(vu_h, v_c)
+    cov_h = _cover(h_size, i.cover_heel_in)
+    d_h, pmn_h, pvn_h = _footing_audit(rows, "heel", mu_h, vu_h, h_size, h_sp, cov_h, T_in, fc,
+                                       fy, i)
+
+    # ---- toe: 1.6 x service bearing pressure - 0.9 x weight over the toe; Mu at the front
+    # face, Vu at d from it (7.4.3.2 by 13.2.7); with [seismic] also 1.2D + 1.0E + 1.6H
     w_toe = gc * T + (gam * max(emb - T, 0.0) if i.count_toe_soil else 0.0)
+    cov_t = _cover(t_size, i.cover_toe_in)
+    d_t0 = T_in - cov_t - A615[t_size][0] / 2
+    lv = max(toe - d_t0 / 12, 0.0)
     if in_base:
-        f_up, m_up = _toe_load(gov[1], gov[0], B, toe)  # the governing bearing case
+        _, m_up = _toe_load(gov[1], gov[0], B, toe)  # the governing bearing case
+        f_up, _ = _toe_load(gov[1], gov[0], B, lv)
         if hw > 0:  # uplift under the toe
 
             def u(x):
                 return WATER * hw * x / B
-            f_up += _simpson(u, 0.0, toe, n=4)
+            f_up += _simpson(u, 0.0, lv, n=4)
             m_up += _simpson(lambda x: u(x) * (toe - x), 0.0, toe, n=4)
         mu_t = 1.6 * m_up - 0.9 * w_toe * toe ** 2 / 2
-        vu_t = 1.6 * f_up - 0.9 * w_toe * toe
+        vu_t = 1.6 * f_up - 0.9 * w_toe * lv
     else:
         mu_t = vu_t = math.nan
-    d_t, pmn_t, pvn_t = _footing_audit(rows, "toe", mu_t, vu_t, t_size, t_sp,
-                                       _cover(t_size, i.cover_toe_in), T_in, fc, fy, i)
+    if sz is not None:
+        pf, brk = combo_pressure(1.2, 1.6, 0.0, combos[-1][4])
+        m_e = _simpson(lambda x: pf(x) * (toe - x), 0.0, toe, brk, 4) - 1.2 * w_toe * toe ** 2 / 2
+        v_e = _simpson(pf, 0.0, lv, brk, 4) - 1.2 * w_toe * lv
+        mu_t = max(mu_t, m_e) if not math.isnan(mu_t) else math.nan  # static case outside
+        vu_t = max(vu_t, v_e) if not math.isnan(vu_t) else math.nan  # the base: no number
+    d_t, pmn_t, pvn_t = _footing_audit(rows, "toe", mu_t, vu_t, t_size, t_sp, cov_t, T_in, fc,
+                                       fy, i)
     rows["toe_depth"] = AuditRow(6.0, d_t, d_t >= 6.0)
+
+    # ---- development of the footing bars beyond the stem faces (25.4.2.3, 25.4.3.1, 25.4.10)
+    def develop(size, sp, mu, d_, cover, room, top, given):
+        db = A615[size][0]
+        As_p = A615[size][1] * 12 / sp
+        # As,req for Mu at phi = 0.9: 0.9 fy As (d - As fy / (1.7 f'c b)) = 12 Mu, the root
+        # of a quadratic in As (the engine solves for the block depth instead)
+        mu_in = max(mu, 0.0) * 12 if not math.isnan(mu) else math.nan
+        aq = 0.9 * fy * fy / (1.7 * fc * 12)
+        disc = (0.9 * fy * d_) ** 2 - 4 * aq * mu_in if not math.isnan(mu_in) else -1.0
+        as_req = (0.9 * fy * d_ - math.sqrt(disc)) / (2 * aq) if disc >= 0 else math.nan
+        ratio = as_req / As_p if (As_p > 0 and not math.isnan(as_req)) else 1.0
+        ratio = min(max(ratio, 0.0), 1.0)
+        root = min(math.sqrt(fc), 100.0)
+        psi_t = 1.3 if (top and T_in - cover - db > 12.0) else 1.0
+        psi_g = 1.0 if fy <= 60000 else (1.15 if fy <= 80000 else 1.3)
+        roomy = (sp - db >= 2 * db) and (cover >= db)
+        k = (25.0 if roomy else 50.0 / 3.0) if size <= 6 else (20.0 if roomy else 40.0 / 3.0)
+        ld = max(fy * min(psi_t, 1.7) * psi_g / (k * root) * db, 12.0)
+        ld_s = max(ld * ratio, 12.0)
+        psi_r = 1.0 if (size <= 11 and sp >= 6 * db) else 1.6
+        psi_c = 0.6 + fc / 15000 if fc < 6000 else 1.0
+        ldh_eq = fy * psi_r * i.hook_psi_o * psi_c / (55 * root) * db ** 1.5
+        ld_h = max(ldh_eq * ratio, 8 * db, 6.0)
+        hooked = (ld_s > room + 1e-9) if given is None else bool(given)
+        return (ld_h if hooked else ld_s), hooked
+
+    room_h = g["stem_base_in"] + 12 * toe - 3.0
+    room_t = g["stem_base_in"] + 12 * heel - 3.0
+    need_h, hooked_h = develop(h_size, h_sp, mu_h, d_h, cov_h, room_h, True,
+                               bars.get("heel_hooked"))
+    need_t, hooked_t = develop(t_size, t_sp, mu_t, d_t, cov_t, room_t, False,
+                               bars.get("toe_hooked"))
+    rows["heel_development"] = AuditRow(need_h, room_h, need_h <= room_h)
+    rows["toe_development"] = AuditRow(need_t, room_t, need_t <= room_t)
 
     hz = _bar(bars.get("horizontal"))
     if hz is not None:
@@ -669,6 +797,7 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
         "toe_mu_lbft": mu_t, "toe_phi_mn_lbft": pmn_t, "toe_vu_lb": vu_t,
         "toe_phi_vn_lb": pvn_t, "toe_d_in": d_t,
         "virtual_back_height_ft": Hv, "ka": ka, "sum_v_lb": V_res, **seis,
+        "heel_combination": heel_combo, "heel_hooked": hooked_h, "toe_hooked": hooked_t,
     }
     return rows, values
 

@@ -29,7 +29,8 @@ from .pressure import EarthPressure, earth_pressure
 from .section import DesignInputs, Reinforcement, SectionGeometry, section_weights
 from .stability import StabilityResult, stability
 from .strength import (
-    MemberResult,
+    COMBINATIONS,
+    FootingResult,
     StemResult,
     heel_strength,
     max_flexural_spacing_in,
@@ -47,18 +48,25 @@ LOAD_FACTORS = (
     "(IBC 2021 1807.2.3; required FS from [criteria]).",
     "Stem: 1.6 on lateral earth pressure and on the lateral pressure of the live surcharge "
     "(ASCE 7 2.3, H and L).",
-    "Heel: 1.2 on the soil and concrete weight over it, 1.6 on the live surcharge; the upward "
-    "soil pressure under the heel is neglected (conservative; McCormac & Brown 13.10).",
+    "Heel (heel_upward_pressure = true): the largest of 1.2D + 1.6H + 1.6L, 1.2D + 1.6H and "
+    "0.9D + 1.6H (ASCE 7-22 2.3.1), each the combination's load on the heel less its own "
+    "factored bearing pressure under the heel (none where its resultant leaves the base).",
     "Toe: 1.6 on the service bearing pressure of the governing bearing case, less 0.9 on the "
-    "weight of footing and soil "
-    "over the toe (dead load that resists).",
+    "weight of footing and soil over the toe (dead load that resists); Mu at the stem's "
+    "front face, Vu at d from it.",
 )
+HEEL_TEXTBOOK_NOTE = (
+    "Heel (heel_upward_pressure = false): 1.2 on the soil and concrete weight over it, 1.6 on "
+    "the live surcharge; the upward soil pressure under the heel is neglected (McCormac & "
+    "Brown 13.10).")
 
 
 SEISMIC_LOAD_FACTOR_NOTE = (
     "Seismic case: stability with load_factor x E (IBC 2021 1807.2.3: 0.7) added to the "
     "static soil thrust, live surcharge and strip loads left out, required FS from [seismic]; "
-    "stem strength also for 1.6 H + 1.0 E (ASCE 7 2.3.6); heel and toe for the static cases.")
+    "stem strength also for 1.6 H + 1.0 E (ASCE 7 2.3.6); heel and toe also for 1.2D + 1.0E "
+    "+ 1.6H with that combination's factored bearing pressure (E: Delta P_AE and kh W of the "
+    "concrete and, with soil_inertia, of the soil over the heel).")
 
 
 # detailing rows: limits the choice of bars and dimensions meets (bar spacing limits, least
@@ -114,12 +122,13 @@ class SectionChecks:
     rows: tuple[CheckRow, ...]
     stability: StabilityResult
     stem: StemResult
-    heel: MemberResult
-    toe: MemberResult
+    heel: FootingResult
+    toe: FootingResult
     pressure: EarthPressure
     valid: np.ndarray
     passes: np.ndarray
     utilization_max: np.ndarray
+    heel_textbook: bool = False  # heel_upward_pressure = false
 
     @property
     def names(self) -> tuple[str, ...]:
@@ -264,6 +273,21 @@ class SectionChecks:
         out["stem"].update(ldh_in=v(self.stem.ldh_in),
                            ldh_available_in=v(self.stem.ldh_available_in),
                            fs_service_psi=v(self.stem.fs_service_psi))
+        for m in ("heel", "toe"):
+            r = getattr(self, m)
+            mc = int(np.broadcast_to(r.mu_combination, shp)[index])
+            vc = int(np.broadcast_to(r.vu_combination, shp)[index])
+            rf, rv = self.row(f"{m}_flexure"), self.row(f"{m}_shear")
+            rat = [float(np.broadcast_to(x.ratio, shp)[index]) for x in (rf, rv)]
+            hooked = bool(np.broadcast_to(r.hooked, shp)[index])
+            out[m].update(
+                combination=COMBINATIONS[vc if rat[1] >= rat[0] else mc],
+                mu_combination=COMBINATIONS[mc], vu_combination=COMBINATIONS[vc],
+                as_required_in2=v(r.as_required_in2),
+                anchorage=(f"{int(np.broadcast_to(r.hook_angle_deg, shp)[index])}-degree hook"
+                           if hooked else "straight"),
+                ld_straight_in=v(r.ld_straight_in), ldh_in=v(r.ldh_in),
+                ld_required_in=v(r.ld_required_in), ld_available_in=v(r.ld_available_in))
         out["checks"] = self._rows_at(index)
         out["passes"] = bool(np.broadcast_to(self.passes, shp)[index])
         out["utilization_max"] = v(self.utilization_max)
@@ -271,6 +295,8 @@ class SectionChecks:
         out["governing_ratio"] = v(np.broadcast_to(self.governing_ratio, shp))
         out["detailing_at_limit"] = list(self.detailing_at_limit(index))
         out["load_factors"] = list(LOAD_FACTORS)
+        if self.heel_textbook:
+            out["load_factors"][2] = HEEL_TEXTBOOK_NOTE
         sz = st.seismic
         if sz is not None:
             lf = sz.thrust.component("seismic increment")
@@ -303,17 +329,19 @@ def _val(a, shape, index):
     return x if math.isfinite(x) else None
 
 
-def _footing_rows(name, face, mat, m, inputs, valid):
+def _footing_rows(name, face, mat, m, inputs, valid, shear_at="at"):
     """Flexure, shear, minimum steel and spacing of a footing cantilever (heel or toe)."""
     aci = "ACI 318-19"
     shear = f"{aci} Table 22.5.5.1(c), " + ("lambda_s applied" if inputs.footing_shear_size_effect
                                            else "lambda_s neglected per 13.2.6.2")
+    if shear_at != "at":
+        shear += ", 7.4.3.2 by 13.2.7"
     title = name.capitalize()
     return (
         _row(f"{name}_flexure", f"{title} flexure at {face}", "lb-ft",
              f"{aci} 22.2, Table 21.2.2", m.mu_lbft, m.phi_mn_lbft, valid=valid),
-        _row(f"{name}_shear", f"{title} shear at {face}", "lb", shear, m.vu_lb, m.phi_vn_lb,
-             valid=valid),
+        _row(f"{name}_shear", f"{title} shear {shear_at} {face}", "lb", shear, m.vu_lb,
+             m.phi_vn_lb, valid=valid),
         _row(f"{name}_min_steel", f"{title} minimum steel ({mat})", "in2/ft",
              f"{aci} 7.6.1.1, 13.3.2.1", m.as_min_in2, m.as_in2, valid=valid),
         _row(f"{name}_spacing", f"{title} bar spacing", "in", f"{aci} 7.7.2.3", m.spacing_in,
@@ -336,10 +364,14 @@ def check_section(geom: SectionGeometry, inputs: DesignInputs, bars: Reinforceme
     """
     p = pressure or earth_pressure(inputs)
     valid = geom.valid
-    st = stability(geom, inputs, pressure=p, weights=section_weights(geom, inputs))
-    stem = stem_strength(geom, inputs, bars.stem, pressure=p)
-    heel = heel_strength(geom, inputs, bars.heel)
-    toe = toe_strength(geom, inputs, bars.toe, st)
+    w = section_weights(geom, inputs)
+    st = stability(geom, inputs, pressure=p, weights=w)
+    stem = stem_strength(geom, inputs, bars.stem, pressure=p,
+                         bottom_mat_in=bottom_mat_in(bars))
+    heel = heel_strength(geom, inputs, bars.heel, st, pressure=p, weights=w,
+                         hooked=bars.heel_hooked)
+    toe = toe_strength(geom, inputs, bars.toe, st, pressure=p, weights=w,
+                       hooked=bars.toe_hooked)
     aci = "ACI 318-19"
     emb_req = max(inputs.min_embedment_ft, inputs.frost_depth_ft or 0.0)
     with np.errstate(divide="ignore", invalid="ignore"):
@@ -372,12 +404,19 @@ def check_section(geom: SectionGeometry, inputs: DesignInputs, bars: Reinforceme
         _row("stem_spacing", "Stem bar spacing (3h, 18 in, crack control)", "in",
              f"{aci} 7.7.2.3, 24.3.2" if inputs.crack_control else f"{aci} 7.7.2.3",
              stem.spacing_in, stem.s_max_in, valid=valid),
-        _row("stem_hook", "Stem bar hook development into footing", "in",
+        _row("stem_hook", "Stem bar hook development into footing (on the bottom mat)", "in",
              f"{aci} 25.4.3.1, Table 25.3.1", stem.ldh_in, stem.ldh_available_in, valid=valid),
         *_footing_rows("heel", "back face of stem", "top", heel, inputs, valid),
-        *_footing_rows("toe", "front face of stem", "bottom", toe, inputs, valid),
+        *_footing_rows("toe", "front face of stem", "bottom", toe, inputs, valid,
+                       shear_at="at d from"),
         _row("toe_depth", "Footing depth above bottom bars", "in", f"{aci} 13.3.1.2",
              TOE_MIN_DEPTH_IN, toe.d_in, valid=valid),
+        _row("heel_development", "Heel top bars developed beyond the stem's back face", "in",
+             f"{aci} 25.4.2.3 (straight) or 25.4.3.1 (hooked), 25.4.10.1",
+             heel.ld_required_in, heel.ld_available_in, valid=valid),
+        _row("toe_development", "Toe bottom bars developed beyond the stem's front face", "in",
+             f"{aci} 25.4.2.3 (straight) or 25.4.3.1 (hooked), 25.4.10.1",
+             toe.ld_required_in, toe.ld_available_in, valid=valid),
     ]
     sz = st.seismic
     if sz is not None:
@@ -420,7 +459,17 @@ def check_section(geom: SectionGeometry, inputs: DesignInputs, bars: Reinforceme
     for r in rows:
         passes &= r.passes
         util = np.maximum(util, r.ratio)  # NaN propagates
-    return SectionChecks(tuple(rows), st, stem, heel, toe, p, np.asarray(valid), passes, util)
+    return SectionChecks(tuple(rows), st, stem, heel, toe, p, np.asarray(valid), passes, util,
+                         heel_textbook=not inputs.heel_upward_pressure)
+
+
+def bottom_mat_in(bars: Reinforcement):
+    """Depth of the footing's bottom mat that the stem hooks rest on: the toe bars and, when
+    given, the longitudinal bars over them (diameters, in)."""
+    out = bars.toe.diameter_in
+    if bars.longitudinal is not None:
+        out = out + bars.longitudinal.diameter_in
+    return out
 
 
 # the names in order, for callers that want them without running a check
@@ -428,7 +477,7 @@ CHECK_NAMES = (
     "overturning", "sliding", "bearing", "embedment", "stem_flexure", "stem_shear",
     "stem_flexure_height", "stem_shear_height", "stem_min_steel", "stem_spacing", "stem_hook",
     "heel_flexure", "heel_shear", "heel_min_steel", "heel_spacing", "toe_flexure", "toe_shear",
-    "toe_min_steel", "toe_spacing", "toe_depth",
+    "toe_min_steel", "toe_spacing", "toe_depth", "heel_development", "toe_development",
 )
 OPTIONAL_CHECK_NAMES = ("stem_horizontal_steel", "stem_horizontal_spacing",
                         "footing_longitudinal_steel", "footing_longitudinal_spacing")

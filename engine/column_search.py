@@ -28,15 +28,20 @@ import math
 import numpy as np
 
 from .bars import bar_weight_plf
-from .grid_sections import as_column, at_most, axes_geometry, grid_geometry, pair_table
+from .grid_sections import (
+    as_column,
+    at_most,
+    axes_geometry,
+    evaluate_candidates,
+    grid_geometry,
+    stem_pair_table,
+)
 from .section import BarArrays, SectionGeometry
-from .stability import stability
 from .strength import (
     heel_strength,
     max_flexural_spacing_in,
     min_flexural_steel_in2,
     stem_strength,
-    toe_strength,
 )
 
 COLUMNS_PER_BLOCK = 256
@@ -130,12 +135,16 @@ class ColumnSearch:
         return as_column(grid_geometry(self.g, first, h, self.emb, self.fb))
 
     def _heel_picks(self, h):
-        """Cheapest passing heel bars per heel pair (-1 where none), exact."""
-        one = BarArrays(self.bars.size[:1], self.bars.spacing_in[:1])
-        r = heel_strength(self._pair_geoms(self.codes["heel_first"], h), self.inputs, one)
+        """Per heel pair the cheapest heel bars that can pass (-1 where none): a lower bound
+        (the development, and with the net pressure the demand, depend on the whole
+        geometry; the candidates are checked exactly in :func:`evaluate_candidates`)."""
         ti = self.heel_T_of
-        ok = (at_most(r.mu_lbft, _rows(self.heel_phi_mn, ti))
-              & at_most(r.vu_lb, _rows(self.heel_phi_vn, ti)) & _rows(self.heel_fixed, ti))
+        ok = _rows(self.heel_fixed, ti)
+        if not self.inputs.heel_upward_pressure:  # the demand of the pair holds for its toes
+            one = BarArrays(self.bars.size[:1], self.bars.spacing_in[:1])
+            r = heel_strength(self._pair_geoms(self.codes["heel_first"], h), self.inputs, one)
+            ok = ok & (at_most(r.mu_lbft, _rows(self.heel_phi_mn, ti))
+                       & at_most(r.vu_lb, _rows(self.heel_phi_vn, ti)))
         return _cheapest(ok, self.bars_w[None, :])
 
     def _stem_bounds(self, h):
@@ -268,11 +277,13 @@ class ColumnSearch:
         heel_pick = self._heel_picks(h)
         heel_w = np.where(heel_pick >= 0, self.bars_w[np.maximum(heel_pick, 0)], np.inf)
         stem_lb = self._stem_bounds(h)  # replaced by the exact value once a pair is known
-        stem_pick = np.full(stem_lb.size, -2, np.int64)  # -2: not yet evaluated
+        n_pairs = stem_lb.size
+        n_k = int(self.toe_tab.mat_class.max()) + 1
+        s_pick_k = np.full((n_pairs, n_k), -2, np.int64)  # -2: not yet evaluated
+        s_lb_k = np.full((n_pairs, n_k), np.inf)
         live = ((ptr < self.toe_hi) & np.isfinite(heel_w[self.heel_of])
                 & np.isfinite(stem_lb[self.stem_of]))
         cols = np.nonzero(live)[0]
-        bars_db = bars.diameter_in
         one_bar = BarArrays(bars.size[:1], bars.spacing_in[:1])
         best_cost, best = math.inf, None
         while cols.size:
@@ -301,58 +312,39 @@ class ColumnSearch:
             cols = np.concatenate([rest, now])
             # exact stem bars of the pairs met for the first time
             pairs = self.stem_of[ccol]
-            new = np.unique(pairs[stem_pick[pairs] == -2])
+            new = np.unique(pairs[s_pick_k[pairs, 0] == -2])
             if new.size:
-                pk = pair_table(g, self.codes["stem_first"][new], h, emb, fb, inputs, bars,
-                                    "stem")
-                stem_pick[new] = pk
-                length = self._stem_bar_length(h, self.codes["stem_first"][new])
-                safe = np.maximum(pk, 0)
-                stem_lb[new] = np.where(pk >= 0, self.bars_w[safe] * (length + bars_db[safe]),
-                                        np.inf)
-            s_b = stem_pick[pairs]
-            h_b = heel_pick[self.heel_of[ccol]]
-            fine = (s_b >= 0) & (h_b >= 0)
-            cand, s_b, h_b = cand[fine], s_b[fine], h_b[fine]
+                first = self.codes["stem_first"][new]
+                pk, lbk = stem_pair_table(g, first, h, emb, fb, inputs, bars,
+                                          pre["long_db_in"][first])
+                s_pick_k[new], s_lb_k[new] = pk, lbk
+                stem_lb[new] = np.min(lbk, axis=1)
+            fine = np.isfinite(stem_lb[pairs]) & (heel_pick[self.heel_of[ccol]] >= 0)
+            cand, ccol = cand[fine], ccol[fine]
             if cand.size == 0:
                 continue
             c_of = cand % nc
             hst = h + pre["emb_ft"][c_of] + fb - pre["T_ft"][c_of]
             B = pre["B_ft"][cand]
-            sw = self.bars_w[s_b] * (hst + pre["stem_anchor_ft"][c_of] + bars_db[s_b])
-            base = (pre["cost0"][cand] + pre["cost_per_hst"][c_of] * hst
-                    + cs * (sw + self.bars_w[h_b] * (B - 0.5)))
-            low = base + cs * self.w_min * (B - 0.5)
+            base = pre["cost0"][cand] + pre["cost_per_hst"][c_of] * hst
+            low = base + cs * (stem_lb[self.stem_of[c_of]]
+                               + (heel_w[self.heel_of[c_of]] + self.w_min) * (B - 0.5))
             fine = low < best_cost
             if not fine.all():
-                cand, s_b, h_b, base, B = (x[fine] for x in (cand, s_b, h_b, base, B))
+                cand, base = cand[fine], base[fine]
             if cand.size == 0:
                 continue
             fine = self.screen.passes(h, cand)
             if not fine.all():
-                cand, s_b, h_b, base, B = (x[fine] for x in (cand, s_b, h_b, base, B))
+                cand, base = cand[fine], base[fine]
             if cand.size == 0:
                 continue
-            sub = as_column(grid_geometry(g, cand, h, emb, fb))
-            st = stability(sub, inputs)
-            ok = np.asarray(st.passes & sub.valid)[:, 0]
-            if not ok.any():
+            found = evaluate_candidates(g, cand, base, h, emb, fb, inputs, cs, self.toe_tab,
+                                        s_pick_k, s_lb_k, self.stem_of, one_bar)
+            if found is None:
                 continue
-            tr = toe_strength(sub, inputs, one_bar, st)
-            ti = self.toe_tab["T_of"][cand % nc]
-            t_ok = (at_most(tr.mu_lbft, _rows(self.toe_tab["phi_mn"], ti))
-                    & at_most(tr.vu_lb, _rows(self.toe_tab["phi_vn"], ti))
-                    & _rows(self.toe_tab["fixed_ok"], ti) & ok[:, None])
-            t_cost = np.where(t_ok, self.bars_w[None, :] * (B - 0.5)[:, None], np.inf)
-            t_pick = np.argmin(t_cost, axis=1)
-            total = base + cs * t_cost[np.arange(cand.size), t_pick]
-            if not np.isfinite(total).any():
-                continue
-            k = int(np.lexsort((cand, total))[0])  # least cost, ties to the lower index
-            key = (float(total[k]), int(cand[k]))
-            if best is None or key < (best_cost, best[0]):
-                best_cost = key[0]
-                best = (int(cand[k]), int(s_b[k]), int(h_b[k]), int(t_pick[k]))
+            if best is None or (found[0], found[1][0]) < (best_cost, best[0]):
+                best_cost, best = found
         if best is None:
             return None
         return (*best, best_cost)

@@ -10,8 +10,11 @@ S1    stem vertical, earth face, 90-degree hook into the footing (continuous fro
 S2    stem vertical, earth face, straight upper bar lapped on a dowel (only when S1 would
       exceed the stock length)
 D1    dowel for S2: 90-degree hook in the footing, Class B lap above the top of footing
-F1    heel top bars, transverse, top mat of the footing (full width less cover)
-F2    toe bottom bars, transverse, bottom mat of the footing (full width less cover)
+F1    heel top bars, transverse, top mat of the footing (full width less cover); a standard
+      hook turned down at the toe end where the straight bar cannot be developed beyond the
+      stem's back face (the section's ``heel_hooked``)
+F2    toe bottom bars, transverse, bottom mat of the footing (full width less cover); hooked
+      up at the heel end where the section's ``toe_hooked`` says so
 L1    footing longitudinal bars, top mat
 L2    footing longitudinal bars, bottom mat
 H1    stem horizontal bars, earth (back) face
@@ -200,13 +203,15 @@ def _rows_for_segment(seg: Segment, *, fc_psi: float, fy_psi: float,
     rows: list[BarRow] = []
     dev = {"fc_psi": fc_psi, "fy_psi": fy_psi}
 
-    def lap(spec: BarSpec, cover_in: float, horizontal: bool) -> float:
-        # ACI 318-19 25.4.2.5 psi_t = 1.3 for horizontal bars with > 12 in of fresh concrete below
-        psi_t = 1.3 if horizontal else 1.0
+    def lap(spec: BarSpec, cover_in: float, concrete_below_in: float) -> float:
+        # ACI 318-19 25.4.2.5: psi_t = 1.3 only for a horizontal top bar, one with more than
+        # 12 in of fresh concrete cast below it in one pour (0: a vertical bar)
+        psi_t = 1.3 if concrete_below_in > 12.0 else 1.0
         return class_b_lap_in(spec.size, cover_in=cover_in, spacing_in=spec.spacing_in,
                               psi_t=psi_t, **dev)
 
     bottom_mat_in = COVER_EARTH_IN  # bottom of footing cast against earth
+    top_cover_in = 2.0  # top of footing, formed or exposed to earth (Table 20.5.1.3.1)
 
     s = sec.stem_bars
     if s is not None:
@@ -219,32 +224,48 @@ def _rows_for_segment(seg: Segment, *, fc_psi: float, fy_psi: float,
             rows.append(BarRow("S1", s.size, s.spacing_in, n, round_up_inch(cut_in),
                                SHAPE_HOOK90))
         else:
-            lap_in = lap(s, formed_cover_in(s.size), horizontal=False)
+            lap_in = lap(s, formed_cover_in(s.size), 0.0)
             dowel_straight = t_in - bottom_mat_in - hook_out_to_out_in(s.size) + lap_in
             dowel_in = dowel_straight + hook_developed_in(s.size, 90)
             upper_in = stem_h_in - formed_cover_in(s.size)
             rows.append(BarRow("D1", s.size, s.spacing_in, n, round_up_inch(dowel_in),
                                SHAPE_HOOK90))
-            pieces, piece_in = lapped_pieces(upper_in, lap(s, formed_cover_in(s.size), False),
+            pieces, piece_in = lapped_pieces(upper_in, lap(s, formed_cover_in(s.size), 0.0),
                                              stock_in)
             rows.append(BarRow("S2", s.size, s.spacing_in, n * pieces, round_up_inch(piece_in),
                                SHAPE_STRAIGHT))
 
-    for mark, spec in (("F1", sec.heel_bars), ("F2", sec.toe_bars)):
+    for mark, spec, hooked, top in (("F1", sec.heel_bars, sec.heel_hooked, True),
+                                    ("F2", sec.toe_bars, sec.toe_hooked, False)):
         if spec is None:
             continue
         n = bar_count(run_along_in, spec.spacing_in)
         across_in = width_in - 2 * COVER_EARTH_IN  # footing edges cast against earth
-        pieces, piece_in = lapped_pieces(across_in, lap(spec, COVER_EARTH_IN, True), stock_in)
+        below_in = t_in - top_cover_in - bar_db_in(spec.size) if top else 0.0
+        shape = SHAPE_STRAIGHT
+        if hooked:
+            # a standard hook at the far end from the heel edge (F1) or the toe edge (F2):
+            # 90 degrees where its tail fits in the depth between the covers, else 180
+            depth = t_in - (formed_cover_in(spec.size) if top else top_cover_in) - bottom_mat_in
+            tail90 = bend_diameter_in(spec.size) / 2 + bar_db_in(spec.size) + hook_extension_in(
+                spec.size, 90)
+            angle = 90 if tail90 <= depth + 1e-9 else 180
+            shape = SHAPE_HOOK90 if angle == 90 else SHAPE_HOOK180
+            across_in = (across_in - hook_out_to_out_in(spec.size)
+                         + hook_developed_in(spec.size, angle))
+        pieces, piece_in = lapped_pieces(across_in, lap(spec, COVER_EARTH_IN, below_in),
+                                         stock_in)
         rows.append(BarRow(mark, spec.size, spec.spacing_in, n * pieces, round_up_inch(piece_in),
-                           SHAPE_STRAIGHT))
+                           shape))
 
     f = sec.footing_long_bars
     if f is not None:
         across_in = width_in - 2 * COVER_EARTH_IN
         n = bar_count(across_in, f.spacing_in)
-        pieces, piece_in = lapped_pieces(run_along_in, lap(f, COVER_EARTH_IN, True), stock_in)
-        for mark in ("L1", "L2"):
+        # L1 is the top mat (fresh concrete below it), L2 the bottom mat (none)
+        for mark, below_in in (("L1", t_in - top_cover_in - bar_db_in(f.size)), ("L2", 0.0)):
+            pieces, piece_in = lapped_pieces(run_along_in, lap(f, COVER_EARTH_IN, below_in),
+                                             stock_in)
             rows.append(BarRow(mark, f.size, f.spacing_in, n * pieces, round_up_inch(piece_in),
                                SHAPE_STRAIGHT))
 
@@ -252,8 +273,11 @@ def _rows_for_segment(seg: Segment, *, fc_psi: float, fy_psi: float,
     if h is not None:
         # spread from just above the top of footing to the top of the stem, less top cover
         n = bar_count(stem_h_in - 2 * formed_cover_in(h.size), h.spacing_in)
-        pieces, piece_in = lapped_pieces(run_along_in, lap(h, formed_cover_in(h.size), True),
-                                         stock_in)
+        # stem horizontal bars: the stem is cast in lifts; a bar in the lift with more than
+        # 12 in of concrete below it is a top bar (conservative: psi_t = 1.3 above the first
+        # foot of the stem, which is nearly all of them)
+        pieces, piece_in = lapped_pieces(run_along_in, lap(h, formed_cover_in(h.size),
+                                                           stem_h_in), stock_in)
         for mark in ("H1", "H2"):
             rows.append(BarRow(mark, h.size, h.spacing_in, n * pieces, round_up_inch(piece_in),
                                SHAPE_STRAIGHT))

@@ -171,3 +171,75 @@ def lap_splice_in(size, fc_psi, fy_psi, *, splice_class="B", **ld_kwargs):
         raise ValueError(f"splice_class must be 'A' or 'B', got {splice_class!r}")
     ld = straight_development_in(size, fc_psi, fy_psi, **ld_kwargs)
     return np.where(np.asarray(size) <= 11, np.maximum(factor * ld, 12.0), np.nan)
+
+
+def straight_development_simple_in(size, fc_psi, fy_psi, *, psi_t=1.0, psi_e=1.0, psi_g=None,
+                                   lam=1.0, spacing_in=None, cover_in=None, minimum_in=12.0):
+    """Straight development length in tension l_d, in, by the simplified Table 25.4.2.3
+    (ACI 318-19; the table itself is from memory, REFERENCES.md [M]):
+
+    - clear spacing >= 2 db and clear cover >= db (or >= db with minimum stirrups):
+      l_d = fy psi_t psi_e psi_g / (25 lam sqrt(f'c)) db for No. 6 and smaller,
+      / (20 lam sqrt(f'c)) db for No. 7 and larger;
+    - other cases: 3 fy psi_t psi_e psi_g / (50 lam sqrt(f'c)) db, and 3/40 for No. 7 and up;
+
+    psi_t psi_e <= 1.7 (25.4.2.5), sqrt(f'c) <= 100 psi (25.4.1.4), l_d >= 12 in (25.4.2.1).
+    ``spacing_in`` (centre to centre) and ``cover_in`` (clear) choose the row; None takes the
+    first row.
+    """
+    size = np.asarray(size)
+    db = bar_diameter_in(size)
+    pg = _psi_g_of(fy_psi) if psi_g is None else psi_g
+    te = np.minimum(np.asarray(psi_t, dtype=float) * psi_e, 1.7)
+    good = np.ones(np.shape(size), bool)
+    if spacing_in is not None:
+        good = good & (np.asarray(spacing_in, dtype=float) - db >= 2.0 * db)
+    if cover_in is not None:
+        good = good & (np.asarray(cover_in, dtype=float) >= db)
+    small = size <= 6
+    den = np.where(good, np.where(small, 25.0, 20.0), np.where(small, 50.0 / 3.0, 40.0 / 3.0))
+    ld = np.asarray(fy_psi, dtype=float) * te * pg / (den * lam * _sqrt_fc(fc_psi)) * db
+    return np.maximum(ld, minimum_in)
+
+
+def excess_reinforcement_factor(as_required_in2, as_provided_in2):
+    """As,required / As,provided for the reduction of 25.4.10.1 (between 0 and 1; 1 where the
+    requirement is unknown (NaN) or the provided area is nil)."""
+    req = np.asarray(as_required_in2, dtype=float)
+    prov = np.asarray(as_provided_in2, dtype=float)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        r = np.where(prov > 0, req / prov, 1.0)
+    return np.clip(np.where(np.isfinite(r), r, 1.0), 0.0, 1.0)
+
+
+def reduced_straight_in(ld_in, factor, minimum_in=12.0):
+    """l_d times As,req/As,prov (25.4.10.1), never below the minimum of 25.4.2.1 (12 in)."""
+    return np.maximum(np.asarray(ld_in, dtype=float) * factor, minimum_in)
+
+
+def reduced_hooked_in(size, ldh_equation_in, factor):
+    """l_dh by the equation of 25.4.3.1(a) times As,req/As,prov (25.4.10.1), never below
+    8 db and 6 in (25.4.3.1(b), (c))."""
+    db = bar_diameter_in(size)
+    return np.maximum(np.maximum(np.asarray(ldh_equation_in, dtype=float) * factor, 8.0 * db),
+                      6.0)
+
+
+def hooked_development_equation_in(size, fc_psi, fy_psi, *, psi_e=1.0, psi_r=1.6, psi_o=1.25,
+                                   psi_c=None, lam=1.0):
+    """The equation part of 25.4.3.1(a) alone (no minimums), in: fy psi_e psi_r psi_o psi_c
+    / (55 lam sqrt(f'c)) db^1.5 (for the reduction of 25.4.10)."""
+    db = bar_diameter_in(size)
+    pc = hook_psi_c(fc_psi) if psi_c is None else psi_c
+    return (np.asarray(fy_psi, dtype=float) * psi_e * psi_r * psi_o * pc
+            / (55.0 * lam * _sqrt_fc(fc_psi)) * db ** 1.5)
+
+
+def hook_vertical_in(size, angle_deg=90):
+    """Out-to-out depth of a standard hook turned down (or up) from a horizontal bar, from
+    the bar's outer face: D/2 + db to the end of the bend plus the 12 db tail of a 90 deg
+    hook; D + 2 db for a 180 deg hook (geometry of Table 25.3.1)."""
+    db = bar_diameter_in(size)
+    D = hook_bend_diameter_in(size)
+    angle = np.asarray(angle_deg)
+    return np.where(angle == 90, D / 2.0 + db + hook_extension_in(size, 90), D + 2.0 * db)

@@ -96,6 +96,8 @@ class SectionDims:
     toe_bars: BarSpec | None = None  # bottom of footing under the toe
     horizontal_bars: BarSpec | None = None  # stem horizontal, each face
     footing_long_bars: BarSpec | None = None  # footing longitudinal (temperature), each mat
+    heel_hooked: bool = False  # heel top bars hooked at the toe end (straight does not fit)
+    toe_hooked: bool = False  # toe bottom bars hooked at the heel end
 
     @property
     def footing_width_ft(self) -> float:
@@ -110,7 +112,8 @@ class SectionDims:
         return (self.stem_top_in, self.stem_base_in, self.footing_thickness_in, self.toe_ft,
                 self.heel_ft, self.key_width_in, self.key_depth_in, self.key_offset_ft,
                 self.batter_face, str(self.stem_bars), str(self.heel_bars), str(self.toe_bars),
-                str(self.horizontal_bars), str(self.footing_long_bars))
+                str(self.horizontal_bars), str(self.footing_long_bars), self.heel_hooked,
+                self.toe_hooked)
 
 
 @dataclass(frozen=True)

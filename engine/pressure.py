@@ -469,10 +469,44 @@ def concrete_parts(geom, inputs):
     )
 
 
+def soil_inertia_parts(geom, inputs):
+    """Weight (lb, at the total unit weight: the mass that moves) and centroid height above
+    the bottom of footing (ft) of the soil between the stem's back face and the plane through
+    the heel edge (over the heel and a battered back face): it moves with the wall when the
+    increment acts on that plane (DESIGN.md section 7, seismic case). The region is the
+    quadrilateral (x_back, T), (B, T), (B, H'), (x_grade, H), by the shoelace formula."""
+    T, B, H = geom.footing_thickness_ft, geom.footing_width_ft, geom.design_height_ft
+    x_back = geom.toe_ft + geom.stem_base_in / 12.0
+    pts = ((x_back, T), (B, T), (B, virtual_back_height_ft(geom, inputs)),
+           (_stem_face_x_at_grade(geom, inputs), H))
+    a2 = cy = 0.0
+    for k in range(4):
+        (x1, y1), (x2, y2) = pts[k], pts[(k + 1) % 4]
+        cr = _a(x1) * _a(y2) - _a(x2) * _a(y1)
+        a2 = a2 + cr
+        cy = cy + (_a(y1) + _a(y2)) * cr
+    has = (H > T) & (np.abs(a2) > 1e-14)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        y = np.where(has, cy / (3.0 * np.where(has, a2, 1.0)), 0.0)
+    w = np.where(has, inputs.unit_weight_pcf * np.abs(a2) / 2.0, 0.0)
+    return (("soil over heel", w, y),)
+
+
+def seismic_inertia_components(geom, inputs, factor):
+    """``factor`` x kh W of each concrete part and, with ``soil_inertia``, of the soil over
+    the heel and the battered face, at their centroids (horizontal, toward the front)."""
+    sz = inputs.seismic
+    parts = list(concrete_parts(geom, inputs))
+    if sz.soil_inertia:
+        parts += list(soil_inertia_parts(geom, inputs))
+    return [ThrustComponent(f"inertia {name}", factor * sz.kh * w, y) for name, w, y in parts]
+
+
 def seismic_thrust(geom, inputs, pressure: EarthPressure | None = None) -> Thrust:
     """The thrust of the seismic case: the static soil (and water) thrust without the live
-    loads, plus load_factor x (Delta P_AE at 0.6 H', and kh W of each concrete part at its
-    centroid) (IBC 2021 1807.2.3: 0.7 on nominal earthquake loads)."""
+    loads, plus load_factor x (Delta P_AE at 0.6 H', and kh W of each concrete part and, with
+    ``soil_inertia``, of the soil over the heel at its centroid) (IBC 2021 1807.2.3: 0.7 on
+    nominal earthquake loads)."""
     p = pressure or earth_pressure(inputs)
     sz = inputs.seismic
     lf = sz.load_factor
@@ -481,9 +515,27 @@ def seismic_thrust(geom, inputs, pressure: EarthPressure | None = None) -> Thrus
     dp = lf * seismic_increment_lb(geom, inputs, p)
     c, s = seismic_direction(inputs, p)
     comps.append(ThrustComponent("seismic increment", dp * c, SEISMIC_ARM_FRACTION * Hv, dp * s))
-    for name, w, y in concrete_parts(geom, inputs):
-        comps.append(ThrustComponent(f"inertia {name}", lf * sz.kh * w, y))
+    comps += seismic_inertia_components(geom, inputs, lf)
     return Thrust(tuple(comps))
+
+
+def seismic_e_components(geom, inputs, pressure: EarthPressure, weights=None):
+    """The earthquake load E at 1.0 for the footing's strength combination 1.2D + 1.0E +
+    1.6H (ASCE 7-22 2.3.6): (horizontal force, overturning moment about the bottom of
+    footing, vertical force at the heel edge, (force, moment about the stem's back face) of
+    E acting directly on the heel). E = Delta P_AE at 0.6 H' (its vertical part, Mononobe-Okabe
+    with an inclined thrust, down at the heel edge) plus kh W of the concrete and, with
+    ``soil_inertia``, the soil over the heel (horizontal: no load on the heel itself)."""
+    dp = seismic_increment_lb(geom, inputs, pressure)
+    c, s = seismic_direction(inputs, pressure)
+    Hv = virtual_back_height_ft(geom, inputs)
+    h = dp * c
+    m = dp * c * SEISMIC_ARM_FRACTION * Hv
+    for comp in seismic_inertia_components(geom, inputs, 1.0):
+        h = h + comp.horizontal_lb
+        m = m + comp.horizontal_lb * comp.arm_ft
+    v = dp * s
+    return h, m, v, (v, v * geom.heel_ft)
 
 
 def passive_resistance_lb(passive_efp_pcf, neglect_ft, bottom_depth_ft):

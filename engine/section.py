@@ -160,6 +160,7 @@ class SeismicLoad:
     load_factor: float = 0.7  # IBC 2021 1807.2.3: 0.7 on nominal earthquake loads
     fs_overturning: float = 1.1  # IBC 2021 1807.2.3
     fs_sliding: float = 1.1  # IBC 2021 1807.2.3
+    soil_inertia: bool = True  # the soil over the heel moves with the wall (DESIGN.md 7)
 
     def __post_init__(self):
         if self.method not in SEISMIC_METHODS:
@@ -234,6 +235,7 @@ class DesignInputs:
     footing_shear_size_effect: bool = False  # 13.2.6.2 permits neglecting lambda_s
     crack_control: bool = True  # 24.3.2 on the stem
     hook_psi_o: float = 1.0  # Table 25.4.3.2 location factor (see development.py)
+    heel_upward_pressure: bool = True  # heel by the net factored pressure (DESIGN.md 7)
 
     def __post_init__(self):
         has_efp = self.active_efp_pcf is not None
@@ -378,6 +380,8 @@ class BarArrays:
 class Reinforcement:
     """The bars of a section: stem (back face, vertical), heel (top), toe (bottom).
 
+    ``heel_hooked`` / ``toe_hooked`` fix the anchorage of the footing bars beyond the stem
+    face (True: a standard hook; None: hooked only where the straight bar does not fit).
     ``horizontal`` (stem horizontal bars, ``horizontal_layers`` faces) and ``longitudinal``
     (footing longitudinal bars, ``longitudinal_layers`` layers) are optional; when ``None``
     their checks are not made (the required areas are reported by the functions in
@@ -391,6 +395,8 @@ class Reinforcement:
     horizontal_layers: int = 2
     longitudinal: BarArrays | None = None
     longitudinal_layers: int = 2
+    heel_hooked: object = None  # None: hooked where a straight bar does not fit; else bools
+    toe_hooked: object = None
 
 
 # ------------------------------------------------------------------------------------------

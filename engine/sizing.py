@@ -40,23 +40,21 @@ import numpy as np
 from .bars import SIZES, bar_area_in2, bar_weight_plf
 from .checks import check_section
 from .grid_sections import (
-    TOE_MIN_DEPTH_IN,
-    as_column,
-    at_most,
+    FootingTables,
     axes_geometry,
+    evaluate_candidates,
     flat_of,
     grid_geometry,
     pair_table,
+    stem_pair_table,
     stem_steel_lb,
 )
 from .model import SectionDims
 from .section import BarArrays, DesignInputs, Reinforcement, SectionGeometry
-from .stability import stability
 from .strength import (
     max_flexural_spacing_in,
     shrinkage_spacing_in,
     shrinkage_steel_in2,
-    toe_strength,
     wall_horizontal_min_in2,
 )
 
@@ -265,9 +263,17 @@ def geometry_cost(geom: SectionGeometry, rates: CostRates):
             + rates.excavation_usd_per_cy * excavation)
 
 
-def footing_bar_steel_lb(geom: SectionGeometry, bars: BarArrays):
-    """Heel top or toe bottom bars per ft of wall: the footing width less 3-in end covers."""
-    return 12.0 / bars.spacing_in * bar_weight_plf(bars.size) * (geom.footing_width_ft - 0.5)
+def footing_bar_steel_lb(geom: SectionGeometry, bars: BarArrays, member=None):
+    """Heel top or toe bottom bars per ft of wall: the footing width less 3-in end covers,
+    plus a standard hook's extra length where ``member`` (the heel's or toe's
+    :class:`~.strength.FootingResult`) says the bar is hooked."""
+    length = geom.footing_width_ft - 0.5
+    if member is not None:
+        from .grid_sections import footing_hook_extra_ft
+
+        length = length + np.where(member.hooked, footing_hook_extra_ft(
+            bars.size, member.hook_angle_deg), 0.0)
+    return 12.0 / bars.spacing_in * bar_weight_plf(bars.size) * length
 
 
 def fixed_steel_lb(geom: SectionGeometry, horiz: BarArrays, longi: BarArrays):
@@ -277,10 +283,13 @@ def fixed_steel_lb(geom: SectionGeometry, horiz: BarArrays, longi: BarArrays):
             + 2.0 * geom.footing_width_ft * 12.0 / longi.spacing_in * bar_weight_plf(longi.size))
 
 
-def candidate_cost(geom, inputs, rates, stem, heel, toe, horiz, longi):
-    """Total $ per ft of wall of a full candidate (the objective of the search)."""
-    steel = (stem_steel_lb(geom, stem, inputs) + footing_bar_steel_lb(geom, heel)
-             + footing_bar_steel_lb(geom, toe) + fixed_steel_lb(geom, horiz, longi))
+def candidate_cost(geom, inputs, rates, stem, heel, toe, horiz, longi, checks=None):
+    """Total $ per ft of wall of a full candidate (the objective of the search); ``checks``
+    (its :class:`~.checks.SectionChecks`) adds the hooks of the footing bars."""
+    steel = (stem_steel_lb(geom, stem, inputs)
+             + footing_bar_steel_lb(geom, heel, None if checks is None else checks.heel)
+             + footing_bar_steel_lb(geom, toe, None if checks is None else checks.toe)
+             + fixed_steel_lb(geom, horiz, longi))
     return geometry_cost(geom, rates) + rates.steel_usd_per_lb * steel
 
 
@@ -331,8 +340,10 @@ def precompute(g: Geometries, inputs: DesignInputs, rates: CostRates, emb: float
 
     col_shape = (1, *g.shape[1:])
     geo, T, _, _, per_hst = parts(slice(0, 1))
+    _, longi = fixed_bars(geo, inputs)
     out = {"T_ft": T, "cost_per_hst": per_hst, "emb_ft": geo.embedment_ft,
-           "stem_anchor_ft": (geo.footing_thickness_in - inputs.cover_toe_in) / 12.0}
+           "stem_anchor_ft": (geo.footing_thickness_in - inputs.cover_toe_in) / 12.0,
+           "long_db_in": longi.diameter_in + 0.0 * T}
     out = {k: flat_of(v, col_shape).copy() for k, v in out.items()}
     out["cost0"], out["B_ft"] = np.empty(g.size), np.empty(g.size)
     monotone, last = True, None  # the cost without bars never decreases as the toe grows
@@ -544,22 +555,11 @@ class StabilityScreen:
         return ot | sl
 
 
-def toe_capacity_table(g, inputs: DesignInputs, bars: BarArrays) -> dict:
-    """Toe capacities of every (footing thickness, bar option): they do not depend on the
-    loads, so the toe check of a geometry is its demand against one row of this table.
-    ``T_of`` is the row of each column (index with ``g.column_of``)."""
-    from .strength import _footing_member, cover_in
-
-    T_vals, T_of = np.unique(g.col["footing_thickness_in"], return_inverse=True)
-    geo = SectionGeometry(retained_height_ft=1.0, embedment_ft=1.0,
-                          footing_thickness_in=T_vals[:, None], stem_top_in=8.0,
-                          stem_base_in=8.0, toe_ft=1.0, heel_ft=1.0)
-    bb = BarArrays(bars.size[None, :], bars.spacing_in[None, :])
-    r = _footing_member(geo, inputs, bb, 0.0, 0.0, cover_in(bb.size, inputs.cover_toe_in))
-    fixed_ok = (at_most(r.as_min_in2, r.as_in2) & at_most(r.spacing_in, r.s_max_in)
-                & at_most(TOE_MIN_DEPTH_IN, r.d_in))
-    return {"T_of": T_of, "phi_mn": np.asarray(r.phi_mn_lbft), "phi_vn": np.asarray(r.phi_vn_lb),
-            "fixed_ok": np.asarray(fixed_ok)}
+def stem_tables(g, codes, h, emb, fb, inputs, bars, pre):
+    """Per stem pair and toe bar size class: the cheapest passing stem bars and their cost
+    lb per ft of wall (:func:`~.grid_sections.stem_pair_table`)."""
+    first = codes["stem_first"]
+    return stem_pair_table(g, first, h, emb, fb, inputs, bars, pre["long_db_in"][first])
 
 
 def _search_height(g, codes, pre, toe_tab, screen, h, emb, fb, inputs, rates, bars,
@@ -567,31 +567,30 @@ def _search_height(g, codes, pre, toe_tab, screen, h, emb, fb, inputs, rates, ba
     """Exact optimum at one height over the whole grid.
 
     Returns (geometry, stem bars, heel bars, toe bars, cost), or None where nothing holds.
+    ``toe_tab`` is the :class:`~.grid_sections.FootingTables` of the grid.
     """
-    bars_w = 12.0 / bars.spacing_in * bar_weight_plf(bars.size)  # lb per ft of run per ft
-    bars_db_ft = bars.diameter_in  # 12 db hook extension, in ft (Table 25.3.1)
-    stem_pick = pair_table(g, codes["stem_first"], h, emb, fb, inputs, bars, "stem")
-    heel_pick = pair_table(g, codes["heel_first"], h, emb, fb, inputs, bars, "heel")
-    s_all = np.tile(stem_pick[codes["stem_of"]], g.nt)
-    h_all = np.tile(heel_pick[codes["heel_of"]], g.nt)
-    keep = (s_all >= 0) & (h_all >= 0)
+    cs = rates.steel_usd_per_lb
+    s_pick_k, s_lb_k = stem_tables(g, codes, h, emb, fb, inputs, bars, pre)
+    heel_lb_pick = pair_table(g, codes["heel_first"], h, emb, fb, inputs, bars, "heel")
+    s_lb0 = np.min(s_lb_k, axis=1)  # the most room for the hook: a lower bound
+    col_stem = codes["stem_of"]
+    s_all = np.tile(s_lb0[col_stem], g.nt)
+    h_all = np.tile(heel_lb_pick[codes["heel_of"]], g.nt)
+    keep = np.isfinite(s_all) & (h_all >= 0)
     if alive is not None:
         keep &= alive
     cand = np.nonzero(keep)[0]
-    s_b, h_b = s_all[cand], h_all[cand]
     if cand.size == 0:
         return None
+    h_b = h_all[cand]
     screened = np.zeros(cand.size, bool)  # the stability screen is applied lazily
-    # cost of each candidate with its stem and heel bars (linear in the stem height)
+    # cost of each candidate without bars (linear in the stem height), and its lower bound
     c_of = g.column_of(cand)
     hst = h + pre["emb_ft"][c_of] + fb - pre["T_ft"][c_of]
     B = pre["B_ft"][cand]
-    sw = bars_w[s_b] * (hst + pre["stem_anchor_ft"][c_of] + bars_db_ft[s_b])
-    base = (pre["cost0"][cand] + pre["cost_per_hst"][c_of] * hst
-            + rates.steel_usd_per_lb * (sw + bars_w[h_b] * (B - 0.5)))
-    # lower bound of a full candidate: the lightest toe option there is
-    w_min = float(np.min(12.0 / bars.spacing_in * bar_weight_plf(bars.size)))
-    lower = base + rates.steel_usd_per_lb * w_min * (B - 0.5)
+    base = pre["cost0"][cand] + pre["cost_per_hst"][c_of] * hst
+    w_min = float(np.min(toe_tab.w))
+    lower = base + cs * (s_all[cand] + (toe_tab.w[h_b] + w_min) * (B - 0.5))
     one_bar = BarArrays(bars.size[:1], bars.spacing_in[:1])
     done = np.zeros(cand.size, bool)
     best_cost, best = math.inf, None
@@ -614,26 +613,12 @@ def _search_height(g, codes, pre, toe_tab, screen, h, emb, fb, inputs, rates, ba
         if idx.size > BLOCK:
             idx = idx[np.argpartition(lower[idx], BLOCK)[:BLOCK]]
         done[idx] = True
-        sub = as_column(grid_geometry(g, cand[idx], h, emb, fb))
-        st = stability(sub, inputs)
-        ok = np.asarray(st.passes & sub.valid)[:, 0]
-        if not ok.any():
+        found = evaluate_candidates(g, cand[idx], base[idx], h, emb, fb, inputs, cs, toe_tab,
+                                    s_pick_k, s_lb_k, col_stem, one_bar)
+        if found is None:
             continue
-        tr = toe_strength(sub, inputs, one_bar, st)  # demands; capacities from the table
-        ti = toe_tab["T_of"][c_of[idx]]
-        t_ok = (at_most(tr.mu_lbft, np.take(toe_tab["phi_mn"], ti, axis=0))
-                & at_most(tr.vu_lb, np.take(toe_tab["phi_vn"], ti, axis=0))
-                & np.take(toe_tab["fixed_ok"], ti, axis=0) & ok[:, None])
-        t_cost = np.where(t_ok, bars_w[None, :] * (B[idx] - 0.5)[:, None], np.inf)
-        t_pick = np.argmin(t_cost, axis=1)
-        total = base[idx] + rates.steel_usd_per_lb * t_cost[np.arange(idx.size), t_pick]
-        if not np.isfinite(total).any():
-            continue
-        k = int(np.lexsort((cand[idx], total))[0])  # least cost, ties to the lower index
-        key = (float(total[k]), int(cand[idx][k]))
-        if best is None or key < (best_cost, best[0]):
-            best_cost = key[0]
-            best = (int(cand[idx][k]), int(s_b[idx][k]), int(h_b[idx][k]), int(t_pick[k]))
+        if best is None or (found[0], found[1][0]) < (best_cost, best[0]):
+            best_cost, best = found
     if best is None:
         return None
     return (*best, best_cost)
@@ -648,6 +633,11 @@ def section_from(g, gi, bars: BarArrays, si, hi, ti, inputs, h, emb, fb) -> Sect
     def spec(b, i):
         return BarSpec(int(b.size[i]), float(b.spacing_in[i]))
 
+    def one(i):
+        return BarArrays(bars.size[i], bars.spacing_in[i])
+
+    res = check_section(geo, inputs, Reinforcement(stem=one(si), heel=one(hi), toe=one(ti),
+                                                   horizontal=horiz, longitudinal=longi))
     return SectionDims(
         stem_top_in=float(g.take("stem_top_in", gi)),
         stem_base_in=float(g.take("stem_base_in", gi)),
@@ -657,6 +647,8 @@ def section_from(g, gi, bars: BarArrays, si, hi, ti, inputs, h, emb, fb) -> Sect
         stem_bars=spec(bars, si), heel_bars=spec(bars, hi), toe_bars=spec(bars, ti),
         horizontal_bars=BarSpec(int(horiz.size[0]), float(horiz.spacing_in[0])),
         footing_long_bars=BarSpec(int(longi.size[0]), float(longi.spacing_in[0])),
+        heel_hooked=bool(np.asarray(res.heel.hooked).reshape(-1)[0]),
+        toe_hooked=bool(np.asarray(res.toe.hooked).reshape(-1)[0]),
     )
 
 
@@ -715,7 +707,7 @@ def design_table(inputs: DesignInputs, grid: SizingGrid, rates: CostRates, *,
     screen = StabilityScreen(g, inputs, embedment_ft, freeboard_ft)
     # not yet certified to fail at greater heights, and within the room given for the footing
     alive = np.ones(g.size, bool)
-    toe_tab = toe_capacity_table(g, inputs, bars)
+    toe_tab = FootingTables(g, inputs, bars)
     if (inputs.backslope_deg or 0.0) != 0.0 and grid.stem_batter:
         # on a slope the ground over the heel starts where the battered back face meets the
         # retained grade, so the heel's load depends on the stem too: pair it with the stem
@@ -778,7 +770,7 @@ def exhaustive_optimum(inputs: DesignInputs, grid: SizingGrid, rates: CostRates,
 
     res = check_section(geo, inputs, Reinforcement(stem=sel(si), heel=sel(hi), toe=sel(ti),
                                                    horizontal=horiz, longitudinal=longi))
-    cost = candidate_cost(geo, inputs, rates, sel(si), sel(hi), sel(ti), horiz, longi)
+    cost = candidate_cost(geo, inputs, rates, sel(si), sel(hi), sel(ti), horiz, longi, res)
     cost = np.where(res.passes, cost, np.inf)
     if footing_width_max_ft is not None:
         cost = np.where(geo.footing_width_ft <= footing_width_max_ft + 1e-9, cost, np.inf)

@@ -36,6 +36,7 @@ from dataclasses import dataclass, fields
 
 import numpy as np
 
+from .bars import bar_diameter_in
 from .development import hook_psi_r, hooked_development_in
 from .pressure import (
     EarthPressure,
@@ -246,7 +247,8 @@ class StemResult(MemberResult):
 
     ``height_*``: the section up the stem with the largest flexure (or shear) ratio, at
     ``height_*_y_ft`` above the top of footing (13.3.6.3). ``s_crack_in`` is the 24.3.2
-    spacing limit (inf when crack control is off); ``ldh_available_in`` = T - bottom cover.
+    spacing limit (inf when crack control is off); ``ldh_available_in`` = T - bottom cover -
+    bottom mat.
     """
 
     ms_lbft: np.ndarray
@@ -264,14 +266,16 @@ class StemResult(MemberResult):
 
 def stem_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays, *,
                   pressure: EarthPressure | None = None,
-                  fractions=STEM_HEIGHT_FRACTIONS) -> StemResult:
+                  fractions=STEM_HEIGHT_FRACTIONS, bottom_mat_in=0.0) -> StemResult:
     """Stem flexure, shear, minimum steel, spacing, crack control and hook development.
 
     Mu = 1.6 (EFP h_s^3/6 + Ka q h_s^2/2) with h_s = retained grade - top of footing; Vu at d
     above the footing (7.4.3.2); d = stem base - cover - db/2 (bars at the back face);
-    lambda_s applies (one-way slab). The stem bars are hooked into the footing: l_dh
-    (25.4.3.1; psi_r from the bar spacing, psi_o from the criteria) must fit in T - bottom
-    cover. ``fractions`` of h_s give the sections checked up the stem (bars run full height).
+    lambda_s applies (one-way slab). The stem bars are hooked into the footing, the hook
+    resting on the bottom mat: l_dh (25.4.3.1; psi_r from the bar spacing, psi_o from the
+    criteria) must fit in T - bottom cover - ``bottom_mat_in`` (the toe bars and the
+    longitudinal bars of the bottom mat). ``fractions`` of h_s give the sections checked up
+    the stem (bars run full height).
     """
     p = pressure or earth_pressure(inputs)
     fc, fy = inputs.fc_psi, inputs.fy_psi
@@ -331,7 +335,7 @@ def stem_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays, 
         as_min_in2=min_flexural_steel_in2(tb), spacing_in=bars.spacing_in,
         s_max_in=np.minimum(s_max, s_cr), cover_in=cov, phi=fl.phi, eps_t=fl.eps_t,
         a_in=fl.a_in, ms_lbft=ms, fs_service_psi=fs, s_crack_in=s_cr, ldh_in=ldh,
-        ldh_available_in=geom.footing_thickness_in - inputs.cover_toe_in,
+        ldh_available_in=geom.footing_thickness_in - inputs.cover_toe_in - _a(bottom_mat_in),
         height_mu_lbft=pick(mu_y, i_f), height_phi_mn_lbft=pick(pmn_y, i_f),
         height_flexure_y_ft=pick(y, i_f), height_vu_lb=pick(vu_y, i_v),
         height_phi_vn_lb=pick(pvn_y, i_v), height_shear_y_ft=pick(y, i_v),
@@ -343,6 +347,47 @@ def heel_loads_psf(geom: SectionGeometry, inputs: DesignInputs):
     dead = inputs.unit_weight_pcf * geom.soil_height_ft \
         + inputs.concrete_unit_weight_pcf * geom.footing_thickness_ft
     return LF_DEAD_ADDS * dead + LF_LATERAL * inputs.surcharge_psf
+
+
+# the factored load combinations of the footing (ASCE 7-22 2.3.1 with H; DESIGN.md section 7)
+# and the two conventions kept from the textbook; a member result names its governing one by
+# its index in COMBINATIONS
+COMBINATIONS = (
+    "1.2D + 1.6H + 1.6L",  # C1
+    "1.2D + 1.6H",  # C2
+    "0.9D + 1.6H",  # C3
+    "1.2D + 1.0E + 1.6H",  # the seismic combination (ASCE 7-22 2.3.6), with [seismic]
+    "1.2D + 1.6L + 1.6H, upward pressure neglected",  # heel_upward_pressure = false
+    "1.6 x service bearing pressure - 0.9D",  # the toe's static case
+)
+STATIC_COMBINATIONS = ((0, 1.2, 1.6, 1.6), (1, 1.2, 1.6, 0.0), (2, 0.9, 1.6, 0.0))
+HEEL_TEXTBOOK, TOE_SERVICE, SEISMIC_COMBINATION = 4, 5, 3
+FOOTING_END_COVER_IN = 3.0  # Table 20.5.1.3.1: footing ends cast against earth
+LIVE_THRUST = ("surcharge", "strip load")  # the thrust components that are live load L
+
+
+@dataclass(frozen=True)
+class FootingResult(MemberResult):
+    """A footing cantilever (heel or toe) with its governing combinations and the
+    development of its bars beyond the stem face (ACI 318-19 25.4).
+
+    ``mu_combination`` / ``vu_combination``: index into :data:`COMBINATIONS`;
+    ``ld_straight_in`` / ``ldh_in``: the straight and hooked lengths required (reduced by
+    As,req/As,prov, 25.4.10, never below the minimums); ``hooked``: the anchorage used (a hook
+    where the straight bar does not fit, unless given); ``ld_required_in`` its length,
+    ``ld_available_in`` the room from the stem face to the far footing edge less its cover;
+    ``hook_angle_deg``: 90, or 180 where a 90-degree tail does not fit in the depth.
+    """
+
+    mu_combination: np.ndarray
+    vu_combination: np.ndarray
+    as_required_in2: np.ndarray
+    ld_straight_in: np.ndarray
+    ldh_in: np.ndarray
+    hooked: np.ndarray
+    ld_required_in: np.ndarray
+    ld_available_in: np.ndarray
+    hook_angle_deg: np.ndarray
 
 
 def _footing_member(geom, inputs, bars, mu, vu, cov):
@@ -359,47 +404,219 @@ def _footing_member(geom, inputs, bars, mu, vu, cov):
         phi=fl.phi, eps_t=fl.eps_t, a_in=fl.a_in)
 
 
-def heel_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays) -> MemberResult:
+def footing_development(size, spacing_in, as_in2, d_in, mu_lbft, thickness_in, cover_in,
+                        room_in, inputs: DesignInputs, *, top: bool, hooked=None):
+    """Development of footing bars beyond the stem face (ACI 318-19 25.4; DESIGN.md 7).
+
+    Straight: Table 25.4.2.3 (row by clear spacing >= 2 db and cover >= db), psi_t = 1.3 for
+    top bars with more than 12 in of fresh concrete below them (25.4.2.5); hooked: 25.4.3.1
+    with psi_r from the spacing (Table 25.4.3.2), psi_o = ``hook_psi_o``, psi_c from f'c.
+    Both reduced by As,req/As,prov (25.4.10.1; As,req for Mu with phi = 0.9) and never below
+    12 in (straight) or 8 db and 6 in (hooked). A bar is hooked where the straight length does
+    not fit in ``room_in`` (unless ``hooked`` says which). Returns a dict of arrays.
+    """
+    from .development import (
+        excess_reinforcement_factor,
+        hook_psi_r,
+        hook_vertical_in,
+        hooked_development_equation_in,
+        reduced_hooked_in,
+        reduced_straight_in,
+        straight_development_simple_in,
+    )
+
+    fc, fy = inputs.fc_psi, inputs.fy_psi
+    size = np.asarray(size)
+    db = bar_diameter_in(size)
+    T = _a(thickness_in)
+    below = T - _a(cover_in) - db  # fresh concrete cast below a top bar
+    pt = np.where(top & (below > 12.0), 1.3, 1.0)
+    req = required_steel_in2(np.maximum(_a(mu_lbft), 0.0), d_in, fc, fy)
+    factor = excess_reinforcement_factor(req, as_in2)
+    ld = straight_development_simple_in(size, fc, fy, psi_t=pt, spacing_in=spacing_in,
+                                        cover_in=cover_in)
+    ldh_eq = hooked_development_equation_in(size, fc, fy, psi_r=hook_psi_r(size, spacing_in),
+                                            psi_o=inputs.hook_psi_o)
+    ld_s = reduced_straight_in(ld, factor)
+    ld_h = reduced_hooked_in(size, ldh_eq, factor)
+    room = _a(room_in)
+    hk = (ld_s > room + 1e-9) if hooked is None else np.asarray(hooked, dtype=bool)
+    other = inputs.cover_toe_in if top else (2.0 if inputs.cover_heel_in is None
+                                             else inputs.cover_heel_in)
+    depth = T - _a(cover_in) - other  # a hook turned down (top bar) or up (bottom bar)
+    angle = np.where(hook_vertical_in(size, 90) <= depth + 1e-9, 90, 180)
+    return {"as_required_in2": req, "ld_straight_in": ld_s, "ldh_in": ld_h,
+            "hooked": np.asarray(hk), "ld_required_in": np.where(hk, ld_h, ld_s),
+            "ld_available_in": room, "hook_angle_deg": angle}
+
+
+def _footing_result(member: MemberResult, mu_c, vu_c, dev) -> FootingResult:
+    kw = {f.name: getattr(member, f.name) for f in fields(MemberResult)}
+    return FootingResult(**kw, mu_combination=np.asarray(mu_c), vu_combination=np.asarray(vu_c),
+                         **dev)
+
+
+def heel_room_in(geom: SectionGeometry):
+    """Room for the heel's top bars beyond the stem's back face: stem base + toe less the end
+    cover at the toe edge, in."""
+    return geom.stem_base_in + 12.0 * geom.toe_ft - FOOTING_END_COVER_IN
+
+
+def toe_room_in(geom: SectionGeometry):
+    """Room for the toe's bottom bars beyond the stem's front face: stem base + heel less the
+    end cover at the heel edge, in."""
+    return geom.stem_base_in + 12.0 * geom.heel_ft - FOOTING_END_COVER_IN
+
+
+def _split_thrust(th):
+    """(dead-side H, live L) sums of a Thrust: horizontal, moment, vertical each."""
+    h = [0.0, 0.0, 0.0]
+    live = [0.0, 0.0, 0.0]
+    for c in th.components:
+        dst = live if c.name.startswith(LIVE_THRUST) else h
+        dst[0] = dst[0] + _a(c.horizontal_lb)
+        dst[1] = dst[1] + _a(c.horizontal_lb) * _a(c.arm_ft)
+        dst[2] = dst[2] + _a(c.vertical_lb)
+    return h, live
+
+
+def factored_pressure_line(geom, inputs, weights, thrust, f_d, f_h, f_l, extra=None):
+    """Base pressure of a factored combination as (q0, s) of q(x) = max(0, q0 + s x), x from
+    the toe; no pressure (zeros) where the combination's resultant leaves the base.
+
+    Sum Vu = f_d D + f_h Pv_H + f_l (W_L + Pv_L); the factored moment about the toe
+    = f_d M_D + (f_h Pv_H + f_l Pv_L) B + f_l M_L - f_h M_H - f_l M_HL, then the kern or
+    triangle rule (DESIGN.md section 7). ``extra`` = (V, M_resisting, M_overturning) added
+    (the seismic combination's inertia and increment).
+    """
+    from .stability import bearing_pressure
+
+    B = geom.footing_width_ft
+    vd, md = weights.dead()
+    (hh, mh, vh), (hl, ml, vl) = _split_thrust(thrust)
+    v = f_d * vd + f_h * vh + f_l * (weights.surcharge.lb + vl)
+    mr = f_d * md + (f_h * vh + f_l * vl) * B + f_l * weights.surcharge.moment_lbft
+    mo = f_h * mh + f_l * ml
+    if extra is not None:
+        v, mr, mo = v + extra[0], mr + extra[1], mo + extra[2]
+    with np.errstate(divide="ignore", invalid="ignore"):
+        case = bearing_pressure(v, B / 2.0 - (mr - mo) / v, B)
+    q0, s = pressure_line(case, B)
+    return np.where(case.in_base, q0, 0.0), np.where(case.in_base, s, 0.0), case
+
+
+def heel_down_loads(geom: SectionGeometry, inputs: DesignInputs, thrust):
+    """The heel's downward loads as (force, moment about the stem's back face) pairs: dead
+    (soil over the heel at its full unit weight and the heel concrete), the live surcharge
+    q L, and the vertical thrust components at the heel edge (H and L parts)."""
+    from .pressure import _stem_face_x_at_grade, virtual_back_height_ft
+
+    L = geom.heel_ft
+    T = geom.footing_thickness_ft
+    g, gc, q = inputs.unit_weight_pcf, inputs.concrete_unit_weight_pcf, inputs.surcharge_psf
+    if inputs.extended:
+        x_back = geom.toe_ft + geom.stem_base_in / 12.0
+        tanb = np.tan(np.radians(inputs.backslope_deg or 0.0))
+        H = geom.design_height_ft
+        d0 = np.maximum(H + (x_back - _stem_face_x_at_grade(geom, inputs)) * tanb - T, 0.0)
+        d1 = np.maximum(virtual_back_height_ft(geom, inputs) - T, 0.0)
+        fd = g * (d0 + d1) * L / 2.0 + gc * T * L
+        md = g * (d0 * L * L / 2.0 + (d1 - d0) * L * L / 3.0) + gc * T * L * L / 2.0
+    else:
+        hs = geom.soil_height_ft
+        fd = (g * hs + gc * T) * L
+        md = fd * L / 2.0
+    (_, _, vh), (_, _, vl) = _split_thrust(thrust)
+    return {"dead": (fd, md), "live": (q * L, q * L * L / 2.0),
+            "pv_h": (vh, vh * L), "pv_l": (vl, vl * L)}
+
+
+def _up_on_heel(geom, q0, s):
+    """Upward force and moment about the stem's back face of q(x) over the heel."""
+    x_back = geom.toe_ft + geom.stem_base_in / 12.0
+    L = geom.heel_ft
+    f, m_edge = clipped_line_load(q0 + s * x_back, s, L)
+    return f, f * L - m_edge
+
+
+def heel_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays, stab=None, *,
+                  pressure=None, weights=None, hooked=None) -> FootingResult:
     """Heel as a cantilever from the stem's back face, top bars in tension.
 
-    wu = 1.2 (gamma h_s + gamma_c T) + 1.6 q; Mu = wu L^2/2 and Vu = wu L at the face (upward
-    soil pressure neglected); cover per Table 20.5.1.3.1 (top face: 2 / 1.5 in) unless
-    ``cover_heel_in`` is given.
+    ``heel_upward_pressure`` (default): for each of C1-C3 (and the seismic combination with
+    [seismic]) the combination's factors on the soil over the heel and the heel concrete (D),
+    the surcharge (L) and the thrust's vertical component at the heel edge (H, L), less the
+    combination's factored bearing pressure under the heel (none where its resultant leaves
+    the base); Vu and Mu at the back face, each the largest. Otherwise the textbook method:
+    wu = 1.2 (gamma h_s + gamma_c T) + 1.6 q, Mu = wu L^2/2 and Vu = wu L (upward pressure
+    neglected; McCormac & Brown 13.10), with a backslope the soil trapezoid and 1.6 Pv.
+    Cover per Table 20.5.1.3.1 (top face: 2 / 1.5 in) unless ``cover_heel_in``.
     """
-    L = geom.heel_ft
+    from .section import section_weights
+
+    p = pressure or earth_pressure(inputs)
     cov = cover_in(bars.size, inputs.cover_heel_in)
-    if not inputs.extended:
-        wu = heel_loads_psf(geom, inputs)
-        return _footing_member(geom, inputs, bars, wu * L * L / 2.0, wu * L, cov)
-    mu, vu = heel_demand(geom, inputs)
-    return _footing_member(geom, inputs, bars, mu, vu, cov)
+    th = design_thrust(geom, inputs, p)
+    loads = heel_down_loads(geom, inputs, th)
+    (fd, md), (fl, ml) = loads["dead"], loads["live"]
+    (fh, mh), (flv, mlv) = loads["pv_h"], loads["pv_l"]
+    shape = np.broadcast_shapes(np.shape(fd), np.shape(fh), geom.shape)
+    if not inputs.heel_upward_pressure:
+        mu = LF_DEAD_ADDS * md + LF_LATERAL * (ml + mh + mlv)
+        vu = LF_DEAD_ADDS * fd + LF_LATERAL * (fl + fh + flv)
+        mu_c = vu_c = np.full(shape, HEEL_TEXTBOOK)
+    else:
+        w = weights if weights is not None else section_weights(geom, inputs)
+        mu = np.full(shape, -np.inf)
+        vu = np.full(shape, -np.inf)
+        mu_c = np.zeros(shape, int)
+        vu_c = np.zeros(shape, int)
+        cases = [(i, f_d, f_h, f_l, None) for i, f_d, f_h, f_l in STATIC_COMBINATIONS]
+        if inputs.seismic is not None:
+            cases.append(seismic_combination(geom, inputs, p, w))
+        for i, f_d, f_h, f_l, extra in cases:
+            q0, s, _ = factored_pressure_line(geom, inputs, w, th if extra is None
+                                              else extra["thrust"], f_d, f_h, f_l,
+                                              None if extra is None else extra["base"])
+            fu, mu_up = _up_on_heel(geom, q0, s)
+            m_i = f_d * md + f_h * mh + f_l * (ml + mlv) - mu_up
+            v_i = f_d * fd + f_h * fh + f_l * (fl + flv) - fu
+            if extra is not None:
+                m_i, v_i = m_i + extra["heel"][1], v_i + extra["heel"][0]
+            mu_c = np.where(m_i > mu, i, mu_c)
+            vu_c = np.where(v_i > vu, i, vu_c)
+            mu, vu = np.maximum(mu, m_i), np.maximum(vu, v_i)
+    m = _footing_member(geom, inputs, bars, mu, vu, cov)
+    dev = footing_development(bars.size, bars.spacing_in, m.as_in2, m.d_in, m.mu_lbft,
+                              m.thickness_in, cov, heel_room_in(geom), inputs, top=True,
+                              hooked=hooked)
+    return _footing_result(m, mu_c, vu_c, dev)
 
 
 def heel_demand(geom: SectionGeometry, inputs: DesignInputs, pressure=None):
-    """Factored heel moment and shear at the stem's back face with a backslope, Coulomb,
-    water or strip loads: 1.2 (soil depth d0 at the face to d1 at the heel edge, full unit
-    weight: buoyancy and uplift neglected, conservative; footing) + 1.6 q + 1.6 x the
-    vertical component Pv of the static thrust, acting down on the heel plane at the edge:
-
-    Mu = 1.2 [gamma (d0 L^2/2 + (d1 - d0) L^2/3) + gamma_c T L^2/2] + 1.6 (q L^2/2 + Pv L).
-    """
-    from .pressure import _stem_face_x_at_grade, virtual_back_height_ft
-
+    """Textbook factored heel moment and shear at the stem's back face (upward pressure
+    neglected): 1.2 (soil, full unit weight; footing) + 1.6 q + 1.6 x the vertical component
+    Pv of the static thrust at the heel edge (see :func:`heel_down_loads`)."""
     p = pressure or earth_pressure(inputs)
-    L = geom.heel_ft
-    T = geom.footing_thickness_ft
-    x_back = geom.toe_ft + geom.stem_base_in / 12.0
-    tanb = np.tan(np.radians(inputs.backslope_deg or 0.0))
-    H = geom.design_height_ft
-    d0 = np.maximum(H + (x_back - _stem_face_x_at_grade(geom, inputs)) * tanb - T, 0.0)
-    d1 = np.maximum(virtual_back_height_ft(geom, inputs) - T, 0.0)
-    g, gc, q = inputs.unit_weight_pcf, inputs.concrete_unit_weight_pcf, inputs.surcharge_psf
-    pv = design_thrust(geom, inputs, p).vertical_lb
-    mu = (LF_DEAD_ADDS * (g * (d0 * L * L / 2.0 + (d1 - d0) * L * L / 3.0) + gc * T * L * L / 2.0)
-          + LF_LATERAL * (q * L * L / 2.0 + pv * L))
-    vu = (LF_DEAD_ADDS * (g * (d0 + d1) * L / 2.0 + gc * T * L)
-          + LF_LATERAL * (q * L + pv))
-    return mu, vu
+    loads = heel_down_loads(geom, inputs, design_thrust(geom, inputs, p))
+    (fd, md), (fl, ml) = loads["dead"], loads["live"]
+    (fh, mh), (flv, mlv) = loads["pv_h"], loads["pv_l"]
+    return (LF_DEAD_ADDS * md + LF_LATERAL * (ml + mh + mlv),
+            LF_DEAD_ADDS * fd + LF_LATERAL * (fl + fh + flv))
+
+
+def seismic_combination(geom, inputs, pressure, weights):
+    """The seismic combination 1.2D + 1.0E + 1.6H of the footing (ASCE 7-22 2.3.6; DESIGN.md
+    section 7): H the static thrust without the live loads, E the increment Delta P_AE at
+    0.6 H' and the inertia kh W of the concrete (and, with ``soil_inertia``, of the soil over
+    the heel) at 1.0. Returns (index, f_d, f_h, f_l, extra) for :func:`heel_strength`."""
+    from .pressure import seismic_e_components
+
+    th = design_thrust(geom, inputs, pressure, live=False)
+    e_h, e_m, e_v, heel_e = seismic_e_components(geom, inputs, pressure, weights)
+    B = geom.footing_width_ft
+    return (SEISMIC_COMBINATION, LF_DEAD_ADDS, LF_LATERAL, 0.0,
+            {"thrust": th, "base": (e_v, e_v * B, e_m), "heel": heel_e})
 
 
 def pressure_line(case, width_ft):
@@ -435,25 +652,32 @@ def clipped_line_load(q0, s, length_ft):
 
 
 def toe_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays,
-                 stab=None) -> MemberResult:
+                 stab=None, *, pressure=None, weights=None, hooked=None) -> FootingResult:
     """Toe as a cantilever from the stem's front face, bottom bars in tension.
 
-    Mu, Vu at the face = 1.6 x (service bearing pressure over the toe) - 0.9 x (footing + soil
-    over the toe, the soil only with ``count_toe_soil``), the pressure being that of the
-    governing bearing case (the larger q_max, as reported by stability). Bottom cover 3 in
-    (cast against earth) unless ``cover_toe_in``. ``stab`` is a
-    :class:`~.stability.StabilityResult` (computed if omitted).
+    1.6 x (service bearing pressure over the toe) - 0.9 x (footing + soil over the toe, the
+    soil only with ``count_toe_soil``), the pressure being that of the governing bearing case
+    (the larger q_max, as reported by stability); with [seismic] also 1.2D + 1.0E + 1.6H with
+    its own factored bearing pressure, less 1.2 x the same weights; the larger of the two.
+    Mu at the front face, Vu at d from it (7.4.3.2 by 13.2.7: the wall is a compression
+    support for the toe). Bottom cover 3 in (cast against earth) unless ``cover_toe_in``.
+    ``stab`` is a :class:`~.stability.StabilityResult` (computed if omitted).
     """
     if stab is None:
         from .stability import stability
 
         stab = stability(geom, inputs)
     L, B = geom.toe_ft, geom.footing_width_ft
+    cov = cover_in(bars.size, inputs.cover_toe_in)
+    d = geom.footing_thickness_in - cov - bars.diameter_in / 2.0
+    Lv = np.maximum(L - d / 12.0, 0.0)  # the shear's critical section, from the toe edge
     # the pressure diagram of the governing bearing case (the one reported with q_max)
     q0d, sd = pressure_line(stab.case_dead, B)
     q0s, ss = pressure_line(stab.case_surcharge, B)
     pick = stab.bearing_with_surcharge
-    f_up, m_up = clipped_line_load(np.where(pick, q0s, q0d), np.where(pick, ss, sd), L)
+    q0, s = np.where(pick, q0s, q0d), np.where(pick, ss, sd)
+    _, m_up = clipped_line_load(q0, s, L)
+    f_up, _ = clipped_line_load(q0, s, Lv)
     w = inputs.concrete_unit_weight_pcf * geom.footing_thickness_ft
     if inputs.count_toe_soil:
         w = w + inputs.unit_weight_pcf * geom.toe_soil_depth_ft
@@ -463,9 +687,30 @@ def toe_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays,
         from .pressure import WATER_PCF, water_height_ft
 
         u_b = WATER_PCF * water_height_ft(geom, inputs)
-        f_up = f_up + u_b * L * L / (2.0 * B)
+        f_up = f_up + u_b * Lv * Lv / (2.0 * B)
         m_up = m_up + u_b * L ** 3 / (6.0 * B)
     mu = LF_LATERAL * m_up - LF_DEAD_RESISTS * w * L * L / 2.0
-    vu = LF_LATERAL * f_up - LF_DEAD_RESISTS * w * L
-    cov = cover_in(bars.size, inputs.cover_toe_in)
-    return _footing_member(geom, inputs, bars, mu, vu, cov)
+    vu = LF_LATERAL * f_up - LF_DEAD_RESISTS * w * Lv
+    shape = np.broadcast_shapes(np.shape(mu), np.shape(vu))
+    mu_c = np.full(shape, TOE_SERVICE)
+    vu_c = np.full(shape, TOE_SERVICE)
+    if inputs.seismic is not None:
+        from .section import section_weights
+
+        p = pressure or earth_pressure(inputs)
+        wts = weights if weights is not None else section_weights(geom, inputs)
+        i, f_d, f_h, f_l, extra = seismic_combination(geom, inputs, p, wts)
+        q0e, se, _ = factored_pressure_line(geom, inputs, wts, extra["thrust"], f_d, f_h, f_l,
+                                            extra["base"])
+        _, m_e = clipped_line_load(q0e, se, L)
+        f_e, _ = clipped_line_load(q0e, se, Lv)
+        m_e = m_e - f_d * w * L * L / 2.0
+        f_e = f_e - f_d * w * Lv
+        mu_c = np.where(m_e > mu, i, mu_c)
+        vu_c = np.where(f_e > vu, i, vu_c)
+        mu, vu = np.maximum(mu, m_e), np.maximum(vu, f_e)
+    m = _footing_member(geom, inputs, bars, mu, vu, cov)
+    dev = footing_development(bars.size, bars.spacing_in, m.as_in2, m.d_in, m.mu_lbft,
+                              m.thickness_in, cov, toe_room_in(geom), inputs, top=False,
+                              hooked=hooked)
+    return _footing_result(m, mu_c, vu_c, dev)

@@ -78,7 +78,8 @@ def reinforcement(sec: SectionDims) -> Reinforcement:
 
     return Reinforcement(stem=arr(sec.stem_bars), heel=arr(sec.heel_bars), toe=arr(sec.toe_bars),
                          horizontal=arr(sec.horizontal_bars),
-                         longitudinal=arr(sec.footing_long_bars))
+                         longitudinal=arr(sec.footing_long_bars),
+                         heel_hooked=sec.heel_hooked, toe_hooked=sec.toe_hooked)
 
 
 def station_cases(ws: StationSeries, idx, bf, tw, fb_crit, top_mode):
@@ -104,7 +105,8 @@ def audit_stations(inputs, sec: SectionDims, h, emb, fb, res: SectionChecks, wal
     if sec.has_key:
         geo["key_offset_ft"] = sec.key_offset_ft
     bars = {"stem": str(sec.stem_bars), "heel": str(sec.heel_bars), "toe": str(sec.toe_bars),
-            "horizontal": str(sec.horizontal_bars), "longitudinal": str(sec.footing_long_bars)}
+            "horizontal": str(sec.horizontal_bars), "longitudinal": str(sec.footing_long_bars),
+            "heel_hooked": sec.heel_hooked, "toe_hooked": sec.toe_hooked}
     ratios = np.stack([np.broadcast_to(np.asarray(r.ratio, float), res.shape).reshape(-1)
                        for r in res.rows])
     row_passes = np.stack([np.broadcast_to(np.asarray(r.passes, bool), res.shape).reshape(-1)

@@ -129,23 +129,49 @@ def check_texts(case) -> list[CheckText]:
                                    if inp.crack_control else ")"),
             f"service bar stress fs = {_n(stem['fs_service_psi'])} psi, clear cover "
             f"{_n(stem['cover_in'], '.2f')} in"),
-        "stem_hook": ("ℓdh ≤ footing thickness − bottom cover",
+        "stem_hook": ("ℓdh ≤ footing thickness − bottom cover − bottom mat (toe + longitudinal "
+                      "bars)",
                       f"ℓdh = {_n(stem['ldh_in'], '.1f')} in, available "
                       f"{_n(stem['ldh_available_in'], '.1f')} in"),
-        "heel_flexure": (
+        "heel_flexure": ((
+            "Mu at the back face of the stem = the combination's load on the heel less its "
+            "factored bearing pressure under the heel, the largest of 1.2D+1.6H+1.6L, "
+            "1.2D+1.6H, 0.9D+1.6H" + (", 1.2D+1.0E+1.6H" if inp.seismic is not None else ""))
+            if inp.heel_upward_pressure else
             "wu = 1.2·(γ·h_s + γc·T) + 1.6·q; Mu = wu·L²/2 at the back face of the stem",
-            f"wu = {wu_heel:,.0f} psf, L = {f(g.heel_ft):.2f} ft: Mu = "
+            (f"governing {heel['mu_combination']}, " if inp.heel_upward_pressure
+             else f"wu = {wu_heel:,.0f} psf, ")
+            + f"L = {f(g.heel_ft):.2f} ft: Mu = "
             f"{_n(heel['mu_lbft'])} lb-ft/ft; " + flex(heel, case.checks.heel)),
-        "heel_shear": ("Vu = wu·L at the back face of the stem",
-                       f"Vu = {_n(heel['vu_lb'])} lb/ft; "
+        "heel_shear": (("Vu at the back face of the stem, the largest of the combinations "
+                        "(net of the factored bearing pressure)")
+                       if inp.heel_upward_pressure else "Vu = wu·L at the back face of the stem",
+                       (f"governing {heel['vu_combination']}: "
+                        if inp.heel_upward_pressure else "")
+                       + f"Vu = {_n(heel['vu_lb'])} lb/ft; "
                        + shear(heel, inp.footing_shear_size_effect)),
+        "heel_development": (
+            "top bars beyond the back face of the stem: ℓd (Table 25.4.2.3, ψt = 1.3 top bar) "
+            "or ℓdh (25.4.3.1) × As,req/As,prov (25.4.10.1), ≥ 12 in / 8db and 6 in; ≤ stem "
+            "+ toe − 3 in",
+            f"{heel['anchorage']}: required {_n(heel['ld_required_in'], '.1f')} in (straight "
+            f"{_n(heel['ld_straight_in'], '.1f')} in, hooked {_n(heel['ldh_in'], '.1f')} in; "
+            f"As,req = {_n(heel['as_required_in2'], '.3f')} in²/ft), room "
+            f"{_n(heel['ld_available_in'], '.1f')} in"),
+        "toe_development": (
+            "bottom bars beyond the front face of the stem: ℓd (Table 25.4.2.3) or ℓdh "
+            "(25.4.3.1) × As,req/As,prov (25.4.10.1); ≤ stem + heel − 3 in",
+            f"{toe['anchorage']}: required {_n(toe['ld_required_in'], '.1f')} in (straight "
+            f"{_n(toe['ld_straight_in'], '.1f')} in, hooked {_n(toe['ldh_in'], '.1f')} in), "
+            f"room {_n(toe['ld_available_in'], '.1f')} in"),
         "heel_min_steel": ("As ≥ 0.0018·b·T", f"T = {f(g.footing_thickness_in):g} in"),
         "heel_spacing": ("s ≤ min(3T, 18 in)", f"T = {f(g.footing_thickness_in):g} in"),
         "toe_flexure": (
             "Mu = 1.6·(bearing pressure moment over the toe) − 0.9·(footing + soil)·L²/2",
             f"L = {f(g.toe_ft):.2f} ft, pressure of the case {br['case']}: Mu = "
             f"{_n(toe['mu_lbft'])} lb-ft/ft; " + flex(toe, case.checks.toe)),
-        "toe_shear": ("Vu = 1.6·(bearing force over the toe) − 0.9·(footing + soil)·L",
+        "toe_shear": ("Vu at d from the front face of the stem = 1.6·(bearing force over the "
+                      "toe to there) − 0.9·(footing + soil) over the same length",
                       f"Vu = {_n(toe['vu_lb'])} lb/ft; "
                       + shear(toe, inp.footing_shear_size_effect)),
         "toe_min_steel": ("As ≥ 0.0018·b·T", f"T = {f(g.footing_thickness_in):g} in"),

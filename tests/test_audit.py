@@ -44,6 +44,7 @@ def random_inputs(rng, batter, resists, toe_soil, passive):
         cover_toe_in=float(rng.choice([3.0, rng.uniform(2, 4)])),
         footing_shear_size_effect=bool(rng.random() < 0.3),
         crack_control=bool(rng.random() < 0.7), hook_psi_o=float(rng.choice([1.0, 1.25])),
+        heel_upward_pressure=bool(rng.random() < 0.75),
     )
     if by_phi:
         kw["friction_angle_deg"] = rng.uniform(24, 42)
@@ -119,7 +120,9 @@ def compare(inp, geo, bars, with_optional):
                          ("m_resisting_lbft", st.m_resisting_lbft),
                          ("h_driving_lb", st.h_driving_lb), ("h_resisting_lb", st.h_resisting_lb),
                          ("q_max_psf", st.q_max_psf), ("eccentricity_ft", st.eccentricity_ft),
-                         ("toe_vu_lb", res.toe.vu_lb), ("stem_vu_lb", res.stem.vu_lb)):
+                         ("toe_vu_lb", res.toe.vu_lb), ("stem_vu_lb", res.stem.vu_lb),
+                         ("heel_vu_lb", res.heel.vu_lb), ("heel_mu_lbft", res.heel.mu_lbft),
+                         ("toe_mu_lbft", res.toe.mu_lbft)):
             if not _close(vals[key], float(arr[i])):
                 bad.append((i, key, vals[key], float(arr[i])))
     assert not bad, bad[:5]

@@ -65,9 +65,11 @@ def test_kh_zero_gives_static():
                                                               rel=1e-12), (kw, method, k)
 
 
-def hand_case():
+def hand_case(soil_inertia=True):
     """Hand calculation of tests/data/sections/seismic_level.toml (IBC 2021 1807.2.3, 0.7 E;
-    Seed-Whitman increment at 0.6 H; kh W of stem and footing at their centroids)."""
+    Seed-Whitman increment at 0.6 H; kh W of stem and footing at their centroids and, with
+    ``soil_inertia`` (DESIGN.md 7: the soil over the heel moves with the wall), of the soil
+    over the heel, 5 ft x 9 ft at 1 + 9/2 = 5.5 ft)."""
     kh, lf, gam, gc = 0.2, 0.7, 120.0, 150.0
     H, T, B = 10.0, 1.0, 8.0
     stem_w, stem_x, stem_y = gc * 1.0 * 9.5, 2.5, 1.0 + 9.5 / 2
@@ -77,8 +79,11 @@ def hand_case():
     V = stem_w + foot_w + heel_w + toe_w
     MR = stem_w * stem_x + foot_w * foot_x + heel_w * heel_x + toe_w * toe_x
     P, dP = 0.5 * 35 * H * H, 0.375 * kh * gam * H * H
-    HE = P + lf * dP + lf * kh * (stem_w + foot_w)
-    MO = P * H / 3 + lf * dP * 0.6 * H + lf * kh * (stem_w * stem_y + foot_w * foot_y)
+    moving = [(stem_w, stem_y), (foot_w, foot_y)]
+    if soil_inertia:
+        moving.append((heel_w, 1.0 + 9.0 / 2))
+    HE = P + lf * dP + lf * kh * sum(w for w, _ in moving)
+    MO = P * H / 3 + lf * dP * 0.6 * H + lf * kh * sum(w * y for w, y in moving)
     pp = 0.5 * 300 * (2.0 ** 2 - 1.0 ** 2)
     xbar = (MR - MO) / V
     e = B / 2 - xbar
@@ -99,6 +104,21 @@ def test_section_json_seismic_by_hand():
     assert all(n in names for n in SEISMIC_CHECK_NAMES)
     text = CliRunner().invoke(main, ["section", str(DATA / "seismic_level.toml")]).output
     assert "seismic: Delta P_AE" in text and "IBC 2021 1807.2.3" in text
+
+
+def test_soil_inertia_off_keeps_the_concrete_only():
+    from dataclasses import replace
+
+    from wallsched.engine.stability import stability
+
+    sf = load_section(DATA / "seismic_level.toml")
+    off = replace(sf.design_inputs(), seismic=SeismicLoad(0.2, soil_inertia=False))
+    st = stability(sf.section_geometry(), off).seismic
+    hand = hand_case(soil_inertia=False)
+    assert float(st.fs_overturning) == pytest.approx(hand["fs_overturning"], rel=1e-9)
+    assert float(st.fs_sliding) == pytest.approx(hand["fs_sliding"], rel=1e-9)
+    # with the soil's inertia the sliding FS falls (the issue's 16-ft case: 1.21 -> 1.01)
+    assert hand_case()["fs_sliding"] < hand["fs_sliding"]
 
 
 def test_no_seismic_table_no_seismic_rows():

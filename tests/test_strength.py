@@ -209,7 +209,8 @@ def test_stem_demands_follow_design_md():
 def test_heel_and_toe_loads():
     g = SectionGeometry(8.0, 3.0, 15.0, 10.0, 12.0, 2.5, 5.0)
     inp = _inp()
-    heel = heel_strength(g, inp, BarArrays(5, 12.0))
+    # the textbook heel (heel_upward_pressure = false): McCormac & Brown 13.10
+    heel = heel_strength(g, _inp(heel_upward_pressure=False), BarArrays(5, 12.0))
     wu = 1.2 * (120 * (11 - 1.25) + 150 * 1.25) + 1.6 * 250
     assert float(heel.vu_lb) == pytest.approx(wu * 5.0)
     assert float(heel.mu_lbft) == pytest.approx(wu * 12.5)
@@ -217,7 +218,8 @@ def test_heel_and_toe_loads():
     d = float(heel.d_in)
     assert float(heel.phi_vn_lb) == pytest.approx(float(one_way_shear_strength(
         0.31, d, 4000.0, size_effect=False)))
-    heel_ls = heel_strength(g, _inp(footing_shear_size_effect=True), BarArrays(5, 12.0))
+    heel_ls = heel_strength(g, _inp(footing_shear_size_effect=True, heel_upward_pressure=False),
+                            BarArrays(5, 12.0))
     assert float(heel_ls.phi_vn_lb) <= float(heel.phi_vn_lb)
     # toe: 1.6 x bearing pressure over the toe - 0.9 x (footing + soil over the toe)
     from wallsched.engine.stability import stability
@@ -228,10 +230,12 @@ def test_heel_and_toe_loads():
     e, q_toe, q_heel = float(st.eccentricity_ft), float(st.q_max_psf), float(st.q_min_psf)
     assert e < B / 6
     q_face = q_toe + (q_heel - q_toe) * 2.5 / B
-    up = (q_toe + q_face) / 2 * 2.5
     w = 150 * 1.25 + 120 * (3.0 - 1.25)
     toe = toe_strength(g, inp, BarArrays(5, 12.0), st)
-    assert float(toe.vu_lb) == pytest.approx(1.6 * up - 0.9 * w * 2.5)
+    # Vu at d from the stem's front face (7.4.3.2 by 13.2.7)
+    lv = 2.5 - float(toe.d_in) / 12
+    q_d = q_toe + (q_heel - q_toe) * lv / B
+    assert float(toe.vu_lb) == pytest.approx(1.6 * (q_toe + q_d) / 2 * lv - 0.9 * w * lv)
     m_up = 2.5 ** 2 * (q_face / 2 + (q_toe - q_face) / 3)
     assert float(toe.mu_lbft) == pytest.approx(1.6 * m_up - 0.9 * w * 2.5 ** 2 / 2)
 

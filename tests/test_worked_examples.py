@@ -139,8 +139,15 @@ def test_mccormac_13_3_toe():
     # book: Vu = 1.6 x bearing pressure over the toe = 17,526 lb; Mu = 34,958 ft-lb; the book
     # does not subtract the toe's weight; we subtract 0.9 x 150 pcf x 1.5 ft over 3.75 ft
     relief_v = 0.9 * 150 * 1.5 * 3.75
-    assert float(toe.vu_lb) == pytest.approx(17526 - relief_v, rel=1e-3)
     assert float(toe.mu_lbft) == pytest.approx(34958 - relief_v * 3.75 / 2, rel=1e-3)
+    # the book's Vu is at the face: 1.6 (3,480 + 2,362) / 2 x 3.75 = 17,526 with the service
+    # pressure falling (3,480 - 52) / 11.5 = 298.1 psf/ft; ours is at d = 14.5 in from it
+    # (ACI 318-19 7.4.3.2 by 13.2.7): over 3.75 - 14.5/12 = 2.542 ft from the toe edge
+    slope = (3480 - 52) / 11.5
+    assert 1.6 * (3480 + 3480 - slope * 3.75) / 2 * 3.75 == pytest.approx(17526, rel=1e-3)
+    lv = 3.75 - 14.5 / 12
+    vu_d = 1.6 * (3480 + 3480 - slope * lv) / 2 * lv - 0.9 * 150 * 1.5 * lv
+    assert float(toe.vu_lb) == pytest.approx(vu_d, rel=1e-3)
 
 
 def test_mccormac_13_3_development():

@@ -77,6 +77,9 @@ SEISMIC_KEYS = {
                           doc="required FS, overturning with seismic (IBC 2021 1807.2.3)"),
     "fs_sliding": Key(float, 1.1, lo=1.0, hi=5.0,
                       doc="required FS, sliding with seismic (IBC 2021 1807.2.3)"),
+    "soil_inertia": Key(bool, True,
+                        doc="the soil over the heel moves with the wall: its inertia kh W "
+                            "acts with the concrete's"),
 }
 
 # [water]: an explicit option; without it the backfill is drained
@@ -176,6 +179,10 @@ CRITERIA_KEYS = {
     "hook_psi_o": Key(float, 1.0, lo=1.0, hi=1.25,
                       doc="hook location factor psi_o (ACI 318-19 Table 25.4.3.2): 1.0 for a "
                           "continuous wall, 1.25 where side cover < 6 db"),
+    "heel_upward_pressure": Key(bool, True,
+                                doc="design the heel for the net factored pressure of "
+                                    "1.2D+1.6H+1.6L, 1.2D+1.6H and 0.9D+1.6H (false: the "
+                                    "textbook method, upward pressure neglected)"),
 }
 
 # [costs]: the least-cost objective. ILLUSTRATIVE defaults, not market prices.
