@@ -99,12 +99,12 @@ def _clip_y(pts, y0, below=True):
     return _clip(pts, inside, cut)
 
 
-def _clip_x(pts, x0):
-    """The part of a polygon right of the line x = x0."""
+def _clip_x(pts, x0, right=True):
+    """The part of a polygon right (or left) of the line x = x0."""
     def cut(p, q):
         t = (x0 - p[0]) / (q[0] - p[0])
         return (x0, p[1] + t * (q[1] - p[1]))
-    return _clip(pts, lambda p: p[0] >= x0, cut)
+    return _clip(pts, (lambda p: p[0] >= x0) if right else (lambda p: p[0] <= x0), cut)
 
 
 def _simpson(fn, a, b, breaks=(), n=64):
@@ -321,6 +321,7 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
     ko = g.get("key_offset_ft", toe)
     fb = g.get("freeboard_ft", 0.5)
     gam, gc, q = i.unit_weight_pcf, i.concrete_unit_weight_pcf, i.surcharge_psf
+    g_sat = i.gamma_below_water_pcf  # total unit weight below a water level
     fc, fy = i.fc_psi, i.fy_psi
 
     # pressures; the thrust's direction ``incl`` above the horizontal
@@ -334,7 +335,9 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
         efp = i.active_efp_pcf
         ka = efp / gam
     elif i.active_method == "coulomb":
-        incl = i.wall_friction_deg
+        # soil against soil on the heel plane (friction = backslope); the report's wall
+        # friction only on the stem's back face
+        incl = i.wall_friction_deg if i.coulomb_plane == "stem" else beta
         ka = _wedge_k(i.friction_angle_deg, incl, beta)
         efp = ka * gam
     elif beta > 0:
@@ -366,16 +369,24 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
         stem_poly = [(x_front, T), (x_back, T), (x_back, y_top), (x_back - tt, y_top)]
         x_face_at_grade = x_back
     Hv = H + (B - x_face_at_grade) * math.tan(math.radians(beta))  # ground at the heel edge
+    stem_plane = i.active_method == "coulomb" and i.coulomb_plane == "stem"
+    if stem_plane:  # the thrust on the stem's back face at its base, the heel's soil retained
+        x_p = x_back
+        Hp = H + (x_back - x_face_at_grade) * math.tan(math.radians(beta))
+    else:
+        x_p, Hp = B, Hv
     hw = 0.0 if wl is None else min(max(wl, 0.0), H)
     concrete = [stem_poly, [(0, 0), (B, 0), (B, T), (0, T)]]
     if kw > 0 and kd > 0:
         concrete.append([(ko, 0), (ko, -kd), (ko + kw, -kd), (ko + kw, 0)])
     pieces = [(gc, c) for c in concrete]
     soil_region = [(x_back, T), (B, T), (B, Hv), (x_face_at_grade, H)]
-    if H > T:
+    if H > T and stem_plane:  # only the soil left of the plane (over a battered face)
+        pieces.append((gam, _clip_x(soil_region, x_back, right=False)))
+    elif H > T:
         pieces.append((gam, soil_region))
-        if hw > T:  # buoyancy of the soil below the water level
-            pieces.append((-WATER, _clip_y(soil_region, hw)))
+        if hw > T and i.gamma_below_water_pcf != gam:  # saturated below the level (total
+            pieces.append((i.gamma_below_water_pcf - gam, _clip_y(soil_region, hw)))  # weights)
     if hw > 0:  # uplift: the head at the heel edge falling to zero at the toe edge
         pieces.append((-1.0, [(0, 0), (B, 0), (B, WATER * hw)]))
     if i.count_toe_soil and emb > T:
@@ -385,25 +396,25 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
         area, xc = _polygon(poly) if len(poly) >= 3 else (0.0, 0.0)
         V_dead += unit * area
         M_dead += unit * area * xc
-    Wq = q * heel  # the surcharge over the heel, from the stem's back face at its base
+    Wq = 0.0 if stem_plane else q * heel  # the surcharge over the heel (from the back face)
     Mq = Wq * (x_back + B) / 2
 
     # lateral, on the heel plane over H (H' with a backslope)
     def heel_plane(live):
         """(horizontal force, moment about the base, vertical force) on the heel plane."""
         def p_soil(y):
-            return ka * (gam * (Hv - y) - WATER * max(hw - y, 0.0))
+            return ka * (gam * (Hp - y) + (g_sat - gam - WATER) * max(hw - y, 0.0))
 
         brk = [hw]
-        f = _simpson(p_soil, 0.0, Hv, brk)
-        m = _simpson(lambda y: p_soil(y) * y, 0.0, Hv, brk)
-        fw = _simpson(lambda y: WATER * max(hw - y, 0.0), 0.0, Hv, brk)
-        mw = _simpson(lambda y: WATER * max(hw - y, 0.0) * y, 0.0, Hv, brk)
+        f = _simpson(p_soil, 0.0, Hp, brk)
+        m = _simpson(lambda y: p_soil(y) * y, 0.0, Hp, brk)
+        fw = _simpson(lambda y: WATER * max(hw - y, 0.0), 0.0, Hp, brk)
+        mw = _simpson(lambda y: WATER * max(hw - y, 0.0) * y, 0.0, Hp, brk)
         fh, mh, fv = f * ci + fw, m * ci + mw, f * si_
         if live:
-            fh += ka * q * Hv * ci
-            mh += ka * q * Hv * Hv / 2 * ci
-            fv += ka * q * Hv * si_
+            fh += ka * q * Hp * ci
+            mh += ka * q * Hp * Hp / 2 * ci
+            fv += ka * q * Hp * si_
             brs = _strip_breaks(strips, H)
             for sl in strips:
                 fh += _simpson(lambda z, sl=sl: _strip_sigma(sl[2], sl[0], sl[1], z), 0.0, H,
@@ -421,7 +432,7 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
     # the vertical component of the thrust acts down on the heel plane, x = B
     V_perm, M_perm = V_dead, M_dead  # without the thrust (the seismic case adds its own)
     V_dead += V_th
-    M_dead += V_th * B
+    M_dead += V_th * x_p
     V_res, M_res = (V_dead + Wq, M_dead + Mq) if i.surcharge_resists else (V_dead, M_dead)
     fs_ot = M_res / M_O if M_O > 0 else math.inf
     z_bot = emb + (kd if (kw > 0 and kd > 0) else 0.0)
@@ -468,26 +479,26 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
     if sz is not None:
         lf, kh = sz.load_factor, sz.kh
         if sz.method == "seed-whitman":
-            dpae, dc, ds = 0.375 * kh * gam * Hv * Hv, 1.0, 0.0
+            dpae, dc, ds = 0.375 * kh * gam * Hp * Hp, 1.0, 0.0
         else:
             kae = _wedge_k(i.friction_angle_deg, incl, beta, kh)
-            dpae, dc, ds = (kae - ka) * gam * Hv * Hv / 2, ci, si_
+            dpae, dc, ds = (kae - ka) * gam * Hp * Hp / 2, ci, si_
         if ext:
             fh0, mh0, fv0 = heel_plane(False)
         else:
             fh0, mh0, fv0 = efp * H ** 2 / 2, efp * H ** 3 / 6, 0.0
         fi = mi = 0.0
         moving = [(gc, c) for c in concrete]
-        if sz.soil_inertia and H > T:  # the soil over the heel moves with the wall
-            moving.append((gam, soil_region))
+        if sz.soil_inertia and H > T and not stem_plane:  # the soil over the heel moves
+            moving.append((gam, soil_region))  # with the wall
         for unit, poly in moving:
             a_c, _, y_c = _polygon_y(poly)
             fi += kh * unit * a_c
             mi += kh * unit * a_c * y_c
         HE = fh0 + lf * dpae * dc + lf * fi
-        ME = mh0 + lf * dpae * dc * 0.6 * Hv + lf * mi
+        ME = mh0 + lf * dpae * dc * 0.6 * Hp + lf * mi
         VE = V_perm + fv0 + lf * dpae * ds
-        MRE = M_perm + (fv0 + lf * dpae * ds) * B
+        MRE = M_perm + (fv0 + lf * dpae * ds) * x_p
         fs_ot_e = MRE / ME if ME > 0 else math.inf
         fs_sl_e = (i.friction_coefficient * VE + P_p) / HE if HE > 0 else math.inf
         xb = (MRE - ME) / VE if VE > 0 else math.nan
@@ -526,7 +537,7 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
 
         def p(z):
             y = H - z
-            sv = gam * z - WATER * max(hw - y, 0.0)
+            sv = gam * z + (g_sat - gam - WATER) * max(hw - y, 0.0)
             out = ka * ci * sv + WATER * max(hw - y, 0.0)
             if live:
                 out += ka * q * ci + sum(_strip_sigma(qs, o, w, z) for o, w, qs in strips)
@@ -630,6 +641,10 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
                        else (0.0, 0.0, 0.0))
         dead_f = gam * a_h + gc * T * heel
         dead_m = gam * a_h * (x_h - x_back) + gc * T * heel ** 2 / 2
+        if hw > T and H > T and g_sat != gam:  # the saturated part over the heel
+            a_s, x_s, _ = _polygon_y(_clip_y(_clip_x(soil_region, x_back), hw))
+            dead_f += (g_sat - gam) * a_s
+            dead_m += (g_sat - gam) * a_s * (x_s - x_back)
     else:
         dead_f = (gam * hs + gc * T) * heel
         dead_m = dead_f * heel / 2
@@ -656,13 +671,13 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
         """E at 1.0 (ASCE 7-22 2.3.6): horizontal, moment about the base, vertical at the heel
         edge: the increment at 0.6 H' and kh W of the concrete (and the soil region)."""
         if sz.method == "seed-whitman":
-            dp, cc, ss = 0.375 * sz.kh * gam * Hv * Hv, 1.0, 0.0
+            dp, cc, ss = 0.375 * sz.kh * gam * Hp * Hp, 1.0, 0.0
         else:
-            dp = (_wedge_k(i.friction_angle_deg, incl, beta, sz.kh) - ka) * gam * Hv * Hv / 2
+            dp = (_wedge_k(i.friction_angle_deg, incl, beta, sz.kh) - ka) * gam * Hp * Hp / 2
             cc, ss = ci, si_
-        fh_, mh_ = dp * cc, dp * cc * 0.6 * Hv
+        fh_, mh_ = dp * cc, dp * cc * 0.6 * Hp
         mass = [(gc, c) for c in concrete]
-        if sz.soil_inertia and H > T:
+        if sz.soil_inertia and H > T and not stem_plane:
             mass.append((gam, soil_region))
         for unit, poly in mass:
             a_c, _, y_c = _polygon_y(poly)
@@ -677,15 +692,16 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
 
     def combo_pressure(fd, fh, fl, e):
         V = fd * V_perm + fh * th_h[2] + fl * (Wq + th_l[2])
-        M = fd * M_perm + (fh * th_h[2] + fl * th_l[2]) * B + fl * Mq
+        M = fd * M_perm + (fh * th_h[2] + fl * th_l[2]) * x_p + fl * Mq
         MO = fh * th_h[1] + fl * th_l[1]
         if e is not None:
-            V, M, MO = V + e[2], M + e[2] * B, MO + e[1]
+            V, M, MO = V + e[2], M + e[2] * x_p, MO + e[1]
         return pressure_fn(V, M, MO)
 
     if not i.heel_upward_pressure:
-        mu_h = 1.2 * dead_m + 1.6 * (q * heel ** 2 / 2 + th_all[2] * heel)
-        vu_h = 1.2 * dead_f + 1.6 * (q * heel + th_all[2])
+        pv_t = 0.0 if stem_plane else th_all[2]  # (stem plane: on the stem, not the heel)
+        mu_h = 1.2 * dead_m + 1.6 * (q * heel ** 2 / 2 + pv_t * heel)
+        vu_h = 1.2 * dead_f + 1.6 * (q * heel + pv_t)
         heel_combo = "1.2D + 1.6L + 1.6H, upward pressure neglected"
     else:
         mu_h = vu_h = -math.inf
@@ -694,7 +710,8 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
             pf, brk = combo_pressure(fd, fh, fl, e)
             up_f = _simpson(pf, x_back, B, brk, 4)
             up_m = _simpson(lambda x, pf=pf: pf(x) * (x - x_back), x_back, B, brk, 4)
-            pv = fh * th_h[2] + fl * th_l[2] + (e[2] if e is not None else 0.0)
+            pv = 0.0 if stem_plane else (fh * th_h[2] + fl * th_l[2]
+                                         + (e[2] if e is not None else 0.0))
             v_c = fd * dead_f + fl * q * heel + pv - up_f
             m_c = fd * dead_m + fl * q * heel ** 2 / 2 + pv * heel - up_m
             if v_c > vu_h:

@@ -216,7 +216,7 @@ class ColumnSearch:
         """The static overturning and sliding checks at ``h`` (as
         :func:`~.stability.stability` makes them, with the screen's slack) for the toes
         ``toes`` of every column, from the engine's weights and thrust: (toes, columns)."""
-        from .pressure import design_thrust, passive_resistance_lb
+        from .pressure import design_thrust, passive_resistance_lb, thrust_plane_x_ft
         from .section import section_weights
 
         g, i, p = self.g, self.inputs, self.screen.p
@@ -227,7 +227,7 @@ class ColumnSearch:
         v, m = w.dead()
         th = design_thrust(geo, i, p)
         v = v + th.vertical_lb
-        m = m + th.vertical_lb * geo.footing_width_ft
+        m = m + th.vertical_lb * thrust_plane_x_ft(geo, i)
         if i.surcharge_resists:
             v, m = v + w.surcharge.lb, m + w.surcharge.moment_lbft
         pp = (passive_resistance_lb(p.passive_efp_pcf, i.passive_neglect_ft,

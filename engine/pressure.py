@@ -188,12 +188,25 @@ def earth_pressure(inputs) -> EarthPressure:
         ka = efp / gamma
         basis = "equivalent fluid pressure"
     elif inputs.active_method == "coulomb":
-        delta = float(inputs.wall_friction_deg)
+        if inputs.coulomb_plane == "stem":
+            # the thrust on concrete: the report's wall friction applies (DESIGN.md 7)
+            delta = float(inputs.wall_friction_deg)
+            plane = (f"wall friction {delta:g} deg on the stem's back face (the soil over the "
+                     "heel counted as retained soil, not as resisting weight)")
+        else:
+            # on the plane through the heel edge the interface is soil against soil: its
+            # friction is the backslope angle, never a wall friction (DESIGN.md 7)
+            delta = beta
+            plane = (f"interface friction = backslope {beta:.4g} deg on the plane through the "
+                     "heel edge (soil against soil)")
+            if inputs.wall_friction_deg is not None:
+                plane += (f"; the report's wall friction {inputs.wall_friction_deg:g} deg "
+                          "applies only with coulomb_plane = \"stem\"")
         ka = float(coulomb_ka(inputs.friction_angle_deg, delta, beta))
         efp = ka * gamma
         incl = delta
-        basis = (f"Coulomb, phi = {inputs.friction_angle_deg:g} deg, wall friction "
-                 f"{delta:g} deg, backslope {beta:.4g} deg, vertical virtual back")
+        basis = (f"Coulomb, phi = {inputs.friction_angle_deg:g} deg, backslope {beta:.4g} "
+                 f"deg, {plane}")
     elif beta > 0.0:
         ka = float(rankine_ka_sloping(inputs.friction_angle_deg, beta))
         efp = ka * gamma
@@ -266,9 +279,11 @@ def level_backfill_thrust(efp_pcf, ka, surcharge_psf, height_ft) -> Thrust:
 # Each returns (force, moment about the bottom of the plane) of one diagram on a vertical
 # plane ``height_ft`` tall, measured down from its top; the moment over the force is the arm.
 
-def soil_profile(k, gamma_pcf, height_ft, water_height_ft=0.0, water_pcf=WATER_PCF):
+def soil_profile(k, gamma_pcf, height_ft, water_height_ft=0.0, water_pcf=WATER_PCF,
+                 gamma_sat_pcf=None):
     """Active soil pressure K * sigma_v' on a plane of height h with water ``water_height_ft``
-    above its bottom (clipped to 0..h): gamma above the water, gamma - gamma_w below it.
+    above its bottom (clipped to 0..h): gamma above the water, gamma_sat - gamma_w below it
+    (gamma_sat = ``gamma_sat_pcf``, default gamma).
 
     Dry depth a = h - hw, submerged depth hw:
     F = K [g a^2/2 + g a hw + g' hw^2/2];  M = K [g a^2/2 (hw + a/3) + g a hw^2/2 + g' hw^3/6].
@@ -276,7 +291,8 @@ def soil_profile(k, gamma_pcf, height_ft, water_height_ft=0.0, water_pcf=WATER_P
     h = np.maximum(_a(height_ft), 0.0)
     hw = np.clip(_a(water_height_ft), 0.0, h)
     a = h - hw
-    g, gb = gamma_pcf, gamma_pcf - water_pcf
+    g = gamma_pcf
+    gb = (gamma_pcf if gamma_sat_pcf is None else gamma_sat_pcf) - water_pcf
     f = k * (g * a * a / 2.0 + g * a * hw + gb * hw * hw / 2.0)
     m = k * (g * a * a / 2.0 * (hw + a / 3.0) + g * a * hw * hw / 2.0 + gb * hw ** 3 / 6.0)
     return f, m
@@ -383,6 +399,27 @@ def virtual_back_height_ft(geom, inputs):
     return H + np.maximum(run, 0.0) * np.tan(np.radians(beta))
 
 
+def thrust_plane_x_ft(geom, inputs):
+    """Where the active thrust acts, from the toe edge: the heel edge (B), or the stem's back
+    face at its base with ``coulomb_plane = "stem"``; its vertical component acts there."""
+    if inputs.stem_plane:
+        return geom.toe_ft + geom.stem_base_in / 12.0
+    return geom.footing_width_ft
+
+
+def thrust_plane_height_ft(geom, inputs):
+    """Height of the plane the active thrust acts on: bottom of footing to the ground over
+    it (H' at the heel edge; at the stem's back face with ``coulomb_plane = "stem"``)."""
+    if not inputs.stem_plane:
+        return virtual_back_height_ft(geom, inputs)
+    beta = float(inputs.backslope_deg or 0.0)
+    H = geom.design_height_ft
+    if beta <= 0.0:
+        return H + 0.0 * geom.toe_ft
+    run = geom.toe_ft + geom.stem_base_in / 12.0 - _stem_face_x_at_grade(geom, inputs)
+    return H + np.maximum(run, 0.0) * np.tan(np.radians(beta))
+
+
 def _has_extras(inputs) -> bool:
     return bool(inputs.backslope_deg) or inputs.active_method != "rankine" or bool(
         inputs.strip) or inputs.water_level_ft is not None
@@ -403,10 +440,11 @@ def design_thrust(geom, inputs, pressure: EarthPressure | None = None, *,
         th = level_backfill_thrust(p.active_efp_pcf, p.ka, p.surcharge_psf,
                                    geom.design_height_ft)
         return th if live else Thrust(th.components[:1])
-    Hv = virtual_back_height_ft(geom, inputs)
+    Hv = thrust_plane_height_ft(geom, inputs)
     hw = water_height_ft(geom, inputs)
     c, s = p.cos_inclination, p.sin_inclination
-    f, m = soil_profile(p.ka, inputs.unit_weight_pcf, Hv, hw)
+    f, m = soil_profile(p.ka, inputs.unit_weight_pcf, Hv, hw,
+                        gamma_sat_pcf=inputs.gamma_below_water_pcf)
     with np.errstate(divide="ignore", invalid="ignore"):
         comps = [ThrustComponent("active soil", f * c, np.where(f > 0, m / f, 0.0), f * s)]
     if inputs.water_level_ft is not None:
@@ -434,7 +472,7 @@ def seismic_increment_lb(geom, inputs, pressure: EarthPressure | None = None):
     Rankine, the wall friction for Coulomb) so that kh -> 0 gives 0.
     """
     sz = inputs.seismic
-    Hv = virtual_back_height_ft(geom, inputs)
+    Hv = thrust_plane_height_ft(geom, inputs)
     g = inputs.unit_weight_pcf
     if sz.method == "seed-whitman":
         return 0.375 * sz.kh * g * Hv * Hv
@@ -497,7 +535,7 @@ def seismic_inertia_components(geom, inputs, factor):
     the heel and the battered face, at their centroids (horizontal, toward the front)."""
     sz = inputs.seismic
     parts = list(concrete_parts(geom, inputs))
-    if sz.soil_inertia:
+    if sz.soil_inertia and not inputs.stem_plane:  # (stem plane: the soil is retained)
         parts += list(soil_inertia_parts(geom, inputs))
     return [ThrustComponent(f"inertia {name}", factor * sz.kh * w, y) for name, w, y in parts]
 
@@ -511,7 +549,7 @@ def seismic_thrust(geom, inputs, pressure: EarthPressure | None = None) -> Thrus
     sz = inputs.seismic
     lf = sz.load_factor
     comps = list(design_thrust(geom, inputs, p, live=False).components)
-    Hv = virtual_back_height_ft(geom, inputs)
+    Hv = thrust_plane_height_ft(geom, inputs)
     dp = lf * seismic_increment_lb(geom, inputs, p)
     c, s = seismic_direction(inputs, p)
     comps.append(ThrustComponent("seismic increment", dp * c, SEISMIC_ARM_FRACTION * Hv, dp * s))
@@ -528,14 +566,15 @@ def seismic_e_components(geom, inputs, pressure: EarthPressure, weights=None):
     ``soil_inertia``, the soil over the heel (horizontal: no load on the heel itself)."""
     dp = seismic_increment_lb(geom, inputs, pressure)
     c, s = seismic_direction(inputs, pressure)
-    Hv = virtual_back_height_ft(geom, inputs)
+    Hv = thrust_plane_height_ft(geom, inputs)
     h = dp * c
     m = dp * c * SEISMIC_ARM_FRACTION * Hv
     for comp in seismic_inertia_components(geom, inputs, 1.0):
         h = h + comp.horizontal_lb
         m = m + comp.horizontal_lb * comp.arm_ft
     v = dp * s
-    return h, m, v, (v, v * geom.heel_ft)
+    on_heel = 0.0 if inputs.stem_plane else 1.0  # (stem plane: it acts on the stem)
+    return h, m, v, (v * on_heel, v * on_heel * geom.heel_ft)
 
 
 def passive_resistance_lb(passive_efp_pcf, neglect_ft, bottom_depth_ft):
@@ -574,7 +613,8 @@ def stem_shear_moment(geom, inputs, pressure: EarthPressure, depth_ft, *, live=T
     c = p.cos_inclination
     H = geom.design_height_ft
     hw_cut = water_height_ft(geom, inputs) - (H - z)  # water above the cut
-    v, m = soil_profile(p.ka * c, inputs.unit_weight_pcf, z, hw_cut)
+    v, m = soil_profile(p.ka * c, inputs.unit_weight_pcf, z, hw_cut,
+                        gamma_sat_pcf=inputs.gamma_below_water_pcf)
     if inputs.water_level_ft is not None:
         vw, mw = water_profile(z, hw_cut)
         v, m = v + vw, m + mw

@@ -172,9 +172,11 @@ class SeismicLoad:
 
 @dataclass(frozen=True)
 class WaterTable:
-    """The ``[water]`` table: water level behind the wall above the bottom of footing, ft."""
+    """The ``[water]`` table: water level behind the wall above the bottom of footing, ft, and
+    the saturated unit weight of the soil below it (None: ``unit_weight_pcf``)."""
 
     level_ft: float
+    saturated_unit_weight_pcf: float | None = None
 
 
 def _strip_tuple(items) -> tuple:
@@ -209,6 +211,7 @@ class DesignInputs:
     backslope_deg: float | None = None  # None or 0: level retained grade
     active_method: str = "rankine"
     wall_friction_deg: float | None = None
+    coulomb_plane: str = "heel"  # "heel": soil on soil, friction = backslope; "stem": delta
     # [loads]
     surcharge_psf: float = 0.0
     strip: tuple = ()  # ((offset_ft, width_ft, pressure_psf), ...) from [[loads.strip]]
@@ -274,14 +277,19 @@ class DesignInputs:
             if not has_phi:
                 raise ValueError("active_method = 'coulomb' needs friction_angle_deg (not "
                                  "active_efp_pcf)")
-            if self.wall_friction_deg is None:
-                raise ValueError("active_method = 'coulomb' needs wall_friction_deg (the "
+            if self.coulomb_plane not in ("heel", "stem"):
+                raise ValueError("coulomb_plane must be 'heel' or 'stem', got "
+                                 f"{self.coulomb_plane!r}")
+            if self.wall_friction_deg is None and self.coulomb_plane == "stem":
+                raise ValueError("coulomb_plane = 'stem' needs wall_friction_deg (the "
                                  "wall friction angle from the geotechnical report)")
-            if not (0.0 <= self.wall_friction_deg <= phi):
+            if self.wall_friction_deg is not None and not (0.0 <= self.wall_friction_deg <= phi):
                 raise ValueError(f"wall_friction_deg {self.wall_friction_deg:g} must be "
                                  f"between 0 and friction_angle_deg {phi:g}")
         elif self.wall_friction_deg is not None:
             raise ValueError("wall_friction_deg is used only with active_method = 'coulomb'")
+        elif self.coulomb_plane != "heel":
+            raise ValueError("coulomb_plane is used only with active_method = 'coulomb'")
         sz = self.seismic
         if sz is not None and sz.method == "mononobe-okabe":
             if not has_phi:
@@ -292,13 +300,20 @@ class DesignInputs:
                 raise ValueError(f"Mononobe-Okabe has no solution: phi - backslope - "
                                  f"atan(kh) = {phi - beta - psi:.3g} deg < 0 (lower kh or the "
                                  "slope)")
-        if self.water is not None and self.unit_weight_pcf <= 62.4:
+        if self.water is not None and self.gamma_below_water_pcf <= 62.4:
             raise ValueError("with [water] the unit weight must exceed 62.4 pcf (the buoyant "
                              "unit weight is gamma - 62.4)")
         for off, width, q in self.strip:
             if not (off >= 0 and width > 0 and q >= 0):
                 raise ValueError("a strip load needs offset_ft >= 0, width_ft > 0 and "
                                  "pressure_psf >= 0")
+
+    @property
+    def gamma_below_water_pcf(self) -> float:
+        """Total unit weight of the soil below the water level: ``saturated_unit_weight_pcf``
+        when given, else ``unit_weight_pcf`` (DESIGN.md section 7, water)."""
+        sat = None if self.water is None else self.water.saturated_unit_weight_pcf
+        return float(self.unit_weight_pcf if sat is None else sat)
 
     @property
     def water_level_ft(self) -> float | None:
@@ -335,8 +350,16 @@ class DesignInputs:
             kw["seismic"] = SeismicLoad(**{k: v for k, v in seismic.items() if v is not None
                                            and k in {f.name for f in fields(SeismicLoad)}})
         if water and water.get("level_ft") is not None:
-            kw["water"] = WaterTable(float(water["level_ft"]))
+            sat = water.get("saturated_unit_weight_pcf")
+            kw["water"] = WaterTable(float(water["level_ft"]),
+                                     None if sat is None else float(sat))
         return cls(**kw)
+
+    @property
+    def stem_plane(self) -> bool:
+        """The thrust acts on the vertical plane through the stem's back face at its base
+        (Coulomb with the report's wall friction): the soil over the heel is retained soil."""
+        return self.active_method == "coulomb" and self.coulomb_plane == "stem"
 
     @property
     def extended(self) -> bool:
@@ -489,9 +512,11 @@ def retained_soil_polygons(geom: SectionGeometry, inputs: DesignInputs, top_y=No
 
 
 def _polygon_soil_weights(geom, inputs):
-    """Soil over the heel and over a battered back face from the polygon, less the buoyancy
-    below the water level; and the uplift on the base (triangular, full head at the heel edge
-    to zero at the toe edge, no water in front)."""
+    """Soil over the heel and over a battered back face from the polygon at its total unit
+    weight (``saturated_unit_weight_pcf`` below the water level when given); and the uplift on
+    the base (triangular, full head at the heel edge to zero at the toe edge, no water in
+    front). One free body (DESIGN.md section 7): total weights with the full uplift, never a
+    buoyant weight as well, which would count the water twice."""
     from .pressure import WATER_PCF, water_height_ft
 
     gs = inputs.unit_weight_pcf
@@ -506,8 +531,9 @@ def _polygon_soil_weights(geom, inputs):
         sh, sb = retained_soil_polygons(geom, inputs, top_y=hw)
         a1, x1, _ = polygon_area_centroid(*sh)
         a2, x2, _ = polygon_area_centroid(*sb)
-        wh, mh = wh - WATER_PCF * a1, mh - WATER_PCF * a1 * x1
-        wb, mb = wb - WATER_PCF * a2, mb - WATER_PCF * a2 * x2
+        extra = inputs.gamma_below_water_pcf - gs  # saturated less moist, below the level
+        wh, mh = wh + extra * a1, mh + extra * a1 * x1
+        wb, mb = wb + extra * a2, mb + extra * a2 * x2
         uplift = Weight(-WATER_PCF * hw * B / 2.0, 2.0 * B / 3.0 + 0.0 * hw)
     with np.errstate(divide="ignore", invalid="ignore"):
         heel_w = Weight(wh, np.where(wh != 0, mh / np.where(wh != 0, wh, 1.0), 0.0))
@@ -527,8 +553,9 @@ def section_weights(geom: SectionGeometry, inputs: DesignInputs) -> Weights:
     (0 if the front grade is lower).
 
     With a backslope or a water level the soil over the heel and the battered face is the
-    polygon of :func:`retained_soil_polygons` (buoyant below the water), and the base carries
-    the uplift (a negative dead weight, see :func:`_polygon_soil_weights`).
+    polygon of :func:`retained_soil_polygons` (total weights, saturated below the water when
+    given), and the base carries the uplift (a negative dead weight, see
+    :func:`_polygon_soil_weights`).
     """
     g, gc, gs = geom, inputs.concrete_unit_weight_pcf, inputs.unit_weight_pcf
     T = g.footing_thickness_ft
@@ -552,6 +579,7 @@ def section_weights(geom: SectionGeometry, inputs: DesignInputs) -> Weights:
         tri_x = toe + 2.0 * bat / 3.0
         w_top = np.zeros_like(bat)
     soil_toe_w = gs * toe * g.toe_soil_depth_ft * (1.0 if inputs.count_toe_soil else 0.0)
+    on_heel = 0.0 if inputs.stem_plane else 1.0  # retained soil with the stem plane
     q = inputs.surcharge_psf
     if inputs.backslope_deg or inputs.water is not None:
         soil_heel, soil_batter, uplift = _polygon_soil_weights(g, inputs)
@@ -565,9 +593,9 @@ def section_weights(geom: SectionGeometry, inputs: DesignInputs) -> Weights:
         footing=Weight(gc * B * T, B / 2.0),
         key=Weight(np.where(g.has_key, gc * g.key_width_in * g.key_depth_in / 144.0, 0.0),
                    g.key_offset_ft + g.key_width_in / 24.0),
-        soil_heel=soil_heel,
+        soil_heel=Weight(soil_heel.lb * on_heel, soil_heel.arm_ft),
         soil_batter=soil_batter,
         soil_toe=Weight(soil_toe_w, toe / 2.0),
-        surcharge=Weight(q * g.heel_ft, B - g.heel_ft / 2.0),
+        surcharge=Weight(q * g.heel_ft * on_heel, B - g.heel_ft / 2.0),
         uplift=uplift,
     )

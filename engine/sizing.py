@@ -2,7 +2,7 @@
 
 The grid (``[sizing]``, common-practice increments): toe and heel in 3-in steps, footing
 thickness in 1-in steps from 12 in, stem at least 8 in in 1-in steps (optionally battered on
-the back face, top at the minimum), bars #4-#9 at 6 to 18 in for the stem, heel and toe. The
+the back face, top at the minimum), bars #4-#11 at 6 to 18 in for the stem, heel and toe. The
 stem horizontal bars and the footing longitudinal bars follow from the geometry (the least
 area and widest spacing ACI 318-19 allows, in #4 or #5).
 
@@ -130,7 +130,7 @@ class SizingGrid:
                                 float(t.get("stem_step_in", 1.0))),
             stem_top_min_in=smin,
             stem_batter=bool(t.get("stem_batter", False)),
-            bar_sizes=parse_sizes(t.get("bar_sizes", "4-9")),
+            bar_sizes=parse_sizes(t.get("bar_sizes", "4-11")),
             bar_spacings_in=np.array(sorted(set(float(x) for x in t.get(
                 "bar_spacings_in", STANDARD_SPACINGS_IN)))),
             marks_max=int(t.get("marks_max", 6)),
@@ -458,7 +458,8 @@ class StabilityScreen:
         # height plus the least embedment reaches the level), the fitting heights included
         self.h_min = (-math.inf if inputs.water is None
                       else float(inputs.water.level_ft) - float(np.min(self.e_vals)))
-        self.linear = bool(lin and same and hs[0] >= self.h_min)
+        # (the screen puts a vertical thrust at the heel edge: not with the stem plane)
+        self.linear = bool(lin and same and hs[0] >= self.h_min and not inputs.stem_plane)
         self._probe, self._valid = probe, {}
         # failures that hold at every greater height can be certified only where the thrust
         # is the level-backfill one (no vertical part, convex in the height)

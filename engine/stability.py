@@ -25,6 +25,7 @@ from .pressure import (
     passive_resistance_lb,
     seismic_increment_lb,
     seismic_thrust,
+    thrust_plane_x_ft,
 )
 from .section import DesignInputs, SectionGeometry, Weights, section_weights
 
@@ -161,7 +162,7 @@ def stability(geom: SectionGeometry, inputs: DesignInputs, *,
     # vertical component of the thrust (0 for level backfill) acts on the heel plane, x = B
     v_th = th.vertical_lb
     v_dead = v_dead + v_th
-    m_dead = m_dead + v_th * B
+    m_dead = m_dead + v_th * thrust_plane_x_ft(geom, inputs)
     m_o = th.moment_lbft
     if inputs.surcharge_resists:
         v_r, m_r = v_dead + v_q, m_dead + m_q
@@ -223,7 +224,7 @@ def seismic_stability(geom: SectionGeometry, inputs: DesignInputs, pressure: Ear
     B = geom.footing_width_ft
     v, m = weights.dead()
     v = v + th.vertical_lb
-    m = m + th.vertical_lb * B
+    m = m + th.vertical_lb * thrust_plane_x_ft(geom, inputs)
     m_o = th.moment_lbft
     h_d = th.horizontal_lb
     with np.errstate(divide="ignore", invalid="ignore"):

@@ -489,13 +489,15 @@ def factored_pressure_line(geom, inputs, weights, thrust, f_d, f_h, f_l, extra=N
     triangle rule (DESIGN.md section 7). ``extra`` = (V, M_resisting, M_overturning) added
     (the seismic combination's inertia and increment).
     """
+    from .pressure import thrust_plane_x_ft
     from .stability import bearing_pressure
 
     B = geom.footing_width_ft
+    xv = thrust_plane_x_ft(geom, inputs)  # where the vertical component acts
     vd, md = weights.dead()
     (hh, mh, vh), (hl, ml, vl) = _split_thrust(thrust)
     v = f_d * vd + f_h * vh + f_l * (weights.surcharge.lb + vl)
-    mr = f_d * md + (f_h * vh + f_l * vl) * B + f_l * weights.surcharge.moment_lbft
+    mr = f_d * md + (f_h * vh + f_l * vl) * xv + f_l * weights.surcharge.moment_lbft
     mo = f_h * mh + f_l * ml
     if extra is not None:
         v, mr, mo = v + extra[0], mr + extra[1], mo + extra[2]
@@ -522,11 +524,20 @@ def heel_down_loads(geom: SectionGeometry, inputs: DesignInputs, thrust):
         d1 = np.maximum(virtual_back_height_ft(geom, inputs) - T, 0.0)
         fd = g * (d0 + d1) * L / 2.0 + gc * T * L
         md = g * (d0 * L * L / 2.0 + (d1 - d0) * L * L / 3.0) + gc * T * L * L / 2.0
+        if inputs.water is not None:  # saturated below the level (total weight, no buoyancy)
+            from .pressure import water_height_ft
+
+            sub = np.clip(water_height_ft(geom, inputs) - T, 0.0, np.minimum(d0, d1))
+            extra = inputs.gamma_below_water_pcf - g
+            fd = fd + extra * sub * L
+            md = md + extra * sub * L * L / 2.0
     else:
         hs = geom.soil_height_ft
         fd = (g * hs + gc * T) * L
         md = fd * L / 2.0
     (_, _, vh), (_, _, vl) = _split_thrust(thrust)
+    if inputs.stem_plane:  # the vertical component acts on the stem, not on the heel
+        vh, vl = 0.0 * vh, 0.0 * vl
     return {"dead": (fd, md), "live": (q * L, q * L * L / 2.0),
             "pv_h": (vh, vh * L), "pv_l": (vl, vl * L)}
 
@@ -614,9 +625,11 @@ def seismic_combination(geom, inputs, pressure, weights):
 
     th = design_thrust(geom, inputs, pressure, live=False)
     e_h, e_m, e_v, heel_e = seismic_e_components(geom, inputs, pressure, weights)
-    B = geom.footing_width_ft
+    from .pressure import thrust_plane_x_ft
+
+    xv = thrust_plane_x_ft(geom, inputs)
     return (SEISMIC_COMBINATION, LF_DEAD_ADDS, LF_LATERAL, 0.0,
-            {"thrust": th, "base": (e_v, e_v * B, e_m), "heel": heel_e})
+            {"thrust": th, "base": (e_v, e_v * xv, e_m), "heel": heel_e})
 
 
 def pressure_line(case, width_ft):

@@ -37,15 +37,45 @@ def test_hydrostatic_by_hand():
     assert (float(f), float(mm)) == pytest.approx((ka * g * 50, ka * g * 50 * 10 / 3))
 
 
-def test_buoyant_soil_and_uplift_by_hand():
+def test_one_free_body_total_soil_and_uplift_by_hand():
+    # DESIGN.md 7 (water): the soil over the heel at its total unit weight with the full
+    # uplift under it, never a buoyant weight as well (that counts the water twice)
     g = geom(stem_top_in=12.0)  # heel 5.5 ft, T = 1.25 ft, B = 9 ft, hs = 8.75 ft
     dry = section_weights(g, DesignInputs(**PHI30))
     wet = section_weights(g, DesignInputs(**PHI30, water=WaterTable(4.0)))
-    assert float(wet.soil_heel.lb) == pytest.approx(
-        float(dry.soil_heel.lb) - 62.4 * 5.5 * (4.0 - 1.25), rel=1e-12)
+    assert float(wet.soil_heel.lb) == pytest.approx(float(dry.soil_heel.lb), rel=1e-12)
+    # a saturated unit weight below the level: + (135 - 125) x the submerged soil
+    sat = section_weights(g, DesignInputs(**PHI30, water=WaterTable(4.0, 135.0)))
+    assert float(sat.soil_heel.lb) == pytest.approx(
+        float(dry.soil_heel.lb) + 10.0 * 5.5 * (4.0 - 1.25), rel=1e-12)
     # uplift: 62.4 x 4 ft head at the heel edge falling to 0 at the toe: 62.4*4*9/2 at 6 ft
     assert float(wet.uplift.lb) == pytest.approx(-62.4 * 4 * 9 / 2, rel=1e-12)
     assert float(wet.uplift.arm_ft) == pytest.approx(6.0, rel=1e-12)
+
+
+def test_water_counted_once_the_issue_case():
+    # issue 14: an 11 ft section with a 6.5 ft heel and the level 6 ft above the bottom of
+    # footing; the double count was gamma_w x the submerged soil over the heel, 62.4 x 6.5 x
+    # (6 - 1.5) = 1,825 lb per ft (the issue: 10,497 -> 12,322 lb of Sum V)
+    g = geom(retained_height_ft=9.0, embedment_ft=2.0, footing_thickness_in=18.0,
+             stem_top_in=12.0, stem_base_in=12.0, toe_ft=2.0, heel_ft=6.5)
+    inp = DesignInputs(**PHI30, water=WaterTable(6.0))
+    v, _ = section_weights(g, inp).dead()
+    dry_v, _ = section_weights(g, DesignInputs(**PHI30)).dead()
+    uplift = 62.4 * 6.0 * float(g.footing_width_ft) / 2
+    assert float(v) == pytest.approx(float(dry_v) - uplift, rel=1e-12)
+    buoyant_once = float(dry_v) - uplift - 62.4 * 6.5 * (6.0 - 1.5)
+    assert float(v) - buoyant_once == pytest.approx(1825.2, abs=0.05)
+    # the lateral side is effective stress (buoyant below the level) plus the water itself
+    th = design_thrust(g, inp)
+    gb = 125.0 - 62.4
+    ka = 1 / 3
+    soil = ka * (125 * 5 ** 2 / 2 + 125 * 5 * 6 + gb * 6 ** 2 / 2)
+    assert float(th.horizontal_lb) == pytest.approx(soil + 62.4 * 36 / 2, rel=1e-12)
+    # and with a saturated unit weight the effective stress below the level is 135 - 62.4
+    th_sat = design_thrust(g, DesignInputs(**PHI30, water=WaterTable(6.0, 135.0)))
+    soil_sat = ka * (125 * 5 ** 2 / 2 + 125 * 5 * 6 + (135 - 62.4) * 6 ** 2 / 2)
+    assert float(th_sat.horizontal_lb) == pytest.approx(soil_sat + 62.4 * 36 / 2, rel=1e-12)
 
 
 @pytest.mark.parametrize("level", [0.0, -2.0])
@@ -71,7 +101,9 @@ def test_water_lowers_the_factors_of_safety():
 @pytest.mark.parametrize("kw", [dict(water=WaterTable(5.0)),
                                 dict(water=WaterTable(30.0), batter_face="front"),
                                 dict(water=WaterTable(3.0), backslope_deg=15.0,
-                                     surcharge_resists=True)])
+                                     surcharge_resists=True),
+                                dict(water=WaterTable(6.0, 132.0)),
+                                dict(water=WaterTable(4.0, 128.0), backslope_deg=10.0)])
 def test_engine_agrees_with_audit_water(kw):
     assert agree_with_audit(DesignInputs(**{**SOIL, **kw})) == 120
 

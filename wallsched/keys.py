@@ -40,6 +40,10 @@ SOIL_KEYS = {
     "active_method": Key(str, "rankine", choices=("rankine", "coulomb"),
                          doc="active coefficient from friction_angle_deg: Rankine on the "
                              "virtual back, or Coulomb with wall_friction_deg"),
+    "coulomb_plane": Key(str, "heel", choices=("heel", "stem"),
+                         doc="Coulomb: \"heel\" - on the plane through the heel edge, "
+                             "interface friction = backslope; \"stem\" - on the stem's back "
+                             "face with wall_friction_deg, the soil over the heel retained"),
     "wall_friction_deg": Key(float, None, lo=0, hi=45,
                              doc="wall friction angle delta for active_method = \"coulomb\", "
                                  "degrees (from the geotechnical report)"),
@@ -87,6 +91,9 @@ WATER_KEYS = {
     "level_ft": Key(float, REQUIRED, lo=-100, hi=100,
                     doc="water level behind the wall above the bottom of footing, ft (at or "
                         "below 0: drained)"),
+    "saturated_unit_weight_pcf": Key(float, None, lo=63, hi=170,
+                                     doc="total unit weight of the soil below the level, pcf "
+                                         "(default unit_weight_pcf)"),
 }
 
 MATERIALS_KEYS = {
@@ -212,7 +219,7 @@ SIZING_KEYS = {
     "stem_max_in": Key(float, 24.0, lo=6, hi=72, doc="thickest stem base, in"),
     "stem_step_in": Key(float, 1.0, lo=0.5, hi=12, doc="stem increments, in"),
     "stem_batter": Key(bool, False, doc="batter the back face: stem top at stem_min_in"),
-    "bar_sizes": Key(str, "4-9", doc="bar sizes to try, e.g. \"4-9\" (ASTM A615 numbers)"),
+    "bar_sizes": Key(str, "4-11", doc="bar sizes to try, e.g. \"4-11\" (ASTM A615 numbers)"),
     "bar_spacings_in": Key(list, [4.0, 6.0, 8.0, 9.0, 10.0, 12.0, 15.0, 16.0, 18.0], lo=2, hi=48,
                            doc="the bar spacings to use, in (common practice: the spacings a "
                                "detailer uses)"),
