@@ -144,12 +144,16 @@ def _pairs_checked(table, inputs, rates, sections):
                          np.array([getattr(s, name).spacing_in for s in sections],
                                   float)[:, None])
 
+    def hooked(name):  # the anchorage each section's bar list shows (issue 14)
+        return np.array([bool(getattr(s, name)) for s in sections])[:, None]
+
     reinf = Reinforcement(stem=bars("stem_bars"), heel=bars("heel_bars"), toe=bars("toe_bars"),
                           horizontal=bars("horizontal_bars"),
-                          longitudinal=bars("footing_long_bars"))
+                          longitudinal=bars("footing_long_bars"),
+                          heel_hooked=hooked("heel_hooked"), toe_hooked=hooked("toe_hooked"))
     res = check_section(geo, inputs, reinf)
     cost = candidate_cost(geo, inputs, rates, reinf.stem, reinf.heel, reinf.toe,
-                          reinf.horizontal, reinf.longitudinal)
+                          reinf.horizontal, reinf.longitudinal, res)
     return np.where(np.broadcast_to(res.passes, (C, R)), np.broadcast_to(cost, (C, R)), np.inf)
 
 
