@@ -5,7 +5,7 @@ from unittest import mock
 
 import numpy as np
 import pytest
-from hypothesis import given, settings
+from hypothesis import assume, given, settings
 from hypothesis import strategies as st
 from wallsched.engine.checks import check_section
 from wallsched.engine.column_search import ColumnSearch
@@ -168,7 +168,9 @@ def test_column_search_equals_the_whole_grid_search(soil, resists, width, model,
     assert len(answered) == 11 and all(answered)  # the column search held every height
     with mock.patch.object(ColumnSearch, "applies", return_value=False):
         whole = design_table(inputs, grid, CostRates(), **args)
-    assert sum(c.section is not None for c in whole.choices) >= 2
+    # a draw where nothing much is designable (a low friction coefficient with a narrow
+    # footing limit, as hypothesis finds) compares nothing: draw again rather than fail
+    assume(sum(c.section is not None for c in whole.choices) >= 2)
     for a, b in zip(fast.choices, whole.choices, strict=True):
         assert (a.section is None) == (b.section is None)
         if b.section is not None:

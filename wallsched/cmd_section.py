@@ -75,8 +75,13 @@ def _extended_conventions(p, i) -> list[str]:
     lines = [
         f"active pressure: {p.basis}; Ka = {p.ka:.4f}, EFP {p.active_efp_pcf:.1f} pcf acting "
         f"{p.inclination_deg:.4g} deg above the horizontal (horizontal part "
-        f"{p.horizontal_efp_pcf:.1f} pcf) on the virtual back: the vertical plane through the "
-        "heel edge, from the bottom of footing to the ground at the heel edge (H')",
+        f"{p.horizontal_efp_pcf:.1f} pcf) "
+        + ("on the vertical plane through the stem's back face at its base, from the bottom "
+           "of footing to the ground there (coulomb_plane = \"stem\": the soil and surcharge "
+           "over the heel are retained, not resisting; the vertical component acts at the "
+           "back face)" if i.stem_plane else
+           "on the virtual back: the vertical plane through the heel edge, from the bottom of "
+           "footing to the ground at the heel edge (H')"),
     ]
     if beta > 0:
         lines.append(f"backslope {beta:.4g} deg rising from where the retained grade meets "
@@ -88,15 +93,20 @@ def _extended_conventions(p, i) -> list[str]:
                  f"ground, as extra soil height: K*q = {p.surcharge_lateral_psf:.1f} psf over "
                  "H' in the direction of the thrust")
     lines.append("stem: the pressure on the stem itself, K*gamma*z (horizontal part) from the "
-                 "retained grade at the stem, plus K*q, water and strip loads; heel: 1.2 x "
-                 "soil polygon (full unit weight) and footing, 1.6 x surcharge and the "
-                 "thrust's vertical component at the heel edge")
+                 "retained grade at the stem, plus K*q, water and strip loads; heel: the "
+                 "soil polygon (total unit weight) and footing, the surcharge and the "
+                 "thrust's vertical component at the heel edge, by the combination's factors"
+                 + (", less its factored bearing pressure under the heel"
+                    if i.heel_upward_pressure else " (1.2 D, 1.6 L and H, no upward pressure)"))
     if i.water is not None:
         lines.append(f"water level {i.water.level_ft:g} ft above the bottom of footing (at "
-                     "most the retained grade): hydrostatic 62.4 pcf below it, buoyant soil "
-                     "(gamma - 62.4) below it in the pressure and the soil weight, uplift on "
-                     "the base from the full head at the heel edge to zero at the toe edge (no "
-                     "water in front)")
+                     "most the retained grade), one free body: the soil over the heel at its "
+                     f"total unit weight ({i.gamma_below_water_pcf:g} pcf below the level), "
+                     "the earth pressure from effective stress (buoyant below the level), "
+                     "hydrostatic 62.4 pcf below it, the uplift on the base from the full head "
+                     "at the heel edge to zero at the toe edge (no water in front); heel: the "
+                     "water pressure on its underside neglected (conservative); toe: 1.6 x the "
+                     "uplift under it added to the bearing pressure (conservative)")
     else:
         lines.append("backfill drained (no water pressure, no uplift)")
     for n, (off, width, q) in enumerate(i.strip, 1):
@@ -111,11 +121,14 @@ def _extended_conventions(p, i) -> list[str]:
                "vertical wall and no wall friction)" if sz.method == "seed-whitman" else
                "Mononobe-Okabe (KAE - Ka) gamma H'^2/2, kv = 0, along the static thrust")
         lines.append(f"seismic kh = {sz.kh:g}: increment {inc} at 0.6 H', plus kh x the weight "
-                     f"of stem, footing and key at their centroids, both x {sz.load_factor:g} "
+                     "of stem, footing and key"
+                     + (" and of the soil over the heel (it moves with the wall)"
+                        if sz.soil_inertia and not i.stem_plane else "")
+                     + f" at their centroids, both x {sz.load_factor:g} "
                      "(IBC 2021 1807.2.3); live surcharge and strip loads left out; required "
                      f"FS {sz.fs_overturning:g} overturning, {sz.fs_sliding:g} sliding; bearing "
                      "against the same allowable; stem also for 1.6 H + 1.0 E; heel and toe "
-                     "for the static cases only")
+                     "also for 1.2D + 1.0E + 1.6H with its own factored bearing pressure")
     return lines
 
 
