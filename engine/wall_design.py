@@ -343,7 +343,9 @@ def _checked_first(wall: WallToDesign, table: DesignTable, pieces) -> list:
             freeboard_ft=np.concatenate([cases[q][4] for q in group]))
         reinf = Reinforcement(stem=bars("stem_bars"), heel=bars("heel_bars"),
                               toe=bars("toe_bars"), horizontal=bars("horizontal_bars"),
-                              longitudinal=bars("footing_long_bars"))
+                              longitudinal=bars("footing_long_bars"),
+                              heel_hooked=per_station("heel_hooked") > 0.5,
+                              toe_hooked=per_station("toe_hooked") > 0.5)
         res = check_section(geo, wall.inputs, reinf)
         at = 0
         for q, size in zip(group, sizes, strict=True):
