@@ -108,3 +108,15 @@ def test_sigterm_while_workers_run_stops_cleanly(monkeypatch, capfd):
             signal.signal(s, h)
     # the workers were ended by the pool and said nothing: no traceback from a worker
     assert "Traceback" not in capfd.readouterr().err
+
+
+def _die() -> None:
+    os._exit(3)  # a worker killed (say, by the kernel for memory)
+
+
+def test_a_worker_that_dies_is_an_error_not_a_wait(monkeypatch):
+    from concurrent.futures.process import BrokenProcessPool
+
+    monkeypatch.setenv(WORKERS_ENV, "2")
+    with pytest.raises(BrokenProcessPool):
+        run_tasks([Task("x", _nap), Task("y", _die)])

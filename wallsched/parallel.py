@@ -53,30 +53,35 @@ def worker_count(n_tasks: int) -> int:
 
 def _worker_start() -> None:
     """A worker leaves the run's clean-up to the parent: the default action for SIGTERM and
-    SIGHUP (the pool ends its workers with SIGTERM; the parent's handlers would unwind a stack
-    that is not the worker's), and Ctrl-C goes to the parent alone. The worker is forked with
-    these signals blocked (:func:`_pool`), so that one arriving before this runs waits for it."""
+    SIGHUP (the parent's handlers would unwind a stack that is not the worker's), Ctrl-C to
+    the parent alone, and on Linux the worker ends with its parent (a parent killed outright
+    leaves no worker writing on). The worker is forked with these signals blocked
+    (:func:`fork_imap`), so that one arriving before this runs waits for it."""
     for name in ("SIGTERM", "SIGHUP"):
         if hasattr(signal, name):
             signal.signal(getattr(signal, name), signal.SIG_DFL)
     signal.signal(signal.SIGINT, signal.SIG_IGN)
+    _end_with_parent()
     signal.pthread_sigmask(signal.SIG_UNBLOCK, _STOPPING)
 
 
-_STOPPING = {getattr(signal, n) for n in ("SIGTERM", "SIGHUP", "SIGINT") if hasattr(signal, n)}
+def _end_with_parent() -> None:
+    import ctypes
+    import sys
 
-
-def _pool(workers: int):
-    """A pool of forked workers, created with the stopping signals blocked (the workers and
-    the pool's threads inherit the mask; each worker unblocks them once its handlers are
-    set); the caller unblocks them in this process with :func:`_unblock`."""
-    old = signal.pthread_sigmask(signal.SIG_BLOCK, _STOPPING)
+    if not sys.platform.startswith("linux"):
+        return
     try:
-        pool = mp.get_context("fork").Pool(workers, initializer=_worker_start)
-    except BaseException:
-        signal.pthread_sigmask(signal.SIG_SETMASK, old)
-        raise
-    return pool, old
+        libc = ctypes.CDLL(None, use_errno=True)
+        libc.prctl(1, int(signal.SIGKILL), 0, 0, 0)  # PR_SET_PDEATHSIG (prctl(2))
+    except (OSError, AttributeError):
+        return
+    if os.getppid() != _PARENT:  # the parent was gone before the request took hold
+        os._exit(1)
+
+
+_PARENT = os.getpid()  # the process that forks the workers (set again by fork_imap)
+_STOPPING = {getattr(signal, n) for n in ("SIGTERM", "SIGHUP", "SIGINT") if hasattr(signal, n)}
 
 
 def _call(k: int):
@@ -84,11 +89,20 @@ def _call(k: int):
     return fn(items[k])
 
 
+def _stop(executor) -> None:
+    """End the workers now (a stop, an error): nothing more is written by them."""
+    for proc in list(getattr(executor, "_processes", {}).values()):
+        proc.terminate()
+    executor.shutdown(wait=True, cancel_futures=True)
+
+
 def fork_imap(fn: Callable, items: Sequence, *, workers: int | None = None) -> Iterator:
     """``fn(x) for x in items``, yielded in the order of ``items`` as they are done, from
     forked worker processes where there is more than one worker. ``fn`` and ``items`` are
-    inherited by the workers (never pickled); the results come back pickled."""
-    global _JOB
+    inherited by the workers (never pickled); the results come back pickled. A worker that
+    dies makes this raise (``BrokenProcessPool``), never wait for ever."""
+    global _JOB, _PARENT
+    from concurrent.futures import ProcessPoolExecutor
 
     n = len(items)
     workers = worker_count(n) if workers is None else max(1, min(workers, n))
@@ -96,12 +110,24 @@ def fork_imap(fn: Callable, items: Sequence, *, workers: int | None = None) -> I
         for x in items:
             yield fn(x)
         return
-    _JOB = (fn, items)
+    _JOB, _PARENT = (fn, items), os.getpid()
+    executor = None
     try:
-        pool, mask = _pool(workers)
-        with pool:
-            signal.pthread_sigmask(signal.SIG_SETMASK, mask)  # a pending stop arrives here
-            yield from pool.imap(_call, range(n))
+        # the workers (forked as the tasks are handed out) and the executor's thread start
+        # with the stopping signals blocked; a stop in that moment arrives after it
+        old = signal.pthread_sigmask(signal.SIG_BLOCK, _STOPPING)
+        try:
+            executor = ProcessPoolExecutor(workers, mp_context=mp.get_context("fork"),
+                                           initializer=_worker_start)
+            results = executor.map(_call, range(n))
+        finally:
+            signal.pthread_sigmask(signal.SIG_SETMASK, old)
+        yield from results
+        executor.shutdown(wait=True)
+    except BaseException:
+        if executor is not None:
+            _stop(executor)
+        raise
     finally:
         _JOB = ()
 
