@@ -73,11 +73,19 @@ def _design(runner, site, out, *extra):
                                 *extra])
 
 
+def _long_site(tmp_path, extra):
+    # an invented 3,000 ft wall: the recursion runs over segment ends 2 ft apart, so only a
+    # long wall whose segments may be very long needs much memory
+    return make_site(tmp_path, extra=extra, xy=((0.0, 0.0), (3000.0, 0.0)),
+                     top=((0, 100.0), (1500, 106.0), (3000, 103.0)),
+                     bottom=((0, 99.0), (3000, 99.5)))
+
+
 @pytest.mark.parametrize("criteria, fragment", [
-    ("station_interval_ft = 0.1", "planning its segments would need about"),
+    ("station_interval_ft = 1.0\nsegment_max_ft = 1000", "planning its segments would need"),
 ])
 def test_a_fine_interval_is_refused_before_allocating(runner, tmp_path, criteria, fragment):
-    site = _site(tmp_path, extra=SMALL_GRID + f"\n[criteria]\n{criteria}\n")
+    site = _long_site(tmp_path, SMALL_GRID + f"\n[criteria]\n{criteria}\n")
     line = _one_line(_design(runner, site, tmp_path / "out"), fragment,
                      "memory_budget_gb = 2", "station_interval_ft", "site.toml")
     assert "walls[1]" in line
@@ -103,12 +111,12 @@ stem_step_in = 0.5
 
 
 def test_a_larger_budget_lets_the_same_site_run(runner, tmp_path):
-    # 0.5-ft stations: about 0.9 GB estimated (lowerings counted at their most); refused
-    # under a 0.5 GB budget, run under the default
-    extra = SMALL_GRID + "\n[criteria]\nstation_interval_ft = 0.5\n"
-    site = _site(tmp_path, extra=extra.replace("[sizing]", "[sizing]\nmemory_budget_gb = 0.5"))
-    _one_line(_design(runner, site, tmp_path / "out"), "memory_budget_gb = 0.5")
-    site.write_text(site.read_text().replace("memory_budget_gb = 0.5\n", ""))
+    # 1-ft stations, segments up to 400 ft: well under 1 GB estimated (lowerings counted at
+    # their most); refused under a 0.2 GB budget, run under the default
+    extra = SMALL_GRID + "\n[criteria]\nstation_interval_ft = 1.0\nsegment_max_ft = 400\n"
+    site = _long_site(tmp_path, extra.replace("[sizing]", "[sizing]\nmemory_budget_gb = 0.2"))
+    _one_line(_design(runner, site, tmp_path / "out"), "memory_budget_gb = 0.2")
+    site.write_text(site.read_text().replace("memory_budget_gb = 0.2\n", ""))
     res = _design(runner, site, tmp_path / "out")
     assert res.exit_code == 0, res.output
 
@@ -277,3 +285,12 @@ def test_groups_planned_side_by_side_add_up(monkeypatch):
         2 * segmenting_bytes([(1000, 50, 5)] * 2))
     monkeypatch.setenv("WALLSCHED_WORKERS", "1")  # one process, one batch
     assert parallel_segmenting_bytes(walls) == pytest.approx(segmenting_bytes(walls))
+
+
+def test_a_fine_interval_on_a_short_wall_runs(runner, tmp_path):
+    # 0.1-ft stations on the 100 ft wall: the segments end only at stations 2 ft apart
+    # (engine.segments.BOUNDARY_GRID_FT), so the recursion stays small and the run completes
+    site = _site(tmp_path, extra=SMALL_GRID + "\n[criteria]\nstation_interval_ft = 0.1\n")
+    res = _design(runner, site, tmp_path / "out")
+    assert res.exit_code == 0, res.output
+    assert (tmp_path / "out" / "schedule.csv").is_file()

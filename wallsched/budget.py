@@ -22,7 +22,7 @@ from __future__ import annotations
 
 import numpy as np
 
-from .engine.segments import BATCH_STATIONS, LOWERINGS_STEEP
+from .engine.segments import BATCH_STATIONS, LOWERINGS_STEEP, boundary_stations
 from .errors import InputError
 
 BYTES_PER_GEOMETRY = 80  # measured (see above), rounded up
@@ -111,8 +111,12 @@ def check_budget(site, walls) -> float:
     worst = None
     for spec, ws in zip(site.walls, walls, strict=True):
         c = spec.criteria
-        k1, block = span_and_block(ws.station_ft, c["segment_min_ft"], c["segment_max_ft"])
-        shapes.append((len(ws), k1, block))
+        # the recursion runs over the candidate segment ends (engine.segments: stations at
+        # least BOUNDARY_GRID_FT apart), not over every station
+        ends = np.asarray(ws.station_ft, float)
+        ends = ends[boundary_stations(ends)] if ends.size else ends
+        k1, block = span_and_block(ends, c["segment_min_ft"], c["segment_max_ft"])
+        shapes.append((int(ends.size), k1, block))
         one = segmenting_bytes([shapes[-1]])
         if worst is None or one > worst[0]:
             worst = (one, spec, k1, len(ws))

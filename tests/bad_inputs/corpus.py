@@ -408,10 +408,20 @@ def gis_grade(z: float, *, to_crs: str | None = None):
     return build
 
 
+def long_wall(folder: Path, criteria: str = "station_interval_ft = 1.0") -> Path:
+    """A 3,000 ft wall whose segments may be 1,000 ft long: the segments' recursion (over
+    ends 2 ft apart) would need more than the 2 GB budget."""
+    path = make_site(folder, extra=SMALL_GRID + f"\n[criteria]\n{criteria}\n"
+                     "segment_max_ft = 1000\n", xy=((0.0, 0.0), (3000.0, 0.0)),
+                     top=((0, 100.0), (1500, 106.0), (3000, 103.0)),
+                     bottom=((0, 99.0), (3000, 99.5)))
+    return path
+
+
 def dense_points(folder: Path) -> Path:
-    """5,001 grade points 0.02 ft apart: a segment may span thousands of stations."""
-    path = site(folder)
-    rows = "".join(f"{k * 0.02:.2f},{104.0 + 0.01 * (k % 2):.2f}\n" for k in range(5001))
+    """The long wall with grade points 0.5 ft apart: a segment may span 500 ends."""
+    path = long_wall(folder, "station_interval_ft = 5.0")
+    rows = "".join(f"{k * 0.5:.1f},{104.0 + 0.01 * (k % 2):.2f}\n" for k in range(6001))
     (folder / "top.csv").write_text("station,elevation\n" + rows)
     return path
 
@@ -549,7 +559,7 @@ HOSTILE: list[Case] = [
 
 # refused by ``design`` before it allocates (``stations`` samples them fine)
 DESIGN_ONLY: list[Case] = [
-    Case("budget_fine_interval", table("[criteria]\nstation_interval_ft = 0.1"),
+    Case("budget_fine_interval", long_wall,
          "planning its segments would need about", ST, "walls[1]"),
     Case("budget_dense_points", dense_points, "a segment may span", ST, "walls[1]"),
     Case("budget_finest_grid", lambda f: (site(f), (f / ST).write_text(
