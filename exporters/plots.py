@@ -75,7 +75,7 @@ def drawn_texts(fig) -> list:
 
     Text.draw = recording
     try:
-        fig.canvas.draw()
+        fig.draw_without_rendering()  # the layout and every text's extent, no pixels
     finally:
         Text.draw = draw
     return seen
