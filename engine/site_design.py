@@ -96,15 +96,23 @@ def assign_marks(walls: list[WallDesign], previous: PreviousRun | None = None
 
 
 def _keep_segment_ids(wall: str, segs, previous: PreviousRun):
-    old = {(round(a, 3), round(b, 3), m): sid for w, sid, a, b, m in previous.segments
-           if w == wall}
+    # the earlier run's stations as its tables wrote them (to 1e-4 ft): matched within 1e-3
+    old = [(a, b, m, sid) for w, sid, a, b, m in previous.segments if w == wall]
+
+    def earlier(s):
+        for a, b, m, sid in old:
+            if (m == s.mark and abs(a - s.station_start_ft) < 1e-3
+                    and abs(b - s.station_end_ft) < 1e-3):
+                return sid
+        return None
+
     used = {sid for w, sid, _, _, _ in previous.segments if w == wall}
     nums = [int(sid.rsplit("-", 1)[1]) for sid in used
             if "-" in sid and sid.rsplit("-", 1)[1].isdigit()]
     nxt = max(nums, default=0) + 1
     out, mine = [], set()
     for s in segs:
-        sid = old.get((round(s.station_start_ft, 3), round(s.station_end_ft, 3), s.mark))
+        sid = earlier(s)
         if sid is None or sid in mine:
             while f"{wall}-{nxt:02d}" in used:
                 nxt += 1

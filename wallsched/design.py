@@ -35,6 +35,30 @@ SECTION_COLUMNS = ("stem_top_in", "stem_base_in", "footing_thickness_in", "toe_f
 BAR_COLUMNS = ("stem_bars", "heel_bars", "toe_bars", "horizontal_bars", "footing_long_bars")
 
 
+def _hooked_footing_bars(path: Path) -> dict:
+    """(wall, segment) -> (heel bars hooked, toe bars hooked), read from an earlier run's
+    placing list (``rebar.csv``: marks F1 heel and F2 toe, shape other than straight), so that
+    a kept section is the same section, anchorage included; empty without the file."""
+    import pandas as pd
+
+    try:
+        bars = pd.read_csv(path, dtype={"wall": str, "segment": str, "mark": str,
+                                        "shape": str})
+    except (OSError, ValueError, pd.errors.ParserError):
+        return {}
+    if not {"wall", "segment", "mark", "shape"} <= set(bars.columns):
+        return {}
+    out: dict = {}
+    for r in bars.itertuples(index=False):
+        if r.mark not in ("F1", "F2"):
+            continue
+        heel, toe = out.get((r.wall, r.segment), (False, False))
+        bent = str(r.shape).strip().upper() not in ("STR", "")
+        out[(r.wall, r.segment)] = (heel or (r.mark == "F1" and bent),
+                                    toe or (r.mark == "F2" and bent))
+    return out
+
+
 def previous_run(folder: Path) -> PreviousRun | None:
     """The section marks and segments of an earlier run folder (its ``schedule.csv``), for a
     revision that keeps them; None for a run without marks."""
@@ -55,6 +79,7 @@ def previous_run(folder: Path) -> PreviousRun | None:
             *BAR_COLUMNS}
     if not need <= set(frame.columns):
         return None
+    hooked = _hooked_footing_bars(folder / "rebar.csv")
     marks: dict = {}
     segments = []
     for r in frame.itertuples(index=False):
@@ -67,7 +92,9 @@ def previous_run(folder: Path) -> PreviousRun | None:
             continue  # a segment without a section (failing): nothing to keep
         if not all(math.isfinite(v) for v in dims.values()):
             continue
-        sec = SectionDims(**dims, footing_long_bars=bars.pop("footing_long_bars"), **bars)
+        heel_h, toe_h = hooked.get((str(r.wall), str(r.segment)), (False, False))
+        sec = SectionDims(**dims, footing_long_bars=bars.pop("footing_long_bars"), **bars,
+                          heel_hooked=heel_h, toe_hooked=toe_h)
         marks.setdefault(r.mark, sec)
         segments.append((str(r.wall), str(r.segment), float(r.station_start_ft),
                          float(r.station_end_ft), r.mark))
