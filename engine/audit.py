@@ -180,7 +180,7 @@ def _strip_breaks(strips, top):
     return [z for z in out if 0 < z < top]
 
 
-WATER = 62.4
+WATER = 62.4  # pcf, unit weight of fresh water (common practice)
 
 
 def _whitney_strength(As, d, fc, fy, b=12.0):
@@ -403,9 +403,11 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
     def heel_plane(live):
         """(horizontal force, moment about the base, vertical force) on the heel plane."""
         def p_soil(y):
+            # effective vertical stress: total weights, less the pore pressure below the level
+            # (Terzaghi's effective stress; DESIGN.md section 7 "Water"), times Ka
             return ka * (gam * (Hp - y) + (g_sat - gam - WATER) * max(hw - y, 0.0))
 
-        brk = [hw]
+        brk = [hw]  # integrate from the base (y = 0) to the top of the plane (y = Hp)
         f = _simpson(p_soil, 0.0, Hp, brk)
         m = _simpson(lambda y: p_soil(y) * y, 0.0, Hp, brk)
         fw = _simpson(lambda y: WATER * max(hw - y, 0.0), 0.0, Hp, brk)
@@ -537,6 +539,7 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
 
         def p(z):
             y = H - z
+            # effective stress (Terzaghi; DESIGN.md section 7 "Water") plus the water pressure
             sv = gam * z + (g_sat - gam - WATER) * max(hw - y, 0.0)
             out = ka * ci * sv + WATER * max(hw - y, 0.0)
             if live:
