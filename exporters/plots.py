@@ -25,6 +25,7 @@ FIGSIZE_IN = (11.0, 6.5)
 FOOTER_PT = 5.5
 OPTIONAL = "wallsched-optional"
 GAP_PX = 1.0  # clear gap kept between two texts
+_DRAWN = "_wallsched_drawn"  # set by finish: the figure's pixels are final
 
 
 def new_figure(*, nrows: int = 1, figsize=FIGSIZE_IN, sharex=True, **kw):
@@ -44,6 +45,7 @@ def optional_text(ax, x, y, text, *, priority: int = 0, **kw):
     arguments: ``xytext`` and ``textcoords`` offset it from the point)."""
     t = ax.annotate(text, (x, y), **kw)
     t.set_gid(f"{OPTIONAL}:{priority}")
+    t.set_in_layout(False)  # placed inside the axes; the layout makes room for fixed texts only
     return t
 
 
@@ -60,9 +62,9 @@ def _footer(fig) -> float:
     return y + 0.005
 
 
-def drawn_texts(fig) -> list:
+def drawn_texts(fig, *, render: bool = False) -> list:
     """``(text, window extent)`` of every text ``fig`` draws (empty ones left out), read
-    while the figure draws itself."""
+    while the figure draws itself (with ``render``, into its pixels; else no pixels)."""
     from matplotlib.text import Text
 
     seen = []
@@ -75,7 +77,10 @@ def drawn_texts(fig) -> list:
 
     Text.draw = recording
     try:
-        fig.draw_without_rendering()  # the layout and every text's extent, no pixels
+        if render:
+            fig.canvas.draw()
+        else:
+            fig.draw_without_rendering()  # the layout and every text's extent, no pixels
     finally:
         Text.draw = draw
     return seen
@@ -110,14 +115,18 @@ class _Boxes:
 
 def finish(fig) -> None:
     """The footer with the cautions, the layout, and the optional texts placed clear of every
-    other text (see the module docstring)."""
+    other text (see the module docstring).
+
+    The figure is drawn once, into its pixels, with the optional texts hidden (reading every
+    fixed text's extent as it draws); the optional texts that fit are then drawn over those
+    pixels, which :func:`save` writes as they are."""
     foot = _footer(fig)
     fig.tight_layout(rect=(0, foot, 1, 1))
     optional = [t for t in fig.findobj(lambda a: str(a.get_gid() or "").startswith(OPTIONAL))]
     for t in optional:
         t.set_visible(False)
     boxes = _Boxes()
-    for _, b in drawn_texts(fig):
+    for _, b in drawn_texts(fig, render=True):
         boxes.add(b)
     renderer = fig.canvas.get_renderer()
     order = sorted(range(len(optional)),
@@ -131,17 +140,27 @@ def finish(fig) -> None:
                   and b.y1 <= fig_box.y1)
         if inside and boxes.clear(b):
             boxes.add(b)
+            t.draw(renderer)
         else:
             t.remove()
+    fig.stale = False
+    setattr(fig, _DRAWN, True)
 
 
 def save(fig, path) -> Path:
-    """Save ``fig`` to ``path`` (PNG) and close it."""
+    """Save ``fig`` to ``path`` (PNG) and close it: the pixels :func:`finish` drew, or a
+    fresh draw of a figure it did not finish."""
     import matplotlib.pyplot as plt
+    from matplotlib.image import imsave
 
     path = Path(path)
     try:
-        fig.savefig(path, dpi=DPI, metadata={"Software": None})
+        if getattr(fig, _DRAWN, False) and not fig.stale:
+            # what savefig writes, without drawing the figure again
+            imsave(path, fig.canvas.buffer_rgba(), format="png", origin="upper", dpi=DPI,
+                   metadata={"Software": None})
+        else:
+            fig.savefig(path, dpi=DPI, metadata={"Software": None})
     finally:
         plt.close(fig)
     return path
