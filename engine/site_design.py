@@ -156,29 +156,33 @@ def needed_height_ft(ws: StationSeries, c) -> float:
     return float(min(max(span, 0.0) + margin, c["max_retained_height_ft"] + 2.0))
 
 
-def design_tables(walls: Sequence[WallToDesign], grid: SizingGrid,
-                  rates: CostRates) -> tuple[dict[str, tuple], dict[tuple, DesignTable]]:
+def design_tables(walls: Sequence[WallToDesign], grid: SizingGrid, rates: CostRates, *,
+                  map_fn=None) -> tuple[dict[str, tuple], dict[tuple, DesignTable]]:
     """One design table per distinct set of inputs and criteria, tall enough for every wall
-    that shares it: (wall id -> table key, table key -> table)."""
-    keys, need = {}, {}
+    that shares it: (wall id -> table key, table key -> table); ``map_fn(fn, items)`` (e.g.
+    the hub's process pool) yields ``fn(item)`` for every item in order."""
+    keys, need, first = {}, {}, {}
     for wall in walls:
         c = wall.criteria
         key = _table_key(wall.inputs, c, least_embedment_ft(c), c["freeboard_ft"],
                          c["top_of_wall"])
         keys[wall.wall] = key
         need[key] = max(need.get(key, 0.0), needed_height_ft(wall.stations, c))
-    tables: dict[tuple, DesignTable] = {}
-    for wall in walls:
+        first.setdefault(key, wall)
+
+    def table(key) -> DesignTable:
+        wall = first[key]
         c = wall.criteria
-        key = keys[wall.wall]
-        if key not in tables:
-            tables[key] = design_table(
-                wall.inputs, grid, rates, max_height_ft=need[key],
-                increment_ft=c["design_height_increment_ft"],
-                embedment_ft=least_embedment_ft(c), freeboard_ft=c["freeboard_ft"],
-                footing_cover_ft=c["footing_cover_ft"],
-                footing_width_max_ft=c.get("footing_width_max_ft"))
-    return keys, tables
+        return design_table(
+            wall.inputs, grid, rates, max_height_ft=need[key],
+            increment_ft=c["design_height_increment_ft"],
+            embedment_ft=least_embedment_ft(c), freeboard_ft=c["freeboard_ft"],
+            footing_cover_ft=c["footing_cover_ft"],
+            footing_width_max_ft=c.get("footing_width_max_ft"))
+
+    order = list(first)
+    mapper = map_fn if map_fn is not None and len(order) > 1 else map
+    return keys, dict(zip(order, mapper(table, order), strict=True))
 
 
 def plan_walls(walls: Sequence[WallToDesign], table_of: Mapping[str, DesignTable],
@@ -331,7 +335,7 @@ def design_site(walls: Sequence[WallToDesign], grid: SizingGrid, rates: CostRate
     ``marks_per = "site"`` over every wall first, in this process) and its segments planned
     again with them. With ``previous`` (a revision of an earlier run) its sections, mark
     letters and segment ids are kept where they still serve."""
-    keys, tables = design_tables(walls, grid, rates)
+    keys, tables = design_tables(walls, grid, rates, map_fn=map_fn)
     base = {w.wall: tables[keys[w.wall]] for w in walls}
     site_marks = None
     if grid.marks_per == "site":
