@@ -19,7 +19,7 @@ import numpy as np
 from ..engine.model import natural_key
 from ..profile.stationing import format_station
 from .dxf_elev_view import _bottom_ft, _runs, _tw_ends, label_stations
-from .envelope import envelope
+from .envelope import drafted_line, envelope
 from .file_names import wall_file_stem
 from .plots import finish, legend_outside, new_figure, optional_text, save, station_ticks
 
@@ -51,13 +51,13 @@ def elevation_series(design, vertical_exaggeration: float = 1.0) -> dict[str, li
     def Y(e):
         return lo + (np.asarray(e, dtype=float) - lo) * ve
 
-    out: dict[str, list[np.ndarray]] = {"C-GRAD-FRNT": [np.c_[s, Y(st.front_grade_ft)]],
-                                        "C-GRAD-RETD": [np.c_[s, Y(st.retained_grade_ft)]],
+    out: dict[str, list[np.ndarray]] = {"C-GRAD-FRNT": [drafted_line(s, Y(st.front_grade_ft))],
+                                        "C-GRAD-RETD": [drafted_line(s, Y(st.retained_grade_ft))],
                                         "C-WALL-OTLN": [], "C-WALL-FTNG": []}
     eg = np.asarray(st.existing_ground_ft, dtype=float)
     ok = np.isfinite(eg)
     if ok.sum() >= 2:
-        out["C-GRAD-EXST"] = [np.c_[s[ok], Y(eg[ok])]]
+        out["C-GRAD-EXST"] = [drafted_line(s[ok], Y(eg[ok]))]
     for run in _runs(segs):
         top, tf, bf = [], [], []
         for g in run:

@@ -18,6 +18,7 @@ import numpy as np
 
 from ..profile.stationing import format_station
 from .dxf_style import TEXT_IN, TEXT_SMALL_IN, Pen
+from .envelope import drafted_line
 from .label_layout import Box, text_box
 
 REVISION_LAYER = "C-ANNO-REVS"
@@ -146,12 +147,12 @@ def draw_elevation(pen: Pen, design, *, ve: float, interval_ft: float,
     pad = 2.0 * pen.h(TEXT_IN) * 4
     gx0, gx1 = s0 - pad, s1 + pad
     # grades and the wall first: the geometry
-    pen.poly(zip(s, Y(fg), strict=True), "C-GRAD-FRNT")
-    pen.poly(zip(s, Y(rg), strict=True), "C-GRAD-RETD")
+    pen.poly(drafted_line(s, Y(fg)), "C-GRAD-FRNT")
+    pen.poly(drafted_line(s, Y(rg)), "C-GRAD-RETD")
     eg = np.asarray(st.existing_ground_ft, dtype=float)
     ok = np.isfinite(eg)
     if ok.sum() >= 2:
-        pen.poly(zip(s[ok], Y(eg[ok]), strict=True), "C-GRAD-EXST")
+        pen.poly(drafted_line(s[ok], Y(eg[ok])), "C-GRAD-EXST")
     for run in _runs(segs):
         top, tf, bf = [], [], []
         for g in run:

@@ -14,6 +14,7 @@ import numpy as np
 
 from ..profile.stationing import format_station
 from .dxf_style import TEXT_SMALL_IN, Pen
+from .envelope import drafted_line
 
 PLAN_LAYER = "C-WALL-ALGN"
 
@@ -50,7 +51,7 @@ def draw_plan(pen: Pen, design, origin, *, interval_ft: float) -> PlanView:
     shift = (origin[0] - x0, origin[1] - y0)
     x = np.asarray(st.x, float) + shift[0]
     y = np.asarray(st.y, float) + shift[1]
-    pen.poly(zip(x, y, strict=True), PLAN_LAYER)
+    pen.poly(drafted_line(x, y), PLAN_LAYER)
     h = pen.h(TEXT_SMALL_IN)
     retained = 1.0 if design.retained_side == "left" else -1.0  # left of up-station
 

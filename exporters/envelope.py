@@ -51,3 +51,22 @@ def envelope(x, y, columns: int = PLOT_COLUMNS) -> tuple[np.ndarray, np.ndarray]
     """``x`` and ``y`` at :func:`envelope_indices`."""
     i = envelope_indices(x, y, columns)
     return np.asarray(x, dtype=float)[i], np.asarray(y, dtype=float)[i]
+
+
+DRAFTING_TOLERANCE_FT = 0.001  # 1/83 in at full size: no drawing scale shows it
+
+
+def drafted_line(x, y, tolerance_ft: float = DRAFTING_TOLERANCE_FT) -> np.ndarray:
+    """The polyline through ``(x, y)`` without the vertices a drawing cannot show: every point
+    of the original stays within ``tolerance_ft`` of the result (Douglas-Peucker, by
+    shapely); both ends and every corner beyond the tolerance kept. Grades sampled at 1 ft
+    along straight grade lines are nearly all collinear, so a 5,000 ft wall's grade is a
+    few hundred vertices instead of 5,000. Returns an (n, 2) array."""
+    import shapely
+
+    xy = np.column_stack([np.asarray(x, dtype=float), np.asarray(y, dtype=float)])
+    if len(xy) <= 2 or not np.isfinite(xy).all():
+        return xy
+    line = shapely.simplify(shapely.linestrings(xy), tolerance_ft, preserve_topology=False)
+    out = shapely.get_coordinates(line)
+    return out if len(out) >= 2 else xy[[0, -1]]
