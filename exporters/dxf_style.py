@@ -7,9 +7,10 @@ plotted inch) writes its text at ``paper height x scale`` so that it plots at th
 
 from __future__ import annotations
 
-from .label_layout import LabelLayout, text_box
+from .label_layout import Box, LabelLayout, text_box
 
 TEXT_STYLE = "Standard"
+MTEXT_LINE_PITCH = 5.0 / 3.0  # DXF: an MTEXT line at spacing factor 1 is 5/3 of the text height
 # plotted text heights, in (common practice: 0.08 in the least that stays legible)
 TEXT_SMALL_IN = 0.08
 TEXT_IN = 0.10
@@ -128,7 +129,31 @@ class Pen:
         self.labels.reserve(text_box(s, insert, h, align, rotation))
         return self._add_text(s, insert, h, layer, align, rotation)
 
+    def column_text(self, lines, first_middle, spacing, layer, *, size_in=TEXT_IN,
+                    width: float):
+        """A column of one-line cells as one MTEXT: line ``i`` centred on
+        ``first_middle[1] - i * spacing`` (exact line spacing), left-aligned at
+        ``first_middle[0]``; the column's extent (``width`` wide) reserved in the layout."""
+        from ezdxf.enums import MTextEntityAlignment
+
+        h = self.h(size_in)
+        x, y = float(first_middle[0]), float(first_middle[1])
+        top = y + h / 2.0  # the cap line of the first row
+        self.labels.reserve(Box(x, y - (len(lines) - 1) * spacing - h, x + width, top + 0.1 * h))
+        text = "\\P".join(_mtext_escape(t) for t in lines)
+        m = self.space.add_mtext(text, dxfattribs={
+            "layer": layer, "style": TEXT_STYLE, "char_height": h, "insert": (x, top),
+            "attachment_point": MTextEntityAlignment.TOP_LEFT,
+            "line_spacing_style": 2,  # exact
+            "line_spacing_factor": spacing / (MTEXT_LINE_PITCH * h)})
+        return m
+
     def width(self, s, size_in=TEXT_IN) -> float:
         from .label_layout import text_width
 
         return text_width(s, self.h(size_in))
+
+
+def _mtext_escape(text: str) -> str:
+    """``text`` as literal MTEXT content (backslash and braces are its control characters)."""
+    return text.replace("\\", "\\\\").replace("{", "\\{").replace("}", "\\}")

@@ -28,7 +28,8 @@ def _texts(doc):
     for space in [doc.modelspace()] + [doc.layouts.get(n) for n in doc.layout_names_in_taborder()
                                        if n != "Model"]:
         out += [t.dxf.text for t in space.query("TEXT")]
-        out += [m.plain_text() for m in space.query("MTEXT")]
+        # a table column is one MTEXT, a line per cell
+        out += [line for m in space.query("MTEXT") for line in m.plain_text(split=True)]
     return out
 
 
