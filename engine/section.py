@@ -261,52 +261,10 @@ class DesignInputs:
         self._check_extended(has_phi)
 
     def _check_extended(self, has_phi: bool):
-        """Cross-key rules of the backslope, Coulomb, seismic, water and strip inputs."""
-        beta = self.backslope_deg or 0.0
-        phi = self.friction_angle_deg
-        if not (0.0 <= beta < 90.0):
-            raise ValueError(f"backslope must be between 0 and 90 deg, got {beta:g}")
-        if has_phi and beta > phi:
-            raise ValueError(f"backslope {beta:.4g} deg is steeper than friction_angle_deg "
-                             f"{phi:g}; no active state exists (give a flatter slope or an "
-                             "active_efp_pcf from the geotechnical report)")
-        if self.active_method not in ("rankine", "coulomb"):
-            raise ValueError("active_method must be 'rankine' or 'coulomb', got "
-                             f"{self.active_method!r}")
-        if self.active_method == "coulomb":
-            if not has_phi:
-                raise ValueError("active_method = 'coulomb' needs friction_angle_deg (not "
-                                 "active_efp_pcf)")
-            if self.coulomb_plane not in ("heel", "stem"):
-                raise ValueError("coulomb_plane must be 'heel' or 'stem', got "
-                                 f"{self.coulomb_plane!r}")
-            if self.wall_friction_deg is None and self.coulomb_plane == "stem":
-                raise ValueError("coulomb_plane = 'stem' needs wall_friction_deg (the "
-                                 "wall friction angle from the geotechnical report)")
-            if self.wall_friction_deg is not None and not (0.0 <= self.wall_friction_deg <= phi):
-                raise ValueError(f"wall_friction_deg {self.wall_friction_deg:g} must be "
-                                 f"between 0 and friction_angle_deg {phi:g}")
-        elif self.wall_friction_deg is not None:
-            raise ValueError("wall_friction_deg is used only with active_method = 'coulomb'")
-        elif self.coulomb_plane != "heel":
-            raise ValueError("coulomb_plane is used only with active_method = 'coulomb'")
-        sz = self.seismic
-        if sz is not None and sz.method == "mononobe-okabe":
-            if not has_phi:
-                raise ValueError("seismic method 'mononobe-okabe' needs friction_angle_deg; "
-                                 "use 'seed-whitman' with active_efp_pcf")
-            psi = math.degrees(math.atan(sz.kh))
-            if phi - beta - psi < 0:
-                raise ValueError(f"Mononobe-Okabe has no solution: phi - backslope - "
-                                 f"atan(kh) = {phi - beta - psi:.3g} deg < 0 (lower kh or the "
-                                 "slope)")
-        if self.water is not None and self.gamma_below_water_pcf <= 62.4:
-            raise ValueError("with [water] the unit weight must exceed 62.4 pcf (the buoyant "
-                             "unit weight is gamma - 62.4)")
-        for off, width, q in self.strip:
-            if not (off >= 0 and width > 0 and q >= 0):
-                raise ValueError("a strip load needs offset_ft >= 0, width_ft > 0 and "
-                                 "pressure_psf >= 0")
+        """Cross-key rules of the pressure models (each model's own, engine/pressure)."""
+        from .pressure import check_inputs
+
+        check_inputs(self, has_phi)
 
     @property
     def gamma_below_water_pcf(self) -> float:
@@ -363,10 +321,11 @@ class DesignInputs:
 
     @property
     def extended(self) -> bool:
-        """Any of the backslope, Coulomb, water or strip-load models in use (the static
-        thrust then depends on more than the design height)."""
-        return bool(self.backslope_deg) or self.active_method != "rankine" or bool(
-            self.strip) or self.water is not None
+        """A pressure model in use that is not level backfill (the static thrust then depends
+        on more than the design height)."""
+        from .pressure import is_level
+
+        return not is_level(self)
 
 
 # ------------------------------------------------------------------------------------------
@@ -485,13 +444,13 @@ def retained_soil_polygons(geom: SectionGeometry, inputs: DesignInputs, top_y=No
     heel and the part over a battered back face. ``top_y`` cuts the region at that height
     (the submerged part below a water level); returns ((xs, ys) heel, (xs, ys) batter).
     """
-    from .pressure import _stem_face_x_at_grade, virtual_back_height_ft
+    from .pressure import stem_face_x_at_grade, virtual_back_height_ft
 
     g = geom
     T, B, H = g.footing_thickness_ft, g.footing_width_ft, g.design_height_ft
     tt, tb = g.stem_top_in / 12.0, g.stem_base_in / 12.0
     x_back = g.toe_ft + tb
-    x_gf = _stem_face_x_at_grade(g, inputs)
+    x_gf = stem_face_x_at_grade(g, inputs)
     tanb = math.tan(math.radians(inputs.backslope_deg or 0.0))
     y_back = H + (x_back - x_gf) * tanb  # ground above the stem's back face at its base
     Hv = virtual_back_height_ft(g, inputs)

@@ -511,7 +511,7 @@ def heel_down_loads(geom: SectionGeometry, inputs: DesignInputs, thrust):
     """The heel's downward loads as (force, moment about the stem's back face) pairs: dead
     (soil over the heel at its full unit weight and the heel concrete), the live surcharge
     q L, and the vertical thrust components at the heel edge (H and L parts)."""
-    from .pressure import _stem_face_x_at_grade, virtual_back_height_ft
+    from .pressure import stem_face_x_at_grade, virtual_back_height_ft
 
     L = geom.heel_ft
     T = geom.footing_thickness_ft
@@ -520,7 +520,7 @@ def heel_down_loads(geom: SectionGeometry, inputs: DesignInputs, thrust):
         x_back = geom.toe_ft + geom.stem_base_in / 12.0
         tanb = np.tan(np.radians(inputs.backslope_deg or 0.0))
         H = geom.design_height_ft
-        d0 = np.maximum(H + (x_back - _stem_face_x_at_grade(geom, inputs)) * tanb - T, 0.0)
+        d0 = np.maximum(H + (x_back - stem_face_x_at_grade(geom, inputs)) * tanb - T, 0.0)
         d1 = np.maximum(virtual_back_height_ft(geom, inputs) - T, 0.0)
         fd = g * (d0 + d1) * L / 2.0 + gc * T * L
         md = g * (d0 * L * L / 2.0 + (d1 - d0) * L * L / 3.0) + gc * T * L * L / 2.0

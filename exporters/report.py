@@ -107,12 +107,12 @@ def check_texts(case) -> list[CheckText]:
             f"D = {case.front_grade_ft:.2f} − {case.segment.bottom_of_footing_ft:.2f} = "
             f"{f(g.embedment_ft):.2f} ft"),
         "stem_flexure": (
-            "Mu = 1.6·(EFP·h_s³/6 + Ka·q·h_s²/2); φMn = φ·As·fy·(d − a/2)",
+            p.stem_moment_formula + "; φMn = φ·As·fy·(d − a/2)",
             f"h_s = {hs:.2f} ft, EFP = {p.active_efp_pcf:g} pcf, Ka = {p.ka:.3f}, q = "
             f"{p.surcharge_psf:g} psf: Mu = {_n(stem['mu_lbft'])} lb-ft/ft; "
             + flex(stem, case.checks.stem)),
         "stem_shear": (
-            "Vu = 1.6·(EFP·z²/2 + Ka·q·z) at z = h_s − d (d above the footing)",
+            p.stem_shear_formula,
             f"Vu = {_n(stem['vu_lb'])} lb/ft; " + shear(stem, True)),
         "stem_flexure_height": (
             "Mu(y) ≤ φMn(y) at sections up the stem (bars full height, thickness tapering)",

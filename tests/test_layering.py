@@ -164,3 +164,16 @@ def test_no_import_cycle():
              for m, ts in GRAPH.items()}
     found = _cycles(graph)
     assert not found, "\n".join(" <-> ".join(c) for c in found)
+
+
+def test_a_pressure_model_imports_only_the_pressure_package():
+    # a model is one module of engine/pressure/models/: it reads the shared pieces of
+    # engine/pressure (types, coefficients, profiles, planes, the active soil) and no other
+    # model, so that adding one touches nothing else
+    pkg = "wallsched.engine.pressure"
+    models = [m for m in MODULES if m.startswith(pkg + ".models.") and not _is_package(m)]
+    assert len(models) >= 8
+    bad = [f"{m} imports {t}" for m in models for t in sorted(GRAPH[m])
+           if not t.startswith(pkg + ".") or t.startswith(pkg + ".models.")
+           or t in (pkg + ".registry", pkg + ".thrust")]
+    assert not bad, "\n".join(bad)

@@ -164,6 +164,25 @@ def test_section_check_fails_when_forced(made):
     assert not texts["bearing"].passes and texts["bearing"].result.endswith("FAILS")
 
 
+def test_stem_formula_is_the_engines_for_the_models_in_use(made):
+    """The stem rows print the formula the engine's pressure models give, not the
+    level-backfill one whatever the model."""
+    site, sd, _, _, _ = made
+    case = next(iter(sd.cases.values()))
+    from dataclasses import replace
+
+    from wallsched.engine.section import WaterTable
+    from wallsched.engine.wall_design import reinforcement
+
+    wet = replace(case.inputs, water=WaterTable(level_ft=2.0))
+    checks = check_section(case.geometry, wet, reinforcement(case.segment.section))
+    texts = {t.name: t for t in rp.check_texts(replace(case, inputs=wet, checks=checks))}
+    assert texts["stem_flexure"].formula.startswith(checks.pressure.stem_moment_formula)
+    assert "γw·hw³/6" in texts["stem_flexure"].formula
+    assert texts["stem_shear"].formula == checks.pressure.stem_shear_formula
+    assert "γw·hw²/2" in texts["stem_shear"].formula
+
+
 def test_every_section_mark_has_its_dimensioned_sketch(made):
     site, sd, _, _, reader = made
     pages = [p.extract_text() for p in reader.pages]

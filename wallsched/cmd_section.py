@@ -38,18 +38,11 @@ def _fmt(x) -> str:
     return f"{x:.3f}"
 
 
-def _conventions(sf, pressure, inputs=None) -> list[str]:
+def _conventions(sf, pressure, inputs) -> list[str]:
+    from .engine.pressure import conventions
+
     c = sf.criteria
-    if inputs is None or not (inputs.extended or inputs.seismic is not None):
-        lines = [
-            f"active pressure: {pressure.basis}, EFP {pressure.active_efp_pcf:.1f} pcf "
-            f"(Ka = {pressure.ka:.4f}), on the vertical plane through the heel edge over the "
-            "design height H (retained grade to bottom of footing)",
-            f"surcharge {pressure.surcharge_psf:g} psf: lateral Ka*q = "
-            f"{pressure.surcharge_lateral_psf:.1f} psf over H",
-        ]
-    else:
-        lines = _extended_conventions(pressure, inputs)
+    lines = conventions(inputs, pressure)
     if c["use_passive"]:
         lines.append(f"passive EFP {pressure.passive_efp_pcf:.1f} pcf from "
                      f"{c['passive_neglect_ft']:g} ft below front grade to the bottom of "
@@ -66,69 +59,6 @@ def _conventions(sf, pressure, inputs=None) -> list[str]:
     lines.append("stem one-way shear: ACI 318-19 Table 22.5.5.1(c) with lambda_s; footing: row "
                  "(c), lambda_s " + ("applied" if c["footing_shear_size_effect"] else
                                      "neglected as 13.2.6.2 permits"))
-    return lines
-
-
-def _extended_conventions(p, i) -> list[str]:
-    """The stated conventions of the backslope, Coulomb, water, strip and seismic models."""
-    beta = p.backslope_deg
-    lines = [
-        f"active pressure: {p.basis}; Ka = {p.ka:.4f}, EFP {p.active_efp_pcf:.1f} pcf acting "
-        f"{p.inclination_deg:.4g} deg above the horizontal (horizontal part "
-        f"{p.horizontal_efp_pcf:.1f} pcf) "
-        + ("on the vertical plane through the stem's back face at its base, from the bottom "
-           "of footing to the ground there (coulomb_plane = \"stem\": the soil and surcharge "
-           "over the heel are retained, not resisting; the vertical component acts at the "
-           "back face)" if i.stem_plane else
-           "on the virtual back: the vertical plane through the heel edge, from the bottom of "
-           "footing to the ground at the heel edge (H')"),
-    ]
-    if beta > 0:
-        lines.append(f"backslope {beta:.4g} deg rising from where the retained grade meets "
-                     "the stem's back face; soil over the heel is the polygon stem back face - "
-                     "top of footing - heel plane - sloping ground; the thrust's vertical "
-                     "component acts on the heel plane and counts in the vertical load and "
-                     "the resisting moment")
-    lines.append(f"surcharge {p.surcharge_psf:g} psf per horizontal foot of the (sloping) "
-                 f"ground, as extra soil height: K*q = {p.surcharge_lateral_psf:.1f} psf over "
-                 "H' in the direction of the thrust")
-    lines.append("stem: the pressure on the stem itself, K*gamma*z (horizontal part) from the "
-                 "retained grade at the stem, plus K*q, water and strip loads; heel: the "
-                 "soil polygon (total unit weight) and footing, the surcharge and the "
-                 "thrust's vertical component at the heel edge, by the combination's factors"
-                 + (", less its factored bearing pressure under the heel"
-                    if i.heel_upward_pressure else " (1.2 D, 1.6 L and H, no upward pressure)"))
-    if i.water is not None:
-        lines.append(f"water level {i.water.level_ft:g} ft above the bottom of footing (at "
-                     "most the retained grade), one free body: the soil over the heel at its "
-                     f"total unit weight ({i.gamma_below_water_pcf:g} pcf below the level), "
-                     "the earth pressure from effective stress (buoyant below the level), "
-                     "hydrostatic 62.4 pcf below it, the uplift on the base from the full head "
-                     "at the heel edge to zero at the toe edge (no water in front); heel: the "
-                     "water pressure on its underside neglected (conservative); toe: 1.6 x the "
-                     "uplift under it added to the bearing pressure (conservative)")
-    else:
-        lines.append("backfill drained (no water pressure, no uplift)")
-    for n, (off, width, q) in enumerate(i.strip, 1):
-        lines.append(f"strip load {n}: {q:g} psf, {width:g} ft wide, {off:g} ft behind the "
-                     "stem's back face: elastic strip solution doubled for a rigid wall, "
-                     "sigma_h = (2q/pi)(alpha - sin(alpha) cos(2 delta)) (AASHTO LRFD 3.11.6.2, "
-                     "NAVFAC DM-7.02; from memory), on the plane of the stem's back face over "
-                     "H; live: its weight never resists, left out of the seismic case")
-    sz = i.seismic
-    if sz is not None:
-        inc = ("Seed-Whitman 0.375 kh gamma H'^2 (limited by its authors to level backfill, a "
-               "vertical wall and no wall friction)" if sz.method == "seed-whitman" else
-               "Mononobe-Okabe (KAE - Ka) gamma H'^2/2, kv = 0, along the static thrust")
-        lines.append(f"seismic kh = {sz.kh:g}: increment {inc} at 0.6 H', plus kh x the weight "
-                     "of stem, footing and key"
-                     + (" and of the soil over the heel (it moves with the wall)"
-                        if sz.soil_inertia and not i.stem_plane else "")
-                     + f" at their centroids, both x {sz.load_factor:g} "
-                     "(IBC 2021 1807.2.3); live surcharge and strip loads left out; required "
-                     f"FS {sz.fs_overturning:g} overturning, {sz.fs_sliding:g} sliding; bearing "
-                     "against the same allowable; stem also for 1.6 H + 1.0 E; heel and toe "
-                     "also for 1.2D + 1.0E + 1.6H with its own factored bearing pressure")
     return lines
 
 
