@@ -9,6 +9,7 @@ the sections at an architectural scale; every text is sized for its view's plott
 from __future__ import annotations
 
 import math
+from dataclasses import dataclass
 
 from ..profile.stationing import format_station
 from .dxf_elev_view import _tw_ends, draw_elevation
@@ -60,6 +61,64 @@ def _strips(x0: float, x1: float, width_ft: float) -> list[tuple[float, float]]:
     return [(x0 + i * step, x0 + (i + 1) * step) for i in range(n)]
 
 
+@dataclass
+class _Model:
+    """What model space holds of one wall, and the scales its sheets show it at."""
+
+    view: object  # the elevation (dxf_elev_view.ElevationView)
+    plan: object  # the plan (dxf_plan.PlanView)
+    grid: object  # the sections' cells (dxf_sections.SectionGrid)
+    strips: list  # the elevation cut into sheet-wide strips (x0, x1)
+    scale: float  # the elevation's, ft per plotted inch
+    plan_scale: float
+    plan_h_in: float  # the plan's room on sheet 1
+    labels: LabelLayout
+
+
+def _draw_model(msp, design, area, *, bars, ve, label_interval_ft, revisions,
+                revision_tag) -> _Model:
+    """The elevation, the plan above it and the true-size sections right of both."""
+    model_labels = LabelLayout(TEXT_IN * 20.0)
+    # sheet 1 holds the plan (upper part) and the first elevation strip (lower part)
+    strip_h = (area.h - 2 * TITLE_ROOM_IN) * 0.55
+    scale = elevation_scale(design, ve, strip_h)
+    view = draw_elevation(Pen(msp, scale, model_labels), design, ve=ve,
+                          interval_ft=label_interval_ft, revisions=revisions,
+                          revision_tag=revision_tag)
+    elev_h_in = (view.y1 - view.y0) / scale
+    plan_h_in = area.h - elev_h_in - 2 * TITLE_ROOM_IN - 0.3
+    plan_scale = _plan_scale(design, area.w, max(plan_h_in, 2.0))
+    plan = draw_plan(Pen(msp, plan_scale, model_labels), design,
+                     (view.x0 + 20 * plan_scale, view.y1 + 40 * plan_scale),
+                     interval_ft=label_interval_ft)
+    strips = _strips(view.x0, view.x1, area.w * scale)
+    # sections: right of everything drawn so far
+    grid = plan_grid(design, area.w, area.h - TITLE_ROOM_IN, (max(view.x1, plan.x1) + 60.0,
+                                                             view.y0))
+    draw_sections(lambda sc: Pen(msp, sc, model_labels), design, grid, bars)
+    return _Model(view, plan, grid, strips, scale, plan_scale, plan_h_in, model_labels)
+
+
+class _Sheets:
+    """The wall's sheets, numbered "n of total" in the order they are made."""
+
+    def __init__(self, doc, design, size, *, site_name, date, revision, notes, total):
+        self.doc, self.size, self.total, self.number = doc, size, total, 0
+        self.wall = design.wall
+        self.wall_text = f"{design.wall}" + (f" - {design.name}" if design.name else "")
+        self.site_name, self.date, self.revision, self.notes = site_name, date, revision, notes
+
+    def new(self, title, scale_text):
+        self.number += 1
+        psp = new_sheet(self.doc, _layout_name(self.wall, self.number), self.size)
+        info = TitleInfo(self.site_name, self.wall_text, title, scale_text, self.date,
+                         self.revision, self.number, self.total)
+        # the cautions on every sheet; the general notes once, on the first (common practice)
+        ppen, _ = draw_frame(psp, self.size, info, self.notes if self.number == 1 else [
+            f"General notes: sheet 1 of {self.total}."])
+        return psp, ppen
+
+
 def draw_wall(doc, design, *, bars, site_name: str, ve: float, sheet_size: str,
               label_interval_ft: float, revisions, revision_tag: str, date: str,
               revision: str, notes: list[str], schedule_rows, bending_rows,
@@ -67,76 +126,58 @@ def draw_wall(doc, design, *, bars, site_name: str, ve: float, sheet_size: str,
     """Everything of one wall into ``doc``; returns counts for the caller (labels, sheets)."""
     size = check_sheet_size(sheet_size)
     area = drawing_area(size)
-    msp = doc.modelspace()
-    model_labels = LabelLayout(TEXT_IN * 20.0)
-    # sheet 1 holds the plan (upper part) and the first elevation strip (lower part)
-    strip_h = (area.h - 2 * TITLE_ROOM_IN) * 0.55
-    scale = elevation_scale(design, ve, strip_h)
-    pen = Pen(msp, scale, model_labels)
-    view = draw_elevation(pen, design, ve=ve, interval_ft=label_interval_ft,
-                          revisions=revisions, revision_tag=revision_tag)
-    elev_h_in = (view.y1 - view.y0) / scale
-    plan_h_in = area.h - elev_h_in - 2 * TITLE_ROOM_IN - 0.3
-    plan_scale = _plan_scale(design, area.w, max(plan_h_in, 2.0))
-    plan_pen = Pen(msp, plan_scale, model_labels)
-    plan = draw_plan(plan_pen, design, (view.x0 + 20 * plan_scale, view.y1 + 40 * plan_scale),
-                     interval_ft=label_interval_ft)
-    strips = _strips(view.x0, view.x1, area.w * scale)
-    # sections: right of everything drawn so far
-    sec_area_h = area.h - TITLE_ROOM_IN
-    gx = max(view.x1, plan.x1) + 60.0
-    grid = plan_grid(design, area.w, sec_area_h, (gx, view.y0))
-    draw_sections(lambda sc: Pen(msp, sc, model_labels), design, grid, bars)
-    n_marks = len(design.marks())
-    sec_sheets = max(1, math.ceil(n_marks / grid.per_sheet))
-    sched_per = rows_per_page(area.h / 2.0 - 0.2)
-    bend_per = rows_per_page(area.h / 2.0 - 0.2)
-    sched_pages = pages(schedule_rows, sched_per)
-    bend_pages = pages(bending_rows, bend_per)
+    m = _draw_model(doc.modelspace(), design, area, bars=bars, ve=ve,
+                    label_interval_ft=label_interval_ft, revisions=revisions,
+                    revision_tag=revision_tag)
+    sec_sheets = max(1, math.ceil(len(design.marks()) / m.grid.per_sheet))
+    sched_pages = pages(schedule_rows, rows_per_page(area.h / 2.0 - 0.2))
+    bend_pages = pages(bending_rows, rows_per_page(area.h / 2.0 - 0.2))
     table_sheets = max(len(sched_pages), len(bend_pages))
-    elev_sheets = 1 + math.ceil((len(strips) - 1) / 2)
-    total = elev_sheets + sec_sheets + table_sheets
-    hscale = engineering_scale_text(scale)
-    vscale = engineering_scale_text(scale / ve)
+    elev_sheets = 1 + math.ceil((len(m.strips) - 1) / 2)
+    sheets = _Sheets(doc, design, size, site_name=site_name, date=date, revision=revision,
+                     notes=notes, total=elev_sheets + sec_sheets + table_sheets)
+    _elevation_sheets(sheets, design, m, area, ve)
+    _section_sheets(sheets, design, m.grid, area, sec_sheets)
+    _table_sheets(sheets, design, area, table_sheets, sched_pages, bend_pages,
+                  schedule_headers, bending_headers)
+    if "Layout1" in doc.layouts and len(doc.layouts) > 2:
+        doc.layouts.delete("Layout1")  # ezdxf's default sheet, empty
+    return {"sheets": sheets.total, "labels": m.view.label_count,
+            "dropped": list(m.labels.dropped)}
+
+
+def _elevation_sheets(sheets: _Sheets, design, m: _Model, area, ve: float) -> None:
+    """Sheet 1 (the plan above, the first strip below) and two strips a sheet after it."""
+    hscale = engineering_scale_text(m.scale)
+    vscale = engineering_scale_text(m.scale / ve)
     elev_detail = (f"HORIZONTAL {hscale}, VERTICAL {vscale} (VERTICAL EXAGGERATION {ve:g}:1); "
                    + ("VIEWED FROM THE FRONT (LOW) SIDE" if design.retained_side == "left"
                       else "STATIONS TO THE RIGHT, VIEWED FROM THE RETAINED SIDE"))
-    number = 0
-    wall_text = f"{design.wall}" + (f" - {design.name}" if design.name else "")
-
-    def sheet(title, scale_text):
-        nonlocal number
-        number += 1
-        name = _layout_name(design.wall, number)
-        psp = new_sheet(doc, name, size)
-        info = TitleInfo(site_name, wall_text, title, scale_text, date, revision, number, total)
-        # the cautions on every sheet; the general notes once, on the first (common practice)
-        ppen, _ = draw_frame(psp, size, info, notes if number == 1 else [
-            f"General notes: sheet 1 of {total}."])
-        return psp, ppen
-
-    # sheet 1: plan above, first strip below
-    psp, ppen = sheet("PLAN AND ELEVATION", "AS NOTED")
-    plan_area = Area(area.x0, area.y1 - plan_h_in, area.x1, area.y1)
-    got = add_viewport(psp, plan_area, (plan.x0, plan.y0, plan.x1, plan.y1), plan_scale)
+    plan = m.plan
+    psp, ppen = sheets.new("PLAN AND ELEVATION", "AS NOTED")
+    plan_area = Area(area.x0, area.y1 - m.plan_h_in, area.x1, area.y1)
+    got = add_viewport(psp, plan_area, (plan.x0, plan.y0, plan.x1, plan.y1), m.plan_scale)
     view_title(ppen, got.x0, got.y0 - 0.1, f"PLAN - WALL {design.wall}",
-               f"SCALE {engineering_scale_text(plan_scale)}; PLAN COORDINATES = DRAWN - "
+               f"SCALE {engineering_scale_text(m.plan_scale)}; PLAN COORDINATES = DRAWN - "
                f"({plan.shift[0]:.2f}, {plan.shift[1]:.2f}) FT; TICKS ON THE RETAINED SIDE")
     top = got.y0 - TITLE_ROOM_IN - 0.2
-    strip_list = list(strips)
+    strip_list = list(m.strips)
     first = [strip_list.pop(0)]
-    _elev_strips(psp, ppen, first, view, scale, area, top, design, elev_detail, total=len(strips))
+    _elev_strips(psp, ppen, first, m.view, m.scale, area, top, design, elev_detail,
+                 total=len(m.strips))
     k = 1
     while strip_list:
         chunk, strip_list = strip_list[:2], strip_list[2:]
-        psp, ppen = sheet("ELEVATION", f"H {hscale}, V {vscale}")
-        _elev_strips(psp, ppen, chunk, view, scale, area, area.y1, design, elev_detail,
-                     total=len(strips), first_index=k)
+        psp, ppen = sheets.new("ELEVATION", f"H {hscale}, V {vscale}")
+        _elev_strips(psp, ppen, chunk, m.view, m.scale, area, area.y1, design, elev_detail,
+                     total=len(m.strips), first_index=k)
         k += len(chunk)
-    # sections
+
+
+def _section_sheets(sheets: _Sheets, design, grid, area, count: int) -> None:
     marks = list(design.marks())
-    for i in range(sec_sheets):
-        psp, ppen = sheet("TYPICAL SECTIONS", grid.scale_text)
+    for i in range(count):
+        psp, ppen = sheets.new("TYPICAL SECTIONS", grid.scale_text)
         window = grid.block_window(i)
         got = add_viewport(psp, Area(area.x0, area.y0 + TITLE_ROOM_IN, area.x1, area.y1),
                            window, grid.scale_ft_per_in)
@@ -144,9 +185,12 @@ def draw_wall(doc, design, *, bars, site_name: str, ve: float, sheet_size: str,
         view_title(ppen, got.x0, got.y0 - 0.1, f"TYPICAL SECTIONS {', '.join(shown)}",
                    f"SCALE {grid.scale_text}; LOOKING UP-STATION; DIMENSIONS IN INCHES (\") "
                    "AND FEET (')")
-    # schedules
-    for i in range(table_sheets):
-        psp, ppen = sheet("WALL SCHEDULE AND BENDING SCHEDULE", "NONE")
+
+
+def _table_sheets(sheets: _Sheets, design, area, count: int, sched_pages, bend_pages,
+                  schedule_headers, bending_headers) -> None:
+    for i in range(count):
+        psp, ppen = sheets.new("WALL SCHEDULE AND BENDING SCHEDULE", "NONE")
         y = area.y1 - 0.3
         if i < len(sched_pages) and sched_pages[i]:
             more = f" ({i + 1} OF {len(sched_pages)})" if len(sched_pages) > 1 else ""
@@ -157,9 +201,6 @@ def draw_wall(doc, design, *, bars, site_name: str, ve: float, sheet_size: str,
             more = f" ({i + 1} OF {len(bend_pages)})" if len(bend_pages) > 1 else ""
             draw_table(ppen, area.x0, y, f"WALL {design.wall} BENDING SCHEDULE{more}",
                        bending_headers, bend_pages[i])
-    if "Layout1" in doc.layouts and len(doc.layouts) > 2:
-        doc.layouts.delete("Layout1")  # ezdxf's default sheet, empty
-    return {"sheets": total, "labels": view.label_count, "dropped": list(model_labels.dropped)}
 
 
 def _elev_strips(psp, ppen, strips, view, scale, area, top, design, detail, *, total,
