@@ -18,7 +18,7 @@ import numpy as np
 
 from ..engine.model import natural_key
 from ..profile.stationing import format_station
-from .dxf_elev_view import _bottom_ft, _runs, _tw_ends, label_stations
+from .dxf_elev_view import bottom_ft, label_stations, tw_ends, wall_runs
 from .envelope import drafted_line, envelope
 from .file_names import wall_file_stem
 from .plots import finish, legend_outside, new_figure, optional_text, save, station_ticks
@@ -45,7 +45,7 @@ def elevation_series(design, vertical_exaggeration: float = 1.0) -> dict[str, li
     st = design.stations
     s = np.asarray(st.station_ft, dtype=float)
     segs = [g for g in design.segments if g.section is not None] or list(design.segments)
-    lo = min(min(_bottom_ft(g) for g in segs), float(np.nanmin(st.front_grade_ft)))
+    lo = min(min(bottom_ft(g) for g in segs), float(np.nanmin(st.front_grade_ft)))
     ve = vertical_exaggeration
 
     def Y(e):
@@ -58,10 +58,10 @@ def elevation_series(design, vertical_exaggeration: float = 1.0) -> dict[str, li
     ok = np.isfinite(eg)
     if ok.sum() >= 2:
         out["C-GRAD-EXST"] = [drafted_line(s[ok], Y(eg[ok]))]
-    for run in _runs(segs):
+    for run in wall_runs(segs):
         top, tf, bf = [], [], []
         for g in run:
-            a, b = _tw_ends(g)
+            a, b = tw_ends(g)
             top += [(g.station_start_ft, a), (g.station_end_ft, b)]
             tf += [(g.station_start_ft, g.top_of_footing_ft), (g.station_end_ft,
                                                                g.top_of_footing_ft)]
@@ -125,8 +125,8 @@ def elevation_figure(design, *, vertical_exaggeration: float = 1.0,
             ax.vlines(xs, 0, 1, transform=ax.get_xaxis_transform(), color=colour, ls=ls,
                       lw=0.8, label=label)
     segs = [g for g in design.segments if g.section is not None] or list(design.segments)
-    lo = min(min(_bottom_ft(g) for g in segs), float(np.nanmin(st.front_grade_ft)))
-    hi = max(max(max(_tw_ends(g)) for g in segs), float(np.nanmax(st.retained_grade_ft)))
+    lo = min(min(bottom_ft(g) for g in segs), float(np.nanmin(st.front_grade_ft)))
+    hi = max(max(max(tw_ends(g)) for g in segs), float(np.nanmax(st.retained_grade_ft)))
 
     def Y(e):
         return lo + (e - lo) * ve

@@ -24,19 +24,19 @@ from .label_layout import Box, text_box
 REVISION_LAYER = "C-ANNO-REVS"
 
 
-def _tw_ends(seg) -> tuple[float, float]:
+def tw_ends(seg) -> tuple[float, float]:
     if math.isfinite(seg.top_of_wall_ft):
         return seg.top_of_wall_ft, seg.top_of_wall_ft
     return seg.top_of_wall_start_ft, seg.top_of_wall_end_ft
 
 
-def _bottom_ft(seg) -> float:
+def bottom_ft(seg) -> float:
     sec = seg.section
     key = sec.key_depth_in / 12.0 if sec is not None and sec.has_key else 0.0
     return seg.bottom_of_footing_ft - key
 
 
-def _runs(segments):
+def wall_runs(segments):
     """Contiguous runs of segments (a gap where no wall is needed splits a run)."""
     runs, cur = [], []
     for s in segments:
@@ -93,18 +93,18 @@ def label_stations(segs, s, fg, interval_ft: float) -> list[_Label]:
     out: list[_Label] = []
 
     def lab(g, x, side, required):
-        a, b = _tw_ends(g)
+        a, b = tw_ends(g)
         t = (x - g.station_start_ft) / max(g.length_ft, 1e-9)
         tw = a + (b - a) * t
         out.append(_Label(x, side, tw, float(np.interp(x, s, fg)), g.top_of_footing_ft,
-                          g.bottom_of_footing_ft, _bottom_ft(g), required))
+                          g.bottom_of_footing_ft, bottom_ft(g), required))
 
     for i, g in enumerate(segs):
         prev = segs[i - 1] if i else None
         joined = prev is not None and abs(prev.station_end_ft - g.station_start_ft) < 1e-6
         if joined:
             step = (abs(prev.bottom_of_footing_ft - g.bottom_of_footing_ft) > 1e-9
-                    or abs(_tw_ends(prev)[1] - _tw_ends(g)[0]) > 1e-9)
+                    or abs(tw_ends(prev)[1] - tw_ends(g)[0]) > 1e-9)
             if step:
                 lab(prev, prev.station_end_ft, -1, True)
                 lab(g, g.station_start_ft, +1, True)
@@ -136,27 +136,52 @@ def draw_elevation(pen: Pen, design, *, ve: float, interval_ft: float,
     segs = [g for g in design.segments if g.section is not None] or list(design.segments)
     h = pen.h(TEXT_SMALL_IN)
     gap = 0.6 * h
-    hi = max(max(max(_tw_ends(g)) for g in segs), float(np.nanmax(rg)))
-    lo = min(min(_bottom_ft(g) for g in segs), float(np.nanmin(fg)))
+    hi = max(max(max(tw_ends(g)) for g in segs), float(np.nanmax(rg)))
+    lo = min(min(bottom_ft(g) for g in segs), float(np.nanmin(fg)))
     step = grid_interval_ft(hi - lo)
     datum = math.floor(lo / step) * step - step
-    top_el = math.ceil(hi / step) * step
     view = ElevationView(0, 0, 0, 0, datum, ve, 0)
     Y = view.y
     s0, s1 = float(s[0]), float(s[-1])
     pad = 2.0 * pen.h(TEXT_IN) * 4
     gx0, gx1 = s0 - pad, s1 + pad
     # grades and the wall first: the geometry
-    pen.poly(drafted_line(s, Y(fg)), "C-GRAD-FRNT")
-    pen.poly(drafted_line(s, Y(rg)), "C-GRAD-RETD")
+    _draw_grades(pen, st, Y)
+    _draw_wall(pen, segs, Y)
+    _draw_grid(pen, Y, datum, math.ceil(hi / step) * step, step, (gx0, gx1), (s0, s1), h)
+    view.label_count, band_top = _draw_labels(pen, segs, s, fg, interval_ft, Y, float(Y(hi)),
+                                              h)
+    _draw_joints(pen, design, segs, Y, h)
+    band_top = _draw_tags(pen, segs, Y, band_top + 2 * gap)
+    # revision clouds and their tags
+    y_low = float(Y(datum)) - 3.5 * h
+    for a, b in _ranges(revisions, s0, s1):
+        _draw_cloud(pen, segs, Y, a, b, y_low + 1.8 * h, band_top, h, revision_tag)
+    boxes = pen.labels.boxes
+    view.x0 = min([gx0] + [bx.x0 for bx in boxes]) - h
+    view.x1 = max([gx1] + [bx.x1 for bx in boxes]) + h
+    view.y0 = min([y_low] + [bx.y0 for bx in boxes]) - h
+    view.y1 = max([band_top] + [bx.y1 for bx in boxes]) + h
+    return view
+
+
+def _draw_grades(pen: Pen, st, Y) -> None:
+    s = np.asarray(st.station_ft, dtype=float)
+    pen.poly(drafted_line(s, Y(np.asarray(st.front_grade_ft, dtype=float))), "C-GRAD-FRNT")
+    pen.poly(drafted_line(s, Y(np.asarray(st.retained_grade_ft, dtype=float))), "C-GRAD-RETD")
     eg = np.asarray(st.existing_ground_ft, dtype=float)
     ok = np.isfinite(eg)
     if ok.sum() >= 2:
         pen.poly(drafted_line(s[ok], Y(eg[ok])), "C-GRAD-EXST")
-    for run in _runs(segs):
+
+
+def _draw_wall(pen: Pen, segs, Y) -> None:
+    """The stem and footing outlines of every run of segments, the keys, and the segment
+    boundaries."""
+    for run in wall_runs(segs):
         top, tf, bf = [], [], []
         for g in run:
-            a, b = _tw_ends(g)
+            a, b = tw_ends(g)
             top += [(g.station_start_ft, float(Y(a))), (g.station_end_ft, float(Y(b)))]
             tf += [(g.station_start_ft, float(Y(g.top_of_footing_ft))),
                    (g.station_end_ft, float(Y(g.top_of_footing_ft)))]
@@ -173,10 +198,17 @@ def draw_elevation(pen: Pen, design, *, ve: float, interval_ft: float,
     for i, g in enumerate(segs[1:], 1):
         prev = segs[i - 1]
         if abs(prev.station_end_ft - g.station_start_ft) < 1e-6:
-            y0 = min(_bottom_ft(prev), _bottom_ft(g))
-            y1 = max(_tw_ends(prev)[1], _tw_ends(g)[0])
+            y0 = min(bottom_ft(prev), bottom_ft(g))
+            y1 = max(tw_ends(prev)[1], tw_ends(g)[0])
             pen.line((g.station_start_ft, Y(y0)), (g.station_start_ft, Y(y1)), "C-WALL-BNDY")
-    # elevation grid, its labels both sides, station grid and labels below the datum
+
+
+def _draw_grid(pen: Pen, Y, datum, top_el, step, gx, span, h) -> None:
+    """The elevation grid with its labels both sides; the station grid and its labels below
+    the datum."""
+    gx0, gx1 = gx
+    s0, s1 = span
+    gap = 0.6 * h
     e = datum
     while e <= top_el + 1e-9:
         pen.line((gx0, Y(e)), (gx1, Y(e)), "C-WALL-GRID")
@@ -192,36 +224,27 @@ def draw_elevation(pen: Pen, design, *, ve: float, interval_ft: float,
         pen.text(format_station(x, 0), (x, Y(datum) - 1.5 * h), "C-WALL-GRID",
                  size_in=TEXT_SMALL_IN, align="TOP_CENTER")
         x += interval
-    # labels: the segment ends first, then the interval labels where they fit
+
+
+def _draw_labels(pen: Pen, segs, s, fg, interval_ft, Y, band_top, h) -> tuple[int, float]:
+    """The station labels (TW above the wall, BW TF BF below it): the segment ends first,
+    then the interval labels where they fit; returns how many texts were placed and the
+    highest one's top."""
+    gap = 0.6 * h
     labels = label_stations(segs, s, fg, interval_ft)
     labels.sort(key=lambda q: (not q.required, q.station_ft))
     count = 0
-    band_top = float(Y(hi))
     for q in labels:
         above = f"STA {format_station(q.station_ft)}  TW {q.tw:.2f}"
         below = f"BW {q.bw:.2f}  TF {q.tf:.2f}  BF {q.bf:.2f}"
-        placed = 0
         for text, y_start, up in ((above, float(Y(q.tw)) + gap, True),
                                   (below, float(Y(min(q.bottom, q.bw))) - gap, False)):
             got = _place_vertical(pen, text, q, y_start, up, h, required=q.required)
             if got is not None:
-                placed += 1
+                count += 1
                 if up:
                     band_top = max(band_top, got)
-        count += placed
-    _draw_joints(pen, design, segs, Y, h)
-    band_top = _draw_tags(pen, segs, Y, band_top + 2 * gap)
-    view.label_count = count
-    # revision clouds and their tags
-    y_low = float(Y(datum)) - 3.5 * h
-    for a, b in _ranges(revisions, s0, s1):
-        _draw_cloud(pen, segs, Y, a, b, y_low + 1.8 * h, band_top, h, revision_tag)
-    boxes = pen.labels.boxes
-    view.x0 = min([gx0] + [bx.x0 for bx in boxes]) - h
-    view.x1 = max([gx1] + [bx.x1 for bx in boxes]) + h
-    view.y0 = min([y_low] + [bx.y0 for bx in boxes]) - h
-    view.y1 = max([band_top] + [bx.y1 for bx in boxes]) + h
-    return view
+    return count, band_top
 
 
 def _place_vertical(pen: Pen, text, q: _Label, y_start, up, h, *, required):
@@ -258,7 +281,7 @@ def _draw_joints(pen: Pen, design, segs, Y, h) -> None:
                 if q.station_start_ft - 1e-6 <= j.station_ft <= q.station_end_ft + 1e-6]
         if not near:
             continue
-        tw = max(np.interp(j.station_ft, [q.station_start_ft, q.station_end_ft], _tw_ends(q))
+        tw = max(np.interp(j.station_ft, [q.station_start_ft, q.station_end_ft], tw_ends(q))
                  for q in near)
         expansion = j.kind == "expansion"
         layer = "C-WALL-JNTE" if expansion else "C-WALL-JNTC"
@@ -281,7 +304,7 @@ def _draw_tags(pen: Pen, segs, Y, y_band: float) -> float:
     top = y_band
     for g in segs:
         mid = (g.station_start_ft + g.station_end_ft) / 2.0
-        a, b = _tw_ends(g)
+        a, b = tw_ends(g)
         wall_top = float(Y(max(a, b)))
         small = pen.h(TEXT_SMALL_IN)
         for row in range(6):

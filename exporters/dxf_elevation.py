@@ -20,7 +20,7 @@ from fractions import Fraction
 from pathlib import Path
 
 from ..profile.stationing import format_station
-from .dxf_elev_view import _tw_ends
+from .dxf_elev_view import tw_ends
 from .dxf_style import TEXT_STYLE
 from .file_names import wall_file_stem
 
@@ -192,7 +192,7 @@ def _schedule_rows(design, quantities) -> list[list[str]]:
     q = quantities.set_index("segment") if quantities is not None and len(quantities) else None
     rows = []
     for g in design.segments:
-        a, b = _tw_ends(g)
+        a, b = tw_ends(g)
         tw = format_elev(a) if a == b else f"{format_elev(a)}-{format_elev(b)}"
         sec = g.section
         if sec is None:

@@ -12,7 +12,7 @@ import math
 from dataclasses import dataclass
 
 from ..profile.stationing import format_station
-from .dxf_elev_view import _tw_ends, draw_elevation
+from .dxf_elev_view import draw_elevation, tw_ends
 from .dxf_plan import draw_plan, plan_extent
 from .dxf_sections import draw_sections, plan_grid
 from .dxf_sheets import (
@@ -38,7 +38,7 @@ TITLE_ROOM_IN = 0.75  # under a viewport: its title and scale
 def elevation_scale(design, ve: float, strip_h_in: float) -> float:
     st = design.stations
     segs = [g for g in design.segments if g.section is not None] or list(design.segments)
-    hi = max(max(st.retained_grade_ft), max(max(_tw_ends(g)) for g in segs))
+    hi = max(max(st.retained_grade_ft), max(max(tw_ends(g)) for g in segs))
     lo = min(min(st.front_grade_ft), min(g.bottom_of_footing_ft for g in segs) - 2.0)
     rng = (hi - lo) * ve
     for s in ENGINEERING_SCALES_FT:
