@@ -43,70 +43,90 @@ def _frame(s, x, y, at):
     return px, py, dx / n, dy / n
 
 
+@dataclass(frozen=True)
+class _Drawn:
+    """The alignment as drawn: stations, drawn coordinates, and which side is retained."""
+
+    s: np.ndarray
+    x: np.ndarray
+    y: np.ndarray
+    retained: float  # +1: left of up-station
+
+    def at(self, station: float):
+        """The drawn point at ``station`` and the unit normal toward the retained side."""
+        px, py, tx, ty = _frame(self.s, self.x, self.y, station)
+        return px, py, -ty * self.retained, tx * self.retained
+
+
 def draw_plan(pen: Pen, design, origin, *, interval_ft: float) -> PlanView:
     """Draw the plan with its lower-left extent at ``origin``."""
     st = design.stations
-    s = np.asarray(st.station_ft, float)
     x0, y0, x1, y1 = plan_extent(design)
     shift = (origin[0] - x0, origin[1] - y0)
-    x = np.asarray(st.x, float) + shift[0]
-    y = np.asarray(st.y, float) + shift[1]
-    pen.poly(drafted_line(x, y), PLAN_LAYER)
+    line = _Drawn(np.asarray(st.station_ft, float), np.asarray(st.x, float) + shift[0],
+                  np.asarray(st.y, float) + shift[1],
+                  1.0 if design.retained_side == "left" else -1.0)
+    pen.poly(drafted_line(line.x, line.y), PLAN_LAYER)
     h = pen.h(TEXT_SMALL_IN)
-    retained = 1.0 if design.retained_side == "left" else -1.0  # left of up-station
+    _retained_ticks(pen, line, h)
+    _station_labels(pen, line, interval_ft, h)
+    _segment_ends_and_marks(pen, line, design.segments, h)
+    if any(q.section is not None for q in design.segments):
+        _retained_side_label(pen, line, h)
+    pad = 8 * h
+    return PlanView(origin[0] - pad, origin[1] - pad, origin[0] + (x1 - x0) + pad,
+                    origin[1] + (y1 - y0) + pad, shift)
 
-    def normal(tx, ty):
-        return -ty * retained, tx * retained  # toward the retained side
 
-    # retained side: short ticks every ~0.2 in of paper
-    tick_step = 0.2 * pen.scale
-    for at in np.arange(s[0], s[-1] + 1e-9, tick_step):
-        px, py, tx, ty = _frame(s, x, y, at)
-        nx, ny = normal(tx, ty)
+def _retained_ticks(pen: Pen, line: _Drawn, h: float) -> None:
+    """Short ticks on the retained side, every ~0.2 in of paper."""
+    s = line.s
+    for at in np.arange(s[0], s[-1] + 1e-9, 0.2 * pen.scale):
+        px, py, nx, ny = line.at(at)
         pen.line((px, py), (px + nx * 0.5 * h, py + ny * 0.5 * h), PLAN_LAYER)
-    # station ticks and labels on the front side
+
+
+def _station_labels(pen: Pen, line: _Drawn, interval_ft: float, h: float) -> None:
+    """Station ticks and labels on the front side: both ends and every ``interval_ft``."""
+    s = line.s
     at = math.ceil(s[0] / interval_ft - 1e-9) * interval_ft
     stations = sorted({float(s[0]), float(s[-1])}
                       | set(np.arange(at, s[-1] + 1e-9, interval_ft).tolist()))
     for at in stations:
-        px, py, tx, ty = _frame(s, x, y, at)
-        nx, ny = normal(tx, ty)
+        px, py, nx, ny = line.at(at)
         pen.line((px, py), (px - nx * h, py - ny * h), PLAN_LAYER)
         far = (px - nx * 1.6 * h, py - ny * 1.6 * h)
-        align = _away(-nx, -ny)
-        pen.text(format_station(at, 0), far, PLAN_LAYER, size_in=TEXT_SMALL_IN, align=align,
+        pen.text(format_station(at, 0), far, PLAN_LAYER, size_in=TEXT_SMALL_IN,
+                 align=_away(-nx, -ny),
                  alternatives=[(px - nx * 3.2 * h, py - ny * 3.2 * h),
                                (px - nx * 4.8 * h, py - ny * 4.8 * h)])
-    # segment ends across the line, marks on the retained side
-    for g in design.segments:
+
+
+def _segment_ends_and_marks(pen: Pen, line: _Drawn, segments, h: float) -> None:
+    """Segment ends across the line, section marks on the retained side."""
+    for g in segments:
         for at in (g.station_start_ft, g.station_end_ft):
-            px, py, tx, ty = _frame(s, x, y, at)
-            nx, ny = normal(tx, ty)
+            px, py, nx, ny = line.at(at)
             pen.line((px - nx * 0.6 * h, py - ny * 0.6 * h), (px + nx * 1.4 * h, py + ny * 1.4 * h),
                      "C-WALL-BNDY")
         if g.section is None:
             continue
-        mid = (g.station_start_ft + g.station_end_ft) / 2.0
-        px, py, tx, ty = _frame(s, x, y, mid)
-        nx, ny = normal(tx, ty)
+        px, py, nx, ny = line.at((g.station_start_ft + g.station_end_ft) / 2.0)
         pen.text(g.mark, (px + nx * 2.2 * h, py + ny * 2.2 * h), "C-WALL-TAGS",
                  size_in=TEXT_SMALL_IN, align=_away(nx, ny),
                  alternatives=[(px + nx * k * h, py + ny * k * h) for k in (3.6, 5.0, 6.4)])
-    # "RETAINED SIDE" beside the first segment's mark
-    g = next((q for q in design.segments if q.section is not None), None)
-    if g is not None:
-        cands = []
-        for frac in (0.25, 0.75, 0.1, 0.9, 0.5):
-            at = s[0] + frac * (s[-1] - s[0])
-            px, py, tx, ty = _frame(s, x, y, at)
-            nx, ny = normal(tx, ty)
-            for k in (2.2, 4.0, 6.0):
-                cands.append(((px + nx * k * h, py + ny * k * h), _away(nx, ny)))
-        pen.text("RETAINED SIDE", cands[0][0], PLAN_LAYER, size_in=TEXT_SMALL_IN,
-                 align=cands[0][1], alternatives=cands[1:])
-    pad = 8 * h
-    return PlanView(origin[0] - pad, origin[1] - pad, origin[0] + (x1 - x0) + pad,
-                    origin[1] + (y1 - y0) + pad, shift)
+
+
+def _retained_side_label(pen: Pen, line: _Drawn, h: float) -> None:
+    """"RETAINED SIDE" on that side, where it fits first."""
+    s = line.s
+    cands = []
+    for frac in (0.25, 0.75, 0.1, 0.9, 0.5):
+        px, py, nx, ny = line.at(s[0] + frac * (s[-1] - s[0]))
+        for k in (2.2, 4.0, 6.0):
+            cands.append(((px + nx * k * h, py + ny * k * h), _away(nx, ny)))
+    pen.text("RETAINED SIDE", cands[0][0], PLAN_LAYER, size_in=TEXT_SMALL_IN,
+             align=cands[0][1], alternatives=cands[1:])
 
 
 def _away(nx: float, ny: float) -> str:
