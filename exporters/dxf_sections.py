@@ -62,9 +62,9 @@ class SectionGrid:
 
 
 def _stem_height(design, mark) -> float:
-    from .dxf_elev_view import _tw_ends
+    from .dxf_elev_view import tw_ends
 
-    return max(max(_tw_ends(g)) - g.top_of_footing_ft for g in design.segments
+    return max(max(tw_ends(g)) - g.top_of_footing_ft for g in design.segments
                if g.mark == mark and g.section is not None)
 
 
