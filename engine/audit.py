@@ -14,7 +14,8 @@ purpose so that an error in one is unlikely to be repeated in the other:
 - the cracked section for crack control from the transformed-area equation in kd.
 
 ``audit_section(inputs, geometry, bars)`` returns ``{check name: AuditRow(demand, capacity,
-passes)}`` with the names of :data:`~.checks.CHECK_NAMES`; ``audit_details`` also returns
+passes)}`` with the names of :data:`~.checks.CHECK_NAMES` and ``KEY_CHECK_NAMES`` (0 / 0
+without a key); ``audit_details`` also returns
 the headline values (the keys of the ``section --json`` object).
 """
 
@@ -293,6 +294,21 @@ def _footing_audit(rows, name, mu, vu, size, sp, cover, T_in, fc, fy, i):
     rows[f"{name}_min_steel"] = AuditRow(0.0018 * 12 * T_in, As, As >= 0.0018 * 12 * T_in)
     rows[f"{name}_spacing"] = AuditRow(sp, min(3 * T_in, 18.0), sp <= min(3 * T_in, 18.0))
     return d, pmn, pvn
+
+
+def _key_audit(efp_p, neglect, emb, kd, width_in, fc):
+    """The key as a plain-concrete cantilever from the bottom of the footing, loaded by
+    1.6 x the passive pressure efp_p * z on its depth below the neglected depth (integrated
+    numerically): ACI 318-19 14.5.2.1a Mn = 5 sqrt(f'c) S, 14.5.5.1a Vn = 4/3 sqrt(f'c) b h,
+    phi 0.60 (Table 21.2.1), h = width - 2 in against soil (14.5.1.7) (from memory)."""
+    y_a = max(neglect - emb, 0.0)  # the loaded part of the key, down from its root
+    vu = 1.6 * _simpson(lambda y: efp_p * (emb + y), y_a, kd)
+    mu = 1.6 * _simpson(lambda y: efp_p * (emb + y) * y, y_a, kd)
+    h = max(width_in - 2.0, 0.0)
+    pmn = 0.60 * 5.0 * math.sqrt(fc) * (12.0 * h ** 2 / 6.0) / 12.0
+    pvn = 0.60 * (4.0 / 3.0) * math.sqrt(fc) * 12.0 * h
+    return {"key_flexure": AuditRow(mu, pmn, mu <= pmn),
+            "key_shear": AuditRow(vu, pvn, vu <= pvn)}
 
 
 def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, object]):
@@ -787,6 +803,10 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
                                bars.get("toe_hooked"))
     rows["heel_development"] = AuditRow(need_h, room_h, need_h <= room_h)
     rows["toe_development"] = AuditRow(need_t, room_t, need_t <= room_t)
+    if kw > 0 and kd > 0:
+        rows.update(_key_audit(efp_p, i.passive_neglect_ft, emb, kd, kw * 12.0, fc))
+    else:  # no key: nothing to carry (the engine's rows, where a batch has them, are 0 / 0)
+        rows.update({n: AuditRow(0.0, 0.0, True) for n in ("key_flexure", "key_shear")})
 
     hz = _bar(bars.get("horizontal"))
     if hz is not None:

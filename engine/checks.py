@@ -25,6 +25,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from .key import key_strength
 from .pressure import EarthPressure, earth_pressure
 from .section import DesignInputs, Reinforcement, SectionGeometry, section_weights
 from .stability import StabilityResult, stability
@@ -67,6 +68,13 @@ SEISMIC_LOAD_FACTOR_NOTE = (
     "stem strength also for 1.6 H + 1.0 E (ASCE 7 2.3.6); heel and toe also for 1.2D + 1.0E "
     "+ 1.6H with that combination's factored bearing pressure (E: Delta P_AE and kh W of the "
     "concrete and, with soil_inertia, of the soil over the heel).")
+
+
+KEY_LOAD_FACTOR_NOTE = (
+    "Shear key: 1.6 on the passive pressure over its depth (as on the stem's lateral earth "
+    "pressure, ASCE 7 2.3 H; conservative for a resisting pressure), a plain-concrete "
+    "cantilever from the bottom of footing (ACI 318-19 chapter 14, phi 0.60, h = width - 2 in "
+    "cast against soil); the stem bars are not counted in it.")
 
 
 # detailing rows: limits the choice of bars and dimensions meets (bar spacing limits, least
@@ -321,6 +329,8 @@ class SectionChecks:
                               ("seismic_overturning", "seismic_sliding", "seismic_bearing")),
             }
             out["load_factors"].append(SEISMIC_LOAD_FACTOR_NOTE)
+        if "key_flexure" in self.names:
+            out["load_factors"].append(KEY_LOAD_FACTOR_NOTE)
         return out
 
 
@@ -349,6 +359,18 @@ def _footing_rows(name, face, mat, m, inputs, valid, shear_at="at"):
     )
 
 
+def _key_rows(k, valid):
+    """The shear key as a plain-concrete cantilever below the footing (engine/key.py)."""
+    aci = "ACI 318-19"
+    return (
+        _row("key_flexure", "Shear key flexure at the bottom of footing (plain concrete)",
+             "lb-ft", f"{aci} 14.5.2.1, 14.5.1.7, Table 21.2.1", k.mu_lbft, k.phi_mn_lbft,
+             valid=valid),
+        _row("key_shear", "Shear key shear at the bottom of footing (plain concrete)", "lb",
+             f"{aci} 14.5.5.1, 14.5.1.7, Table 21.2.1", k.vu_lb, k.phi_vn_lb, valid=valid),
+    )
+
+
 def check_section(geom: SectionGeometry, inputs: DesignInputs, bars: Reinforcement, *,
                   pressure: EarthPressure | None = None) -> SectionChecks:
     """Every check of every section: stability, stem, heel, toe, detailing.
@@ -359,8 +381,9 @@ def check_section(geom: SectionGeometry, inputs: DesignInputs, bars: Reinforceme
         pressure: a precomputed :func:`~.pressure.earth_pressure` (optional).
 
     Returns:
-        SectionChecks (rows in a fixed order; the stem horizontal and footing longitudinal
-        rows only when those bars are given).
+        SectionChecks (rows in a fixed order; the key rows only where a section of the
+        batch has a key; the stem horizontal and footing longitudinal rows only when those
+        bars are given).
     """
     p = pressure or earth_pressure(inputs)
     valid = geom.valid
@@ -418,6 +441,8 @@ def check_section(geom: SectionGeometry, inputs: DesignInputs, bars: Reinforceme
              f"{aci} 25.4.2.3 (straight) or 25.4.3.1 (hooked), 25.4.10.1",
              toe.ld_required_in, toe.ld_available_in, valid=valid),
     ]
+    if np.any(geom.has_key):
+        rows.extend(_key_rows(key_strength(geom, inputs, p), valid))
     sz = st.seismic
     if sz is not None:
         si = inputs.seismic
@@ -482,7 +507,9 @@ CHECK_NAMES = (
 OPTIONAL_CHECK_NAMES = ("stem_horizontal_steel", "stem_horizontal_spacing",
                         "footing_longitudinal_steel", "footing_longitudinal_spacing")
 SEISMIC_CHECK_NAMES = ("seismic_overturning", "seismic_sliding", "seismic_bearing")
+KEY_CHECK_NAMES = ("key_flexure", "key_shear")  # where a section of the batch has a key
 
-__all__ = ["CHECK_NAMES", "LOAD_FACTORS", "OPTIONAL_CHECK_NAMES", "SEISMIC_CHECK_NAMES",
+__all__ = ["CHECK_NAMES", "KEY_CHECK_NAMES", "LOAD_FACTORS", "OPTIONAL_CHECK_NAMES",
+           "SEISMIC_CHECK_NAMES",
            "CheckRow", "SectionChecks", "check_section", "DesignInputs", "Reinforcement",
            "SectionGeometry"]

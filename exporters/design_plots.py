@@ -36,6 +36,7 @@ CHECK_GROUPS = (
     ("stem strength", lambda n: n.startswith("stem_") and ("flexure" in n or "shear" in n)),
     ("heel and toe strength",
      lambda n: n.startswith(("heel_", "toe_")) and ("flexure" in n or "shear" in n)),
+    ("shear key strength", lambda n: n.startswith("key_")),
     ("detailing and minimums", lambda n: True),
 )
 

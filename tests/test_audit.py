@@ -13,7 +13,12 @@ import pytest
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 from wallsched.engine.audit import audit_details, audit_section
-from wallsched.engine.checks import CHECK_NAMES, OPTIONAL_CHECK_NAMES, check_section
+from wallsched.engine.checks import (
+    CHECK_NAMES,
+    KEY_CHECK_NAMES,
+    OPTIONAL_CHECK_NAMES,
+    check_section,
+)
 from wallsched.engine.section import (
     GEOMETRY_FIELDS,
     BarArrays,
@@ -97,7 +102,9 @@ def compare(inp, geo, bars, with_optional):
     res = check_section(g, inp, reinf)
     assert bool(np.all(g.valid))
     n = len(geo["retained_height_ft"])
-    names = CHECK_NAMES + (OPTIONAL_CHECK_NAMES if with_optional else ())
+    keyed = bool(np.any(g.has_key))
+    names = (CHECK_NAMES + (KEY_CHECK_NAMES if keyed else ())
+             + (OPTIONAL_CHECK_NAMES if with_optional else ()))
     assert res.names == names
     bad = []
     for i in range(n):
@@ -106,6 +113,8 @@ def compare(inp, geo, bars, with_optional):
               if with_optional or k in ("stem", "heel", "toe")}
         rows, vals = audit_details(inp, gi, bi)
         for r in res.rows:
+            if r.name in KEY_CHECK_NAMES and not g.has_key[i]:
+                assert float(r.ratio[i]) == 0.0  # no key: nothing to carry
             a = rows[r.name]
             ratio = float(r.ratio[i])
             ok = (_close(a.demand, float(r.demand[i]) if np.ndim(r.demand) else float(r.demand))
@@ -182,7 +191,7 @@ def test_audit_section_shape():
     geo = dict(retained_height_ft=6.0, embedment_ft=2.0, footing_thickness_in=14.0,
                stem_top_in=10.0, stem_base_in=10.0, toe_ft=2.0, heel_ft=4.0)
     rows = audit_section(inp, geo, {"stem": "#5@12", "heel": "#5@12", "toe": "#5@12"})
-    assert tuple(rows) == CHECK_NAMES
+    assert tuple(rows) == CHECK_NAMES + KEY_CHECK_NAMES  # no key: its rows 0 / 0
     assert all(r.passes for r in rows.values())
     d, c, ok = rows["stem_flexure"]
     assert d < c and ok
