@@ -230,8 +230,10 @@ class ColumnSearch:
         m = m + th.vertical_lb * thrust_plane_x_ft(geo, i)
         if i.surcharge_resists:
             v, m = v + w.surcharge.lb, m + w.surcharge.moment_lbft
+        # passive to the bottom of the footing or key (as in the engine's stability)
+        key_ft = np.where(geo.has_key, geo.key_depth_in / 12.0, 0.0)
         pp = (passive_resistance_lb(p.passive_efp_pcf, i.passive_neglect_ft,
-                                    geo.embedment_ft) if i.use_passive else 0.0)
+                                    geo.embedment_ft + key_ft) if i.use_passive else 0.0)
         ok = (m >= i.fs_overturning * th.moment_lbft * k) & (
             i.friction_coefficient * v + pp >= i.fs_sliding * th.horizontal_lb * k)
         return np.broadcast_to(ok, (n, *g.shape[1:])).reshape(n, self.ncol)
@@ -282,7 +284,7 @@ class ColumnSearch:
         s_pick_k = np.full((n_pairs, n_k), -2, np.int64)  # -2: not yet evaluated
         s_lb_k = np.full((n_pairs, n_k), np.inf)
         live = ((ptr < self.toe_hi) & np.isfinite(heel_w[self.heel_of])
-                & np.isfinite(stem_lb[self.stem_of]))
+                & np.isfinite(stem_lb[self.stem_of]) & pre["key_ok"])
         cols = np.nonzero(live)[0]
         one_bar = BarArrays(bars.size[:1], bars.spacing_in[:1])
         best_cost, best = math.inf, None

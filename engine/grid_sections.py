@@ -52,7 +52,8 @@ def stem_steel_lb(geom: SectionGeometry, bars: BarArrays, inputs: DesignInputs):
 
 
 def axes_geometry(g, h, emb, fb, toes=slice(None)) -> SectionGeometry:
-    """The grid (or the toes ``toes`` of it) as broadcasting axes (toe, heel, footing, stem):
+    """The grid (or the toes ``toes`` of it) as broadcasting axes (toe, heel, footing, stem,
+    key; the key's front face under the stem's front face):
     the engine's functions then compute each term on the axes it depends on (much less work
     than on every element)."""
     a = g.axes
@@ -60,7 +61,7 @@ def axes_geometry(g, h, emb, fb, toes=slice(None)) -> SectionGeometry:
         retained_height_ft=h, embedment_ft=a.get("embedment_ft", emb),
         footing_thickness_in=a["footing_thickness_in"], stem_top_in=a["stem_top_in"],
         stem_base_in=a["stem_base_in"], toe_ft=a["toe_ft"][toes], heel_ft=a["heel_ft"],
-        freeboard_ft=fb)
+        key_width_in=a["key_width_in"], key_depth_in=a["key_depth_in"], freeboard_ft=fb)
 
 
 def flat_of(x, shape) -> np.ndarray:
@@ -74,7 +75,9 @@ def grid_geometry(g, idx, h, emb, fb) -> SectionGeometry:
         retained_height_ft=h, embedment_ft=emb,
         footing_thickness_in=g.take("footing_thickness_in", idx),
         stem_top_in=g.take("stem_top_in", idx), stem_base_in=g.take("stem_base_in", idx),
-        toe_ft=g.take("toe_ft", idx), heel_ft=g.take("heel_ft", idx), freeboard_ft=fb)
+        toe_ft=g.take("toe_ft", idx), heel_ft=g.take("heel_ft", idx),
+        key_width_in=g.take("key_width_in", idx), key_depth_in=g.take("key_depth_in", idx),
+        freeboard_ft=fb)
 
 
 def as_column(geo: SectionGeometry) -> SectionGeometry:

@@ -6,8 +6,9 @@ Method (stated here so the estimator can check it by hand):
   (stem_top + stem_base)/2 wide and TW - TF high; with a sloped top the height is the average of
   the two ends (exact for a straight sloped top). Footing: B x thickness. Key: width x depth.
 - **Formwork** (contact area): both stem faces (the battered face measured along its slope), the
-  stem's two end bulkheads, both long footing edges, the footing's two end bulkheads and both key
-  sides. Each segment is a separate pour with a bulkhead at each end (conservative).
+  stem's two end bulkheads, both long footing edges and the footing's two end bulkheads; the
+  key is cast neat against the soil of its trench, unformed (common practice; the sizing costs
+  it so). Each segment is a separate pour with a bulkhead at each end (conservative).
 - **Excavation** (only with existing ground): a trench from existing ground down to the bottom
   of footing, its floor the footing width plus ``working_room_ft`` each side (default 2 ft,
   common practice), its sides laid back at ``side_slope_h_per_v`` horizontal to 1 vertical
@@ -118,8 +119,7 @@ def formwork_sf(seg: Segment) -> float:
     t_ft = sec.footing_thickness_in / 12.0
     footing_edges = 2.0 * t_ft * length
     footing_ends = 2.0 * sec.footing_width_ft * t_ft
-    key_sides = 2.0 * sec.key_depth_in / 12.0 * length if sec.has_key else 0.0
-    return vertical_face + battered_face + stem_ends + footing_edges + footing_ends + key_sides
+    return vertical_face + battered_face + stem_ends + footing_edges + footing_ends
 
 
 def _earthwork_cf(seg: Segment, stations, working_room_ft: float,

@@ -33,7 +33,7 @@ from __future__ import annotations
 
 import math
 from collections.abc import Mapping
-from dataclasses import dataclass, replace
+from dataclasses import dataclass, field, replace
 
 import numpy as np
 
@@ -49,7 +49,9 @@ from .grid_sections import (
     stem_pair_table,
     stem_steel_lb,
 )
+from .key import key_passes
 from .model import SectionDims
+from .pressure import earth_pressure
 from .section import BarArrays, DesignInputs, Reinforcement, SectionGeometry
 from .strength import (
     max_flexural_spacing_in,
@@ -62,6 +64,8 @@ CY_FT3 = 27.0
 # bar spacings a detailer uses, in (common practice: 4-in steps to 12 in, 15, 16, 18)
 STANDARD_SPACINGS_IN = (4.0, 6.0, 8.0, 9.0, 10.0, 12.0, 15.0, 16.0, 18.0)
 BLOCK = 4096  # geometries evaluated at once in the branch and bound
+# shear key depths below the footing, in (0 = no key; common practice: keys of 1 to 2 ft)
+KEY_DEPTHS_DEFAULT_IN = np.array([0.0, 12.0, 24.0])
 
 
 def _steps(lo, hi, step):
@@ -114,6 +118,10 @@ class SizingGrid:
     bar_spacings_in: np.ndarray
     marks_max: int = 6  # sections per wall (or site) chosen from the design table
     marks_per: str = "wall"  # or "site"
+    # the shear key below the stem (0 = no key; the site file's default is
+    # KEY_DEPTHS_DEFAULT_IN); its width: the stem's base (0) or this width, in
+    key_depth_in: np.ndarray = field(default_factory=lambda: np.zeros(1))
+    key_width_in: float = 0.0
 
     @classmethod
     def from_table(cls, t: Mapping) -> SizingGrid:
@@ -135,6 +143,9 @@ class SizingGrid:
                 "bar_spacings_in", STANDARD_SPACINGS_IN)))),
             marks_max=int(t.get("marks_max", 6)),
             marks_per=str(t.get("marks_per", "wall")),
+            key_depth_in=np.array(sorted({float(x) for x in t.get(
+                "key_depths_in", KEY_DEPTHS_DEFAULT_IN)} | {0.0})),
+            key_width_in=float(t.get("key_width_in", 0.0)),
         )
 
     def geometries(self) -> Geometries:
@@ -148,7 +159,9 @@ class SizingGrid:
 
 class Geometries:
     """The grid's geometries, flattened with the toe as the slowest axis: geometry
-    ``i = toe_index * ncol + column``, a *column* being one (heel, footing, stem) combination.
+    ``i = toe_index * ncol + column``, a *column* being one (heel, footing, stem, key)
+    combination. The key sits below the stem, its front face under the stem's front face
+    (``key_offset_ft`` = the toe), as wide as the stem's base or ``key_width_in``.
 
     Only the toe varies along a column's flat indices, so every value but the toe is held once
     per column (``col``); :meth:`take` reads any value at flat indices. ``axes`` are the
@@ -158,26 +171,33 @@ class Geometries:
     def __init__(self, grid: SizingGrid):
         nt, nh = grid.toe_ft.size, grid.heel_ft.size
         nT, nS = grid.footing_thickness_in.size, grid.stem_base_in.size
-        self.shape = (nt, nh, nT, nS)
-        self.nt, self.ncol, self.size = nt, nh * nT * nS, nt * nh * nT * nS
+        kd = np.asarray(grid.key_depth_in, float)
+        nK = kd.size
+        self.shape = (nt, nh, nT, nS, nK)
+        self.ncol = nh * nT * nS * nK
+        self.nt, self.size = nt, nt * self.ncol
         self.toe_axis = np.asarray(grid.toe_ft, float)
         self.spacings_in = np.asarray(grid.bar_spacings_in, float)  # for the fixed bars
-        i_h, i_T, i_S = (a.ravel() for a in np.meshgrid(np.arange(nh), np.arange(nT),
-                                                         np.arange(nS), indexing="ij"))
+        i_h, i_T, i_S, i_K = (a.ravel() for a in np.meshgrid(
+            np.arange(nh), np.arange(nT), np.arange(nS), np.arange(nK), indexing="ij"))
         tb = grid.stem_base_in[i_S]
         self.col = {
             "heel_ft": grid.heel_ft[i_h], "footing_thickness_in": grid.footing_thickness_in[i_T],
             "stem_base_in": tb,
             "stem_top_in": np.full(tb.shape, grid.stem_top_min_in) if grid.stem_batter else tb,
+            "key_depth_in": kd[i_K], "key_width_in": key_width(grid, tb, kd[i_K]),
             "stem_code": i_T * nS + i_S, "heel_code": i_h * nT + i_T, "T_index": i_T,
+            "key_index": i_K,
         }
-        self.axes = {"toe_ft": self.toe_axis[:, None, None, None],
-                     "heel_ft": grid.heel_ft[None, :, None, None],
-                     "footing_thickness_in": grid.footing_thickness_in[None, None, :, None],
-                     "stem_base_in": grid.stem_base_in[None, None, None, :],
-                     "stem_top_in": (np.full((1, 1, 1, 1), grid.stem_top_min_in)
-                                     if grid.stem_batter
-                                     else grid.stem_base_in[None, None, None, :])}
+        tb_ax = grid.stem_base_in[None, None, None, :, None]
+        kd_ax = kd[None, None, None, None, :]
+        self.axes = {"toe_ft": self.toe_axis[:, None, None, None, None],
+                     "heel_ft": grid.heel_ft[None, :, None, None, None],
+                     "footing_thickness_in": grid.footing_thickness_in[None, None, :, None, None],
+                     "stem_base_in": tb_ax,
+                     "stem_top_in": (np.full((1, 1, 1, 1, 1), grid.stem_top_min_in)
+                                     if grid.stem_batter else tb_ax),
+                     "key_depth_in": kd_ax, "key_width_in": key_width(grid, tb_ax, kd_ax)}
 
     def copy(self) -> Geometries:
         out = object.__new__(Geometries)
@@ -202,6 +222,13 @@ class Geometries:
         for a in range(0, self.nt, n_toes):
             b = min(a + n_toes, self.nt)
             yield slice(a, b), slice(a * self.ncol, b * self.ncol)
+
+
+def key_width(grid: SizingGrid, stem_base_in, key_depth_in):
+    """The key's width, in: ``grid.key_width_in``, or the stem's base where that is 0 (the
+    key under the stem, as wide as it: common practice); 0 where there is no key."""
+    w = grid.key_width_in if grid.key_width_in > 0 else stem_base_in
+    return np.where(np.asarray(key_depth_in) > 0, w, 0.0)
 
 
 # ------------------------------------------------------------------------------ costs --
@@ -251,16 +278,23 @@ def fixed_bars(geom: SectionGeometry, inputs: DesignInputs, spacings_in=None):
 
 
 def geometry_cost(geom: SectionGeometry, rates: CostRates):
-    """$ per ft of wall for concrete, formwork and excavation (no steel)."""
+    """$ per ft of wall for concrete, formwork and excavation (no steel); the key is cast
+    against the soil of its trench (no forms), its trench dug as well (:func:`key_cost`)."""
     hst = geom.stem_height_ft
     T = geom.footing_thickness_ft
     B = geom.footing_width_ft
-    key = np.where(geom.has_key, geom.key_width_in * geom.key_depth_in / 144.0, 0.0)
-    concrete = ((geom.stem_top_in + geom.stem_base_in) / 24.0 * hst + B * T + key) / CY_FT3
+    concrete = ((geom.stem_top_in + geom.stem_base_in) / 24.0 * hst + B * T) / CY_FT3
     formwork = 2.0 * hst + 2.0 * T
     excavation = B * np.maximum(geom.embedment_ft, T) / CY_FT3
     return (rates.concrete_usd_per_cy * concrete + rates.formwork_usd_per_sf * formwork
-            + rates.excavation_usd_per_cy * excavation)
+            + rates.excavation_usd_per_cy * excavation + key_cost(geom, rates))
+
+
+def key_cost(geom: SectionGeometry, rates: CostRates):
+    """$ per ft of wall of the shear key: its concrete and the excavation of its trench
+    (cast neat against the trench's soil, no formwork: common practice)."""
+    cy = np.where(geom.has_key, geom.key_width_in * geom.key_depth_in / 144.0, 0.0) / CY_FT3
+    return (rates.concrete_usd_per_cy + rates.excavation_usd_per_cy) * cy
 
 
 def footing_bar_steel_lb(geom: SectionGeometry, bars: BarArrays, member=None):
@@ -319,9 +353,9 @@ def precompute(g: Geometries, inputs: DesignInputs, rates: CostRates, emb: float
     """The height-independent parts of every geometry's cost: the cost is
     ``cost0 + cost_per_hst * stem height`` plus the stem, heel and toe bars.
 
-    ``cost0`` and ``B_ft`` are per geometry (flat); ``T_ft``, ``cost_per_hst``, ``emb_ft`` and
-    ``stem_anchor_ft`` do not depend on the toe and are per column (index with
-    ``g.column_of``)."""
+    ``cost0`` and ``B_ft`` are per geometry (flat); ``T_ft``, ``cost_per_hst``, ``emb_ft``,
+    ``stem_anchor_ft`` and ``key_ok`` (the key's flexure and shear hold, or no key) do not
+    depend on the toe and are per column (index with ``g.column_of``)."""
     def parts(toes):
         # on the grid's broadcasting axes (each term on the axes it needs)
         geo = axes_geometry(g, 1.0, emb, 0.0, toes)
@@ -333,7 +367,8 @@ def precompute(g: Geometries, inputs: DesignInputs, rates: CostRates, emb: float
         t_avg_ft = (geo.stem_top_in + geo.stem_base_in) / 24.0
         exc = B * np.maximum(geo.embedment_ft, T) / CY_FT3
         cost0 = (rates.concrete_usd_per_cy * B * T / CY_FT3 + rates.formwork_usd_per_sf * 2.0 * T
-                 + rates.excavation_usd_per_cy * exc + rates.steel_usd_per_lb * w_l * B)
+                 + rates.excavation_usd_per_cy * exc + rates.steel_usd_per_lb * w_l * B
+                 + key_cost(geo, rates))
         per_hst = (rates.concrete_usd_per_cy * t_avg_ft / CY_FT3
                    + rates.formwork_usd_per_sf * 2.0 + rates.steel_usd_per_lb * w_h)
         return geo, T, B, cost0, per_hst
@@ -343,7 +378,9 @@ def precompute(g: Geometries, inputs: DesignInputs, rates: CostRates, emb: float
     _, longi = fixed_bars(geo, inputs)
     out = {"T_ft": T, "cost_per_hst": per_hst, "emb_ft": geo.embedment_ft,
            "stem_anchor_ft": (geo.footing_thickness_in - inputs.cover_toe_in) / 12.0,
-           "long_db_in": longi.diameter_in + 0.0 * T}
+           "long_db_in": longi.diameter_in + 0.0 * T,
+           # the key's own strength (the passive on it does not depend on the height)
+           "key_ok": key_passes(geo, inputs, earth_pressure(inputs))}
     out = {k: flat_of(v, col_shape).copy() for k, v in out.items()}
     out["cost0"], out["B_ft"] = np.empty(g.size), np.empty(g.size)
     monotone, last = True, None  # the cost without bars never decreases as the toe grows
@@ -445,14 +482,17 @@ class StabilityScreen:
         same = all(np.allclose(np.broadcast_to(getattr(th, k), (2,))[0],
                                np.broadcast_to(getattr(th, k), (2,))[1], rtol=1e-12)
                    for k in ("horizontal_lb", "moment_lbft", "vertical_lb"))
-        # the embedment depends on the footing thickness alone: one value per thickness,
-        # and one thickness per column
-        n_T = int(T_index.max()) + 1
-        first = np.zeros(n_T, int)
-        first[T_index[::-1]] = np.arange(T_index.size)[::-1]
+        # the embedment depends on the footing thickness alone, the passive also on the key's
+        # depth: one value per (thickness, key depth), and one of them per column
+        combo = T_index * (int(g.col["key_index"].max()) + 1) + g.col["key_index"]
+        n_c = int(combo.max()) + 1
+        first = np.zeros(n_c, int)
+        first[combo[::-1]] = np.arange(combo.size)[::-1]
         self.e_vals = np.broadcast_to(g.take("embedment_ft", first) if "embedment_ft" in g
-                                      else np.full(n_T, emb), (n_T,))
-        self.e_col = T_index
+                                      else np.full(n_c, emb), (n_c,))
+        # the depth of the passive's bottom below the front grade: the bottom of the key
+        self.passive_depth = self.e_vals + g.take("key_depth_in", first) / 12.0
+        self.e_col = combo
         # below a water level the soil is buoyant: its weight is linear in the height only
         # where the level lies at or below the retained grade of every geometry (the design
         # height plus the least embedment reaches the level), the fitting heights included
@@ -466,13 +506,14 @@ class StabilityScreen:
         self.certify = self.linear and not inputs.extended
 
     def e_of(self, idx):
-        """The embedment value (index into ``e_vals``) of the geometries ``idx``."""
+        """The (embedment, key depth) value (index into ``e_vals``) of the geometries ``idx``."""
         if isinstance(idx, slice):
             idx = np.arange(self.B.size)[idx]
         return self.e_col[np.asarray(idx) % self.ncol]
 
     def _forces(self, h: float):
-        """Per embedment value: overturning moment, driving force, vertical thrust, passive."""
+        """Per (embedment, key depth) value: overturning moment, driving force, vertical
+        thrust, passive (to the bottom of the footing or key, as in the engine)."""
         from .pressure import design_thrust, passive_resistance_lb
 
         i = self.inputs
@@ -481,7 +522,8 @@ class StabilityScreen:
                               toe_ft=1.0, heel_ft=1.0, freeboard_ft=self.fb)
         th = design_thrust(one, i, self.p)  # one thrust per embedment (design height)
         shape = self.e_vals.shape
-        pp = (passive_resistance_lb(self.p.passive_efp_pcf, i.passive_neglect_ft, self.e_vals)
+        pp = (passive_resistance_lb(self.p.passive_efp_pcf, i.passive_neglect_ft,
+                                    self.passive_depth)
               if i.use_passive else np.zeros(shape))
         return (np.broadcast_to(th.moment_lbft, shape), np.broadcast_to(th.horizontal_lb, shape),
                 np.broadcast_to(th.vertical_lb, shape), np.broadcast_to(pp, shape))
@@ -577,7 +619,7 @@ def _search_height(g, codes, pre, toe_tab, screen, h, emb, fb, inputs, rates, ba
     col_stem = codes["stem_of"]
     s_all = np.tile(s_lb0[col_stem], g.nt)
     h_all = np.tile(heel_lb_pick[codes["heel_of"]], g.nt)
-    keep = np.isfinite(s_all) & (h_all >= 0)
+    keep = np.isfinite(s_all) & (h_all >= 0) & np.tile(pre["key_ok"], g.nt)
     if alive is not None:
         keep &= alive
     cand = np.nonzero(keep)[0]
@@ -644,13 +686,23 @@ def section_from(g, gi, bars: BarArrays, si, hi, ti, inputs, h, emb, fb) -> Sect
         stem_base_in=float(g.take("stem_base_in", gi)),
         footing_thickness_in=float(g.take("footing_thickness_in", gi)),
         toe_ft=float(g.take("toe_ft", gi)), heel_ft=float(g.take("heel_ft", gi)),
-        batter_face=inputs.batter_face,
+        batter_face=inputs.batter_face, **key_dims(g, gi),
         stem_bars=spec(bars, si), heel_bars=spec(bars, hi), toe_bars=spec(bars, ti),
         horizontal_bars=BarSpec(int(horiz.size[0]), float(horiz.spacing_in[0])),
         footing_long_bars=BarSpec(int(longi.size[0]), float(longi.spacing_in[0])),
         heel_hooked=bool(np.asarray(res.heel.hooked).reshape(-1)[0]),
         toe_hooked=bool(np.asarray(res.toe.hooked).reshape(-1)[0]),
     )
+
+
+def key_dims(g: Geometries, gi: int) -> dict:
+    """The key fields of :class:`~.model.SectionDims` for geometry ``gi`` (the key's front
+    face under the stem's front face: offset = the toe)."""
+    kw, kd = float(g.take("key_width_in", gi)), float(g.take("key_depth_in", gi))
+    if kw > 0 and kd > 0:
+        return {"key_width_in": kw, "key_depth_in": kd,
+                "key_offset_ft": float(g.take("toe_ft", gi))}
+    return {}
 
 
 @dataclass(frozen=True)

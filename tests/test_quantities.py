@@ -35,10 +35,11 @@ def test_formwork_by_hand():
     # footing ends 2 x 6.5 x 1.25  # contact areas, common practice
     expect = 2 * 6 * 60 + 2 * 6 + 2 * 1.25 * 60 + 2 * 6.5 * 1.25
     assert q.loc["W1-01", "formwork_sf"] == pytest.approx(expect)
-    # W1-02 battered back face along its slope (4 in over 11 ft), key sides 2 x 1 x 70
+    # W1-02 battered back face along its slope (4 in over 11 ft); the key is cast against
+    # the soil of its trench, unformed  # common practice
     face = 11 * 70 + math.hypot(11, 4 / 12) * 70
     b = 3 + 16 / 12 + 5
-    expect2 = face + 2 * (14 / 12) * 11 + 2 * 1.5 * 70 + 2 * b * 1.5 + 2 * 1 * 70
+    expect2 = face + 2 * (14 / 12) * 11 + 2 * 1.5 * 70 + 2 * b * 1.5
     assert q.loc["W1-02", "formwork_sf"] == pytest.approx(expect2)
 
 

@@ -20,12 +20,13 @@ from wallsched.engine.sizing import (
 from wallsched.engine.wall_design import reinforcement, station_geometry
 
 
-def small_grid(batter=False):
+def small_grid(batter=False, keys=(0.0,), key_width_in=0.0):
     return SizingGrid(
         toe_ft=np.array([0.0, 1.0, 2.5]), heel_ft=np.array([1.5, 3.0, 4.5, 6.5]),
         footing_thickness_in=np.array([12.0, 18.0, 26.0]), stem_base_in=np.array([8.0, 12.0]),
         stem_top_min_in=8.0, stem_batter=batter, bar_sizes=np.array([4, 6]),
-        bar_spacings_in=np.array([8.0, 12.0]))
+        bar_spacings_in=np.array([8.0, 12.0]), key_depth_in=np.array(keys),
+        key_width_in=key_width_in)
 
 
 def assert_matches_exhaustive(inputs, grid, *, max_height_ft=6.0, emb=1.0, fb=0.5,
@@ -55,11 +56,14 @@ soils = st.fixed_dictionaries({
 })
 
 
+KEYED = ((0.0,), (0.0, 12.0, 24.0))  # no key; keys under the stem as wide as its base
+
+
 @settings(max_examples=30, deadline=None)
-@given(soils, st.booleans())
-def test_fast_search_equals_exhaustive_search(soil, batter):
+@given(soils, st.booleans(), st.sampled_from(KEYED))
+def test_fast_search_equals_exhaustive_search(soil, batter, keys):
     inputs = DesignInputs(**soil)
-    grid = small_grid(batter)
+    grid = small_grid(batter, keys)
     rates = CostRates()
     emb = soil["min_embedment_ft"]
     table = design_table(inputs, grid, rates, max_height_ft=8.0, increment_ft=1.0,
@@ -199,3 +203,43 @@ def test_water_above_the_retained_grade_keeps_the_exact_optimum():
                                            footing_cover_ft=kw["footing_cover_ft"])
         assert ref is not None and c.section is not None
         assert c.cost_per_ft == pytest.approx(ref_cost, rel=1e-9)
+
+
+@settings(max_examples=12, deadline=None)
+@given(soils, st.sampled_from([0.0, 14.0]), st.booleans())
+def test_keyed_grids_equal_the_exhaustive_search(soil, width, seismic):
+    """Shear keys among the candidates (under the stem; 12 and 24 in deep, as wide as the stem
+    or 14 in): the fast search equals every combination through check_section, the key's
+    passive in sliding and its plain-concrete rows included; the key is chosen where it is
+    the cheaper way to hold sliding (low friction, invented soils)."""
+    kw = dict(soil, friction_coefficient=min(soil["friction_coefficient"], 0.35))
+    if seismic:
+        kw["seismic"] = SeismicLoad(kh=0.15)
+    inputs = DesignInputs(**kw)
+    grid = small_grid(False, (0.0, 12.0, 24.0), key_width_in=width)
+    table = assert_matches_exhaustive(inputs, grid, max_height_ft=7.0,
+                                      emb=soil["min_embedment_ft"], at_least=1)
+    for c in table.choices:
+        if c.section is not None and c.section.has_key:
+            assert c.section.key_offset_ft == c.section.toe_ft  # front face under the stem's
+            assert c.section.key_width_in == (width or c.section.stem_base_in)
+
+
+def test_a_key_is_chosen_where_sliding_governs_and_never_costs_more():
+    """Low base friction with good passive (invented soil): sliding governs, and a key under
+    the stem is cheaper than the wider footing; the grid with keys is never dearer than the
+    same grid without them (it holds every unkeyed candidate too)."""
+    inputs = DesignInputs(unit_weight_pcf=120, friction_coefficient=0.3,
+                          allowable_bearing_psf=4000, active_efp_pcf=45, passive_efp_pcf=350,
+                          surcharge_psf=100, min_embedment_ft=2.0)
+    args = dict(max_height_ft=8.0, increment_ft=1.0, embedment_ft=2.0, freeboard_ft=0.5)
+    keyed = design_table(inputs, small_grid(False, (0.0, 12.0, 24.0)), CostRates(), **args)
+    plain = design_table(inputs, small_grid(False), CostRates(), **args)
+    assert sum(c.section.has_key for c in keyed.choices if c.section is not None) >= 3
+    for a, b in zip(keyed.choices, plain.choices, strict=True):
+        if b.section is None:  # the key holds a height no footing of the grid holds alone
+            continue
+        assert a.section is not None and a.cost_per_ft <= b.cost_per_ft + 1e-9
+        if a.section.has_key:
+            assert a.cost_per_ft < b.cost_per_ft  # chosen only where it is cheaper
+    assert keyed.choices[-1].section is not None and plain.choices[-1].section is None

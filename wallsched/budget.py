@@ -3,7 +3,8 @@
 ``wallsched design`` needs memory for two things that grow faster than the stations:
 
 - the least-cost search over the ``[sizing]`` grid (``engine/sizing.py``): about
-  ``BYTES_PER_GEOMETRY`` per candidate geometry (toes x heels x footings x stems), measured
+  ``BYTES_PER_GEOMETRY`` per candidate geometry (toes x heels x footings x stems x key
+  depths), measured
   as the growth of the peak RSS of a design between the default grid (1.1 million geometries)
   and grids of 10 and 20 million (about 75 bytes each), plus the per-height bar tables;
 - the segments' recursion (``engine/segments.py``): its state arrays hold every station x
@@ -86,7 +87,7 @@ def sizing_bytes(sizing) -> tuple[float, int]:
     g = SizingGrid.from_table(sizing)
     nt, nh = g.toe_ft.size, g.heel_ft.size
     n_t, n_s = g.footing_thickness_in.size, g.stem_base_in.size
-    geometries = nt * nh * n_t * n_s
+    geometries = nt * nh * n_t * n_s * g.key_depth_in.size
     bars = g.bar_sizes.size * g.bar_spacings_in.size
     tables = 8.0 * 4 * (n_s * n_t + nh * n_t + nt * n_t) * bars
     return BYTES_PER_GEOMETRY * float(geometries) + tables, geometries

@@ -223,6 +223,14 @@ SIZING_KEYS = {
     "bar_spacings_in": Key(list, [4.0, 6.0, 8.0, 9.0, 10.0, 12.0, 15.0, 16.0, 18.0], lo=2, hi=48,
                            doc="the bar spacings to use, in (common practice: the spacings a "
                                "detailer uses)"),
+    "key_depths_in": Key(list, [0.0, 12.0, 24.0], lo=0, hi=72,
+                         doc="shear key depths below the footing to try, in (0: no key; "
+                             "common practice: 1 to 2 ft); the key sits under the stem, its "
+                             "front face under the stem's front face, cast against the soil "
+                             "of its trench, and is checked as plain concrete"),
+    "key_width_in": Key(float, 0.0, lo=0, hi=60,
+                        doc="shear key width, in (0: as wide as the stem's base, common "
+                            "practice)"),
     "marks_max": Key(int, 6, lo=1, hi=100,
                      doc="most section marks per wall (or per site), chosen from the design "
                          "table (common practice: a few marks a crew can build)"),
