@@ -216,6 +216,16 @@ def row_weights(plan, station_ft: np.ndarray, table: DesignTable) -> np.ndarray:
     return w
 
 
+def _marks_used(previous: PreviousRun, walls, marks_per: str) -> set:
+    """The earlier run's marks these walls may keep: every mark where the marks count for
+    the site, else the ones these walls used (a mark counts per wall, so another wall's
+    section is no free mark here; it stays a candidate as a row of the table)."""
+    if marks_per == "site":
+        return set(previous.marks)
+    ids = {w.wall for w in walls}
+    return {seg[4] for seg in previous.segments if seg[0] in ids}
+
+
 def marked_tables(walls: Sequence[WallToDesign], keys, tables, plans, grid: SizingGrid,
                   rates: CostRates, previous: PreviousRun | None = None
                   ) -> dict[str, DesignTable]:
@@ -240,7 +250,8 @@ def marked_tables(walls: Sequence[WallToDesign], keys, tables, plans, grid: Sizi
                 weight += row_weights(plan, wall.stations.station_ft[run], table)
         old = () if previous is None else tuple(
             replace(sec, batter_face=group_walls[0].inputs.batter_face)
-            for sec in previous.marks.values())
+            for m, sec in previous.marks.items() if m in _marks_used(previous, group_walls,
+                                                                     grid.marks_per))
         marked, _ = marked_table(table, group_walls[0].inputs, rates, weight, grid.marks_max,
                                  rates.mark_usd, previous=old)
         out.update({wall.wall: marked for wall in group_walls})

@@ -49,6 +49,9 @@ def recheck_from_tables(site_path: Path, out: Path) -> int:
                        "footing_thickness_in": seg.footing_thickness_in,
                        "stem_top_in": seg.stem_top_in, "stem_base_in": seg.stem_base_in,
                        "toe_ft": seg.toe_ft, "heel_ft": seg.heel_ft}
+                if seg.key_width_in > 0 and seg.key_depth_in > 0:  # a shear key
+                    geo.update(key_width_in=seg.key_width_in, key_depth_in=seg.key_depth_in,
+                               key_offset_ft=seg.key_offset_ft)
                 bars = {"stem": seg.stem_bars, "heel": seg.heel_bars, "toe": seg.toe_bars,
                         "horizontal": seg.horizontal_bars,
                         "longitudinal": seg.footing_long_bars}

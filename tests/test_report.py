@@ -131,8 +131,9 @@ def test_check_texts_cover_every_row_with_its_verdict(made):
 
 
 def test_a_failing_segment_is_shown_as_failing(tmp_path):
-    # a heel limited to 1 ft cannot hold this wall: no section on the grid (a failure)
-    extra = SMALL_GRID.replace("heel_max_ft = 8.0", "heel_max_ft = 1.0")
+    # a heel limited to 1 ft and no shear key cannot hold this wall: no section on the grid
+    # (a failure)
+    extra = SMALL_GRID.replace("heel_max_ft = 8.0", "heel_max_ft = 1.0\nkey_depths_in = [0]")
     site, sd = _design(tmp_path / "site", extra=extra)
     bad = [s for w in sd.walls for s in w.segments if not s.ok]
     assert bad, "the invented site should fail with this grid"
