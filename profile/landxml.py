@@ -1,4 +1,5 @@
-"""LandXML 1.2 (an open standard) reader: alignments, profiles and TIN surfaces.
+"""LandXML 1.2 (an open standard) reader: the document and its alignments (profiles in
+:mod:`.landxml_profile`, TIN surfaces in :mod:`.landxml_surface`).
 
 - The file is parsed with ``defusedxml`` after a size check (``MAX_LANDXML_BYTES``): entity
   declarations (the "billion laughs" expansion attack) and external entities are refused and
@@ -35,11 +36,9 @@ import numpy as np
 from ..errors import ProfileError
 from .core import DrawingAlignment, DrawingProfile, warn
 from .csvread import alignment_from_xy
-from .stationing import format_station
 
 MAX_LANDXML_BYTES = 200 * 1024 * 1024  # larger files are refused unread (stated in README)
 ARC_CHORD_ERROR_FT = 0.001  # chords of an arc stay this close to it; stations within ~0.001 ft
-VERTICAL_CHORD_ERROR_FT = 0.001  # vertical curves: profile points this close to the curve
 JOIN_TOL_FT = 0.01  # one alignment element must start where the last one ended
 SPIRAL_END_TOL_FT = 0.05  # a clothoid computed from its start must meet its End this closely
 FT_PER_UNIT = {  # exact definitions: 1 ft = 0.3048 m; 1 US survey ft = 1200/3937 m
@@ -89,23 +88,23 @@ class Document:
     messages: tuple[str, ...]
 
 
-def _local(tag) -> str:
+def local_name(tag) -> str:
     return tag.rsplit("}", 1)[-1] if isinstance(tag, str) else ""
 
 
-def _children(el, name: str) -> list:
-    return [c for c in el if _local(c.tag) == name]
+def children(el, name: str) -> list:
+    return [c for c in el if local_name(c.tag) == name]
 
 
-def _child(el, name: str):
+def child(el, name: str):
     for c in el:
-        if _local(c.tag) == name:
+        if local_name(c.tag) == name:
             return c
     return None
 
 
-def _iter(el, name: str):
-    return (c for c in el.iter() if _local(c.tag) == name)
+def iter_named(el, name: str):
+    return (c for c in el.iter() if local_name(c.tag) == name)
 
 
 # --------------------------------------------------------------------------- the file
@@ -147,22 +146,22 @@ def parse_landxml(raw: bytes, label: str):
         raise ProfileError(f"is not well-formed XML ({text}, column {col}); export the file "
                            "again from the design program", file=label,
                            where=f"line {line}") from None
-    if _local(root.tag) != "LandXML":
-        raise ProfileError(f"is not a LandXML file (its root element is <{_local(root.tag)}>, "
+    if local_name(root.tag) != "LandXML":
+        raise ProfileError(f"is not a LandXML file (its root element is <{local_name(root.tag)}>, "
                            "not <LandXML>)", file=label)
     return root
 
 
 @lru_cache(maxsize=8)
-def _load(path: str, mtime_ns: int, size: int, label: str) -> Document:
+def load_document(path: str, mtime_ns: int, size: int, label: str) -> Document:
     raw = Path(path).read_bytes()
     root = parse_landxml(raw, label)
     del raw
     messages: list[str] = []
-    units = _child(root, "Units")
+    units = child(root, "Units")
     system = None
     if units is not None:
-        system = next((c for c in units if _local(c.tag) in ("Imperial", "Metric")), None)
+        system = next((c for c in units if local_name(c.tag) in ("Imperial", "Metric")), None)
     if system is None:
         warn(messages, f"{label}: no <Units> in the LandXML file; read as feet - check the "
              "coordinates and elevations")
@@ -195,14 +194,14 @@ def open_landxml(path: Path, label: str) -> Document:
                            f"{MAX_LANDXML_BYTES // 2**20} MiB - export only the alignments and "
                            "surfaces the walls need", file=label)
     try:
-        return _load(str(path), st.st_mtime_ns, st.st_size, label)
+        return load_document(str(path), st.st_mtime_ns, st.st_size, label)
     except OSError as exc:
         raise ProfileError(f"cannot be read ({exc.strerror})", file=label) from None
 
 
-def _named(doc: Document, kind: str, name: str, within=None):
+def named(doc: Document, kind: str, name: str, within=None):
     """The element ``<kind name=...>``; a missing name lists those the file has."""
-    found = list(_iter(within if within is not None else doc.root, kind))
+    found = list(iter_named(within if within is not None else doc.root, kind))
     for el in found:
         if el.get("name") == name:
             return el
@@ -214,7 +213,7 @@ def _named(doc: Document, kind: str, name: str, within=None):
                        file=doc.label)
 
 
-def _numbers(el, what: str, label: str, count: int | None = None) -> list[float]:
+def numbers(el, what: str, label: str, count: int | None = None) -> list[float]:
     text = (el.text or "").split()
     try:
         vals = [float(t) for t in text]
@@ -241,7 +240,7 @@ def _point(el, what: str, doc: Document, cg: dict) -> np.ndarray:
             raise ProfileError(f"{what} refers to point {ref!r}, which is not among the "
                                "file's CgPoints", file=doc.label)
         el = cg[ref]
-    n, e = _numbers(el, what, doc.label, 2)[:2]
+    n, e = numbers(el, what, doc.label, 2)[:2]
     return np.array([e, n]) * doc.ft_linear
 
 
@@ -309,12 +308,12 @@ def _spiral(el, where: str, doc: Document, cg: dict) -> np.ndarray:
     sign = 1.0 if rot == "ccw" else -1.0
     k0 = sign * _radius_curvature(el, "radiusStart", where, doc)
     k1 = sign * _radius_curvature(el, "radiusEnd", where, doc)
-    start = _point(_child(el, "Start"), f"{where} Start", doc, cg)
-    end = _point(_child(el, "End"), f"{where} End", doc, cg)
-    if _child(el, "PI") is None:
+    start = _point(child(el, "Start"), f"{where} Start", doc, cg)
+    end = _point(child(el, "End"), f"{where} End", doc, cg)
+    if child(el, "PI") is None:
         raise ProfileError(f"{where}: needs its PI (where the tangents at its ends meet), "
                            "which gives its direction at the start", file=doc.label)
-    pi = _point(_child(el, "PI"), f"{where} PI", doc, cg)
+    pi = _point(child(el, "PI"), f"{where} PI", doc, cg)
     th0 = math.atan2(*(pi - start)[::-1])
     kmax = max(abs(k0), abs(k1))
     step = math.sqrt(8 * ARC_CHORD_ERROR_FT / kmax) if kmax else length
@@ -340,41 +339,19 @@ def read_alignment_landxml(path: Path, options: dict, label: str) -> LandXMLAlig
     """The named ``<Alignment>`` as a plan polyline in up-station order."""
     doc = open_landxml(path, label)
     name = options["alignment"]
-    al = _named(doc, "Alignment", name)
+    al = named(doc, "Alignment", name)
     what = f"alignment {name!r}"
-    if _child(al, "StaEquation") is not None:
+    if child(al, "StaEquation") is not None:
         raise ProfileError(f"{what} has station equations (StaEquation); they are not "
                            "supported - give the wall one continuous stationing", file=label)
-    geom = _child(al, "CoordGeom")
+    geom = child(al, "CoordGeom")
     if geom is None or not len(geom):
         raise ProfileError(f"{what} has no <CoordGeom> geometry", file=label)
-    cg = {p.get("name"): p for p in _iter(doc.root, "CgPoint") if p.get("name")}
+    cg = {p.get("name"): p for p in iter_named(doc.root, "CgPoint") if p.get("name")}
     pieces = []
     for k, el in enumerate(geom, 1):
-        kind = _local(el.tag)
-        where = f"{what}, element {k} ({kind})"
-        if kind == "Line":
-            pts = np.vstack([_point(_child(el, "Start"), f"{where} Start", doc, cg),
-                             _point(_child(el, "End"), f"{where} End", doc, cg)])
-        elif kind == "Curve":
-            pts = _arc(_point(_child(el, "Start"), f"{where} Start", doc, cg),
-                       _point(_child(el, "Center"), f"{where} Center", doc, cg),
-                       _point(_child(el, "End"), f"{where} End", doc, cg),
-                       (el.get("rot") or "").strip(), where, label)
-        elif kind == "IrregularLine":
-            lst = _child(el, "PntList2D")
-            if lst is None:
-                raise ProfileError(f"{where} has no PntList2D", file=label)
-            vals = _numbers(lst, where, label)
-            if len(vals) < 4 or len(vals) % 2:
-                raise ProfileError(f"{where}: PntList2D must hold pairs N E", file=label)
-            ne = np.array(vals).reshape(-1, 2)
-            pts = ne[:, ::-1] * doc.ft_linear
-        elif kind == "Spiral":
-            pts = _spiral(el, where, doc, cg)
-        else:
-            raise ProfileError(f"{where}: <{kind}> is not supported in an alignment (Line, "
-                               "Curve and IrregularLine are)", file=label)
+        where = f"{what}, element {k} ({local_name(el.tag)})"
+        pts = _element_points(el, where, doc, cg, label)
         if pieces:
             gap = float(np.hypot(*(pts[0] - pieces[-1][-1])))
             if gap > JOIN_TOL_FT:
@@ -383,18 +360,9 @@ def read_alignment_landxml(path: Path, options: dict, label: str) -> LandXMLAlig
                                    "alignment must be continuous", file=label)
             pts = pts[1:]
         pieces.append(pts)
-    xy = np.vstack(pieces)
-    base = alignment_from_xy(xy, f"{label} [{what}]")
+    base = alignment_from_xy(np.vstack(pieces), f"{label} [{what}]")
     messages = list(doc.messages)
-    stated = al.get("length")
-    if stated is not None:
-        try:
-            length = float(stated) * doc.ft_linear
-        except ValueError:
-            length = None
-        if length is not None and abs(length - base.length_ft) > max(0.01, 1e-5 * length):
-            warn(messages, f"{label} {what}: its length attribute says {length:.3f} ft but "
-                 f"its geometry is {base.length_ft:.3f} ft long; the geometry is used")
+    _check_stated_length(al, base.length_ft, doc, messages, f"{label} {what}")
     start = al.get("staStart")
     start_ft = None
     if start is not None:
@@ -407,267 +375,40 @@ def read_alignment_landxml(path: Path, options: dict, label: str) -> LandXMLAlig
                             (str(path.resolve()), name))
 
 
-# --------------------------------------------------------------------------- profiles
-
-
-@dataclass(frozen=True)
-class VerticalAlignment:
-    """PVIs (station, elevation, ft) with a vertical curve at each interior PVI: kind
-    ``""`` (none), ``"para"`` (symmetric parabola, ``size`` = its length) or ``"circ"``
-    (circular arc, ``size`` = its radius)."""
-
-    station: np.ndarray
-    elevation: np.ndarray
-    kind: tuple[str, ...]
-    size: np.ndarray
-
-    @property
-    def grades(self) -> np.ndarray:
-        return np.diff(self.elevation) / np.diff(self.station)
-
-    def curve_ends(self) -> np.ndarray:
-        """(BVC, EVC) station of each PVI's curve (both the PVI where it has none)."""
-        g = self.grades
-        out = np.column_stack([self.station, self.station])
-        for k in range(1, len(self.station) - 1):
-            g1, g2 = g[k - 1], g[k]
-            if self.kind[k] == "para":
-                out[k] = self.station[k] - self.size[k] / 2, self.station[k] + self.size[k] / 2
-            elif self.kind[k] == "circ":
-                a1, a2 = math.atan(g1), math.atan(g2)
-                t = self.size[k] * math.tan(abs(a2 - a1) / 2)
-                out[k] = self.station[k] - t * math.cos(a1), self.station[k] + t * math.cos(a2)
-        return out
-
-    def elevation_at(self, station_ft) -> np.ndarray:
-        """Exact elevation: the tangents, and each vertical curve where it runs."""
-        shape = np.shape(station_ft)
-        s = np.clip(np.atleast_1d(np.asarray(station_ft, dtype=float)), self.station[0],
-                    self.station[-1])
-        z = np.interp(s, self.station, self.elevation)
-        g = self.grades
-        ends = self.curve_ends()
-        for k in range(1, len(self.station) - 1):
-            if not self.kind[k]:
-                continue
-            bvc, evc = ends[k]
-            on = (s > bvc) & (s < evc)
-            if not on.any():
-                continue
-            g1, g2 = g[k - 1], g[k]
-            sk, zk = self.station[k], self.elevation[k]
-            if self.kind[k] == "para":
-                # symmetric parabola: z = z_BVC + g1 x + (g2 - g1) x^2 / (2 L), x from BVC
-                length = self.size[k]
-                x = s[on] - bvc
-                z[on] = zk - g1 * length / 2 + g1 * x + (g2 - g1) * x**2 / (2 * length)
-            else:  # circle of radius R tangent to both grades
-                r = self.size[k]
-                a1, a2 = math.atan(g1), math.atan(g2)
-                t = r * math.tan(abs(a2 - a1) / 2)
-                p1 = np.array([sk - t * math.cos(a1), zk - t * math.sin(a1)])
-                up = 1.0 if a2 > a1 else -1.0  # sag: centre above the curve
-                c = p1 + up * r * np.array([-math.sin(a1), math.cos(a1)])
-                z[on] = c[1] - up * np.sqrt(np.maximum(r**2 - (s[on] - c[0]) ** 2, 0.0))
-        return float(z[0]) if shape == () else z.reshape(shape)
-
-    def points(self) -> np.ndarray:
-        """Stations along the profile: PVIs, curve ends, each curve's high or low point and
-        points along each curve within ``VERTICAL_CHORD_ERROR_FT`` of it."""
-        g = self.grades
-        ends = self.curve_ends()
-        out = [self.station]
-        for k in range(1, len(self.station) - 1):
-            if not self.kind[k]:
-                continue
-            bvc, evc = ends[k]
-            g1, g2 = g[k - 1], g[k]
-            if self.kind[k] == "para":
-                curvature = abs(g2 - g1) / self.size[k]
-            else:
-                curvature = 1.0 / self.size[k]
-            step = math.sqrt(8 * VERTICAL_CHORD_ERROR_FT / curvature) if curvature else evc - bvc
-            n = max(1, math.ceil((evc - bvc) / step))
-            out.append(bvc + (evc - bvc) * np.arange(n + 1) / n)
-            if g1 * g2 < 0:  # the high or low point, where the grade is zero
-                if self.kind[k] == "para":
-                    out.append([bvc - g1 * self.size[k] / (g2 - g1)])
-                else:
-                    out.append([_circle_level_point(self, k)])
-        st = np.unique(np.concatenate([np.asarray(o, dtype=float) for o in out]))
-        return st[(st >= self.station[0]) & (st <= self.station[-1])]
-
-
-def _circle_level_point(va: VerticalAlignment, k: int) -> float:
-    """Station of the centre of PVI ``k``'s circular curve (where its grade is zero)."""
-    g = va.grades
-    a1 = math.atan(g[k - 1])
-    a2 = math.atan(g[k])
-    t = va.size[k] * math.tan(abs(a2 - a1) / 2)
-    up = 1.0 if a2 > a1 else -1.0
-    return va.station[k] - t * math.cos(a1) - up * va.size[k] * math.sin(a1)
-
-
-def _vertical(prof, what: str, doc: Document) -> VerticalAlignment:
-    rows = []
-    for el in prof:
-        kind = _local(el.tag)
-        if kind not in ("PVI", "ParaCurve", "CircCurve", "UnsymParaCurve"):
-            continue
-        where = f"{what}, <{kind}> {len(rows) + 1}"
-        if kind == "UnsymParaCurve":
-            raise ProfileError(f"{where}: unsymmetrical vertical curves are not supported; "
-                               "use symmetric ParaCurves", file=doc.label)
-        sta, elev = _numbers(el, where, doc.label, 2)[:2]
-        size = 0.0
-        if kind != "PVI":
-            attr = "length" if kind == "ParaCurve" else "radius"
-            try:
-                size = float(el.get(attr, "nan"))
-            except ValueError:
-                size = math.nan
-            if not (math.isfinite(size) and size >= 0):
-                raise ProfileError(f"{where}: needs a {attr} (a number, ft or file units)",
-                                   file=doc.label)
-            size *= doc.ft_linear
-        code = {"PVI": "", "ParaCurve": "para", "CircCurve": "circ"}[kind]
-        rows.append((sta * doc.ft_linear, elev * doc.ft_elevation, code if size > 0 else "",
-                     size))
-    if len(rows) < 2:
-        raise ProfileError(f"{what} has fewer than two PVIs", file=doc.label)
-    st = np.array([r[0] for r in rows])
-    if (np.diff(st) <= 0).any():
-        k = int(np.argmax(np.diff(st) <= 0)) + 1
-        raise ProfileError(f"{what}: PVI {k + 1} at station {format_station(st[k])} does not "
-                           "come after the one before it; PVIs must be in station order",
-                           file=doc.label)
-    kinds = tuple(r[2] for r in rows)
-    if kinds[0] or kinds[-1]:
-        raise ProfileError(f"{what}: a vertical curve at the first or last PVI has no grade "
-                           "on one side; end the profile with a plain PVI", file=doc.label)
-    va = VerticalAlignment(st, np.array([r[1] for r in rows]), kinds,
-                           np.array([r[3] for r in rows]))
-    ends = va.curve_ends()
-    for k in range(1, len(st)):
-        if ends[k, 0] < ends[k - 1, 1] - 1e-6:
-            raise ProfileError(f"{what}: the vertical curves at stations "
-                               f"{format_station(st[k - 1])} and {format_station(st[k])} "
-                               "overlap (or a curve runs past the profile's end); shorten one",
-                               file=doc.label)
-    return va
-
-
-def read_profile_landxml(path: Path, options: dict, label: str, *, alignment=None,
-                         start_station_ft: float | None = None) -> DrawingProfile:
-    """The named ``<ProfAlign>`` (or ``<ProfSurf>``) of the named alignment.
-
-    Its stations are the alignment's own. Where the wall is that very alignment
-    (``alignment``, from the same file) and its start station was moved from the file's
-    ``staStart`` (``start_station_ft``), the profile moves with it, and a warning says so."""
-    profile = _read_profile(path, options, label)
-    source = getattr(alignment, "source", None)
-    sta_start = getattr(alignment, "start_station_ft", None)
-    if (source != (str(path.resolve()), options["alignment"]) or sta_start is None
-            or start_station_ft is None or abs(start_station_ft - sta_start) < 1e-9):
-        return profile
-    shift = float(start_station_ft - sta_start)
-    messages = list(profile.warnings)
-    warn(messages, f"{profile.label}: stations moved by {shift:+.2f} ft with the wall "
-         f"(start_station_ft {format_station(start_station_ft)} instead of the alignment's "
-         f"staStart {format_station(sta_start)})")
-    st = profile.station_ft + shift
-    if isinstance(profile, CurvedProfile):
-        exact = profile.exact
-        return CurvedProfile(st, profile.elevation_ft, profile.label, tuple(messages),
-                             lambda s: exact(np.asarray(s, dtype=float) - shift))
-    return DrawingProfile(st, profile.elevation_ft, profile.label, tuple(messages))
-
-
-def _read_profile(path: Path, options: dict, label: str) -> DrawingProfile:
-    doc = open_landxml(path, label)
-    al = _named(doc, "Alignment", options["alignment"])
-    name = options["profile"]
-    found = [el for p in _children(al, "Profile") for el in p
-             if _local(el.tag) in ("ProfAlign", "ProfSurf")]
-    prof = next((el for el in found if el.get("name") == name), None)
-    if prof is None:
-        have = ", ".join(repr(el.get("name") or "(unnamed)") for el in found) or "none"
-        raise ProfileError(f"alignment {options['alignment']!r} has no profile named {name!r};"
-                           f" its profiles: {have}", file=label)
-    what = f"profile {name!r} of alignment {options['alignment']!r}"
-    tag = f"{label} [{what}]"
-    if _local(prof.tag) == "ProfSurf":
-        vals = [v for lst in _iter(prof, "PntList2D") for v in _numbers(lst, what, label)]
+def _element_points(el, where: str, doc: Document, cg: dict, label: str) -> np.ndarray:
+    """One ``<CoordGeom>`` element as plan points (x, y) in ft, arcs and spirals as chords."""
+    kind = local_name(el.tag)
+    if kind == "Line":
+        return np.vstack([_point(child(el, "Start"), f"{where} Start", doc, cg),
+                          _point(child(el, "End"), f"{where} End", doc, cg)])
+    if kind == "Curve":
+        return _arc(_point(child(el, "Start"), f"{where} Start", doc, cg),
+                    _point(child(el, "Center"), f"{where} Center", doc, cg),
+                    _point(child(el, "End"), f"{where} End", doc, cg),
+                    (el.get("rot") or "").strip(), where, label)
+    if kind == "IrregularLine":
+        lst = child(el, "PntList2D")
+        if lst is None:
+            raise ProfileError(f"{where} has no PntList2D", file=label)
+        vals = numbers(lst, where, label)
         if len(vals) < 4 or len(vals) % 2:
-            raise ProfileError(f"{what}: PntList2D must hold at least two pairs of station "
-                               "elevation", file=label)
-        se = np.array(vals).reshape(-1, 2)
-        st, el = se[:, 0] * doc.ft_linear, se[:, 1] * doc.ft_elevation
-        order = np.argsort(st, kind="stable")
-        st, el = st[order], el[order]
-        keep = np.r_[True, np.diff(st) > 1e-9]
-        return DrawingProfile(st[keep], el[keep], tag, doc.messages)
-    va = _vertical(prof, what, doc)
-    st = va.points()
-    return CurvedProfile(st, va.elevation_at(st), tag, doc.messages, va.elevation_at)
+            raise ProfileError(f"{where}: PntList2D must hold pairs N E", file=label)
+        return np.array(vals).reshape(-1, 2)[:, ::-1] * doc.ft_linear
+    if kind == "Spiral":
+        return _spiral(el, where, doc, cg)
+    raise ProfileError(f"{where}: <{kind}> is not supported in an alignment (Line, "
+                       "Curve and IrregularLine are)", file=label)
 
 
-# --------------------------------------------------------------------------- surfaces
-
-
-@lru_cache(maxsize=8)
-def _surface(path: str, mtime_ns: int, size: int, label: str, name: str):
-    from .surface import make_surface
-
-    doc = _load(path, mtime_ns, size, label)
-    surf = _named(doc, "Surface", name)
-    what = f"surface {name!r}"
-    defs = _children(surf, "Definition")
-    if not defs:
-        raise ProfileError(f"{what} has no <Definition> (points and faces)", file=label)
-    d = defs[0]
-    kind = d.get("surfType", "TIN")
-    if kind.upper() != "TIN":
-        raise ProfileError(f"{what} is surfType={kind!r}; only TIN surfaces are read",
-                           file=label)
-    ids: dict[str, int] = {}
-    coords = []
-    for p in (p for pn in _children(d, "Pnts") for p in _children(pn, "P")):
-        pid = p.get("id")
-        vals = _numbers(p, f"{what} point {pid}", label, 3)
-        if pid in ids:
-            raise ProfileError(f"{what}: point id {pid} is used twice", file=label)
-        ids[pid] = len(coords)
-        coords.append(vals[:3])
-    if len(coords) < 3:
-        raise ProfileError(f"{what} has fewer than three points", file=label)
-    faces = []
-    hidden = 0
-    for k, f in enumerate((f for fc in _children(d, "Faces") for f in _children(fc, "F")), 1):
-        if (f.get("i") or "0").strip() == "1":
-            hidden += 1
-            continue
-        refs = (f.text or "").split()
-        if len(refs) != 3:
-            raise ProfileError(f"{what}: face {k} has {len(refs)} points; a TIN face has "
-                               "three", file=label)
-        try:
-            faces.append([ids[r] for r in refs])
-        except KeyError as exc:
-            raise ProfileError(f"{what}: face {k} refers to point {exc.args[0]}, which is "
-                               "not among its points", file=label) from None
-    if not faces:
-        raise ProfileError(f"{what} has no visible faces", file=label)
-    pts = np.array(coords, dtype=float)
-    xy = pts[:, [1, 0]] * doc.ft_linear  # "N E Z": x = easting, y = northing
-    z = pts[:, 2] * doc.ft_elevation
-    messages = list(doc.messages)
-    return make_surface(xy, z, faces, name=f"surface {name!r}", label=label,
-                        messages=messages)
-
-
-def read_surface_landxml(path: Path, options: dict, label: str):
-    """The named TIN ``<Surface>`` as a :class:`~.surface.Surface`."""
-    doc_stat = path.stat()
-    open_landxml(path, label)  # size check, parse, units
-    return _surface(str(path), doc_stat.st_mtime_ns, doc_stat.st_size, label, options["surface"])
+def _check_stated_length(al, length_ft: float, doc: Document, messages: list, what: str):
+    """A warning where the alignment's ``length`` attribute disagrees with its geometry."""
+    stated = al.get("length")
+    if stated is None:
+        return
+    try:
+        length = float(stated) * doc.ft_linear
+    except ValueError:
+        return
+    if abs(length - length_ft) > max(0.01, 1e-5 * length):
+        warn(messages, f"{what}: its length attribute says {length:.3f} ft but "
+             f"its geometry is {length_ft:.3f} ft long; the geometry is used")

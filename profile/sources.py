@@ -286,7 +286,7 @@ def read_surface(src, site_folder):
     """The TIN of a surface source (LandXML surface, DXF TIN or survey points)."""
     label = _label(src, site_folder)
     if src.kind == "landxml":
-        from .landxml import read_surface_landxml
+        from .landxml_surface import read_surface_landxml
 
         return read_surface_landxml(src.path, src.options, label)
     if src.kind == "dxf":
@@ -330,7 +330,7 @@ def read_grade(src, site_folder, *, alignment: Alignment, start_station_ft: floa
                              offset_ft=float(options.get("offset_ft", 0.0)), sign=sign,
                              what=what, side=side)
     if src.kind == "landxml":
-        from .landxml import read_profile_landxml
+        from .landxml_profile import read_profile_landxml
 
         return read_profile_landxml(src.path, options, label, **along)
     if src.kind == "dxf":

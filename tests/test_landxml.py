@@ -20,12 +20,9 @@ import numpy as np
 import pytest
 import surfacekit as kit
 from wallsched.profile.core import ProfileWarning
-from wallsched.profile.landxml import (
-    parse_landxml,
-    read_alignment_landxml,
-    read_profile_landxml,
-    read_surface_landxml,
-)
+from wallsched.profile.landxml import parse_landxml, read_alignment_landxml
+from wallsched.profile.landxml_profile import read_profile_landxml
+from wallsched.profile.landxml_surface import read_surface_landxml
 
 from wallsched.errors import ProfileError
 
