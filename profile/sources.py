@@ -177,6 +177,14 @@ def check_option_values(kind: str, options: Mapping[str, Any], *, file, key: str
         check_surface_options(kind, options, file=file, key=key)
         if kind != "dxf":
             return
+    _check_names_and_values(kind, options, file=file, key=key)
+    _check_numbers(options, file=file, key=key)
+    _check_label_options(options, file=file, key=key)
+    _check_view(options, file=file, key=key)
+
+
+def _check_names_and_values(kind: str, options, *, file, key: str) -> None:
+    """The layer, field and value that pick the drawn or mapped feature; the units."""
     for name in ("layer", "field", "to_crs", "pattern"):
         v = options.get(name)
         if v is not None and (not isinstance(v, str) or not v.strip()):
@@ -197,6 +205,9 @@ def check_option_values(kind: str, options: Mapping[str, Any], *, file, key: str
         raise InputError(f"units = {u!r:.60} is not known; use one of "
                          + ", ".join(f'"{n}"' for n in UNIT_NAMES), file=file,
                          where=f"{key}.units")
+
+
+def _check_numbers(options, *, file, key: str) -> None:
     start = options.get("start")
     if start is not None and not (isinstance(start, str) and start.lower() in (
             "first vertex", "last vertex")):
@@ -209,6 +220,10 @@ def check_option_values(kind: str, options: Mapping[str, Any], *, file, key: str
     _number(options, "origin_elevation_ft", file=file, key=key)
     _number(options, "vertical_exaggeration", file=file, key=key, positive=True,
             hi=MAX_VERTICAL_EXAGGERATION)
+
+
+def _check_label_options(options, *, file, key: str) -> None:
+    """Spot labels (TW or BW), their pattern and the TW allowance."""
     labels = options.get("labels")
     if labels is not None and (not isinstance(labels, str) or labels.upper() not in ("TW", "BW")):
         raise InputError(f"labels = {labels!r:.60}; use \"TW\" (top of wall / retained grade) or "
@@ -228,14 +243,20 @@ def check_option_values(kind: str, options: Mapping[str, Any], *, file, key: str
             compile_pattern(options["pattern"])
         except ValueError as exc:
             raise InputError(f"pattern {exc}", file=file, where=f"{key}.pattern") from None
+
+
+PROFILE_VIEW_KEYS = ("origin_station_ft", "origin_elevation_ft", "vertical_exaggeration",
+                     "origin_xy")
+
+
+def _check_view(options, *, file, key: str) -> None:
+    """A plan source, or a profile view with its origin."""
     view = options.get("view", "plan")
     if view not in ("plan", "profile"):
         raise InputError(f"view = {view!r:.60}; use \"plan\" (lines drawn in plan, the default) or "
                          "\"profile\" (a profile view)", file=file, where=f"{key}.view")
-    profile_keys = ("origin_station_ft", "origin_elevation_ft", "vertical_exaggeration",
-                    "origin_xy")
     if view == "profile":
-        if labels is not None:
+        if options.get("labels") is not None:
             raise InputError("labels are read in plan; remove view = \"profile\" or labels",
                              file=file, where=key)
         for name in ("origin_station_ft", "origin_elevation_ft"):
@@ -246,7 +267,7 @@ def check_option_values(kind: str, options: Mapping[str, Any], *, file, key: str
             raise InputError("'max_offset_ft' applies to plan sources, not to a profile view",
                              file=file, where=f"{key}.max_offset_ft")
     else:
-        for name in profile_keys:
+        for name in PROFILE_VIEW_KEYS:
             if name in options:
                 raise InputError(f"'{name}' applies to a profile view; add view = \"profile\"",
                                  file=file, where=f"{key}.{name}")
