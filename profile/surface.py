@@ -213,37 +213,9 @@ def surface_grade(surface: Surface, alignment: Alignment, *, start_station_ft: f
     messages = list(surface.warnings)
     q, st = offset_line(alignment, offset_ft, sign, label=alignment.label,
                         start_station_ft=start_station_ft)
-    nodes_st = [st]
-    nodes_xy = [q]
-    edges = surface.edges()
-    a, b = q[:-1], q[1:]
-    lines = shapely.linestrings(np.stack([a, b], axis=1))
-    e_lines = shapely.linestrings(surface.xy[edges])
-    tree = shapely.STRtree(e_lines)
-    i, j = tree.query(lines, predicate="intersects")
-    if i.size:
-        p, r = a[i], b[i] - a[i]
-        e0 = surface.xy[edges[j, 0]]
-        s = surface.xy[edges[j, 1]] - e0
-        rxs = r[:, 0] * s[:, 1] - r[:, 1] * s[:, 0]
-        w = e0 - p
-        par = np.abs(rxs) <= 1e-12 * np.hypot(r[:, 0], r[:, 1]) * np.hypot(s[:, 0], s[:, 1])
-        t = np.empty(i.size)
-        ok = ~par
-        t[ok] = (w[ok, 0] * s[ok, 1] - w[ok, 1] * s[ok, 0]) / rxs[ok]
-        ts = [t[ok]]
-        segs = [i[ok]]
-        if par.any():  # an edge along the line: both its ends
-            rr = np.einsum("ij,ij->i", r[par], r[par])
-            for end in (edges[j[par], 0], edges[j[par], 1]):
-                ts.append(np.einsum("ij,ij->i", surface.xy[end] - p[par], r[par]) / rr)
-                segs.append(i[par])
-        t = np.clip(np.concatenate(ts), 0.0, 1.0)
-        k = np.concatenate(segs)
-        nodes_st.append(st[k] + t * (st[k + 1] - st[k]))
-        nodes_xy.append(a[k] + t[:, None] * (b[k] - a[k]))
-    all_st = np.concatenate(nodes_st)
-    all_xy = np.concatenate(nodes_xy)
+    cross_st, cross_xy = _edge_crossings(surface, q, st)
+    all_st = np.concatenate([st, cross_st])
+    all_xy = np.concatenate([q, cross_xy])
     order = np.argsort(all_st, kind="stable")
     all_st, all_xy = all_st[order], all_xy[order]
     first = np.r_[True, np.diff(all_st) > NODE_MERGE_FT]
@@ -253,24 +225,60 @@ def surface_grade(surface: Surface, alignment: Alignment, *, start_station_ft: f
     z = surface.elevation(np.vstack([all_xy, mid_xy]))
     zn, zm = z[:len(all_st)], z[len(all_st):]
     if np.isnan(zn).any() or np.isnan(zm).any():
-        out_node = np.isnan(zn)
-        out_mid = np.isnan(zm)
-        # the uncovered stretches, in station order
-        bad = np.zeros(2 * len(all_st) - 1, bool)
-        bad[0::2], bad[1::2] = out_node, out_mid
-        pos = np.empty(2 * len(all_st) - 1)
-        pos[0::2] = all_st
-        pos[1::2] = (all_st[:-1] + all_st[1:]) / 2
-        k = int(np.argmax(bad))
-        lo_k = k - 1 if k > 0 else k  # from the last covered point before it
-        hi_k = k
-        while hi_k + 1 < bad.size and bad[hi_k]:
-            hi_k += 1
-        xy_at = all_xy[k // 2] if k % 2 == 0 else mid_xy[k // 2]
-        raise ProfileError(
-            f"{surface.name} does not cover stations {format_station(pos[lo_k])} to "
-            f"{format_station(pos[hi_k])} of the {what} ({offset_ft:g} ft to the {side} of "
-            f"the wall; e.g. plan point {xy_at[0]:.2f}, {xy_at[1]:.2f} at station "
-            f"{format_station(pos[k])}) - extend the surface past the wall or check "
-            "offset_ft and the coordinates", file=surface.label)
+        _not_covered(surface, all_st, all_xy, mid_xy, np.isnan(zn), np.isnan(zm),
+                     what=what, offset_ft=offset_ft, side=side)
     return DrawingProfile(all_st, zn, f"{surface.label} [{surface.name}]", tuple(messages))
+
+
+def _edge_crossings(surface: Surface, q: np.ndarray, st: np.ndarray):
+    """Stations and plan points where the polyline ``q`` (at stations ``st``) crosses a
+    triangle edge of ``surface`` (both ends of an edge that runs along it)."""
+    edges = surface.edges()
+    a, b = q[:-1], q[1:]
+    lines = shapely.linestrings(np.stack([a, b], axis=1))
+    tree = shapely.STRtree(shapely.linestrings(surface.xy[edges]))
+    i, j = tree.query(lines, predicate="intersects")
+    if not i.size:
+        return np.empty(0), np.empty((0, 2))
+    p, r = a[i], b[i] - a[i]
+    e0 = surface.xy[edges[j, 0]]
+    s = surface.xy[edges[j, 1]] - e0
+    rxs = r[:, 0] * s[:, 1] - r[:, 1] * s[:, 0]
+    w = e0 - p
+    par = np.abs(rxs) <= 1e-12 * np.hypot(r[:, 0], r[:, 1]) * np.hypot(s[:, 0], s[:, 1])
+    t = np.empty(i.size)
+    ok = ~par
+    t[ok] = (w[ok, 0] * s[ok, 1] - w[ok, 1] * s[ok, 0]) / rxs[ok]
+    ts = [t[ok]]
+    segs = [i[ok]]
+    if par.any():  # an edge along the line: both its ends
+        rr = np.einsum("ij,ij->i", r[par], r[par])
+        for end in (edges[j[par], 0], edges[j[par], 1]):
+            ts.append(np.einsum("ij,ij->i", surface.xy[end] - p[par], r[par]) / rr)
+            segs.append(i[par])
+    t = np.clip(np.concatenate(ts), 0.0, 1.0)
+    k = np.concatenate(segs)
+    return st[k] + t * (st[k + 1] - st[k]), a[k] + t[:, None] * (b[k] - a[k])
+
+
+def _not_covered(surface: Surface, all_st, all_xy, mid_xy, out_node, out_mid, *, what: str,
+                 offset_ft: float, side: str):
+    """The error naming the first stretch of the line that ``surface`` does not cover."""
+    # the uncovered stretches, in station order
+    bad = np.zeros(2 * len(all_st) - 1, bool)
+    bad[0::2], bad[1::2] = out_node, out_mid
+    pos = np.empty(2 * len(all_st) - 1)
+    pos[0::2] = all_st
+    pos[1::2] = (all_st[:-1] + all_st[1:]) / 2
+    k = int(np.argmax(bad))
+    lo_k = k - 1 if k > 0 else k  # from the last covered point before it
+    hi_k = k
+    while hi_k + 1 < bad.size and bad[hi_k]:
+        hi_k += 1
+    xy_at = all_xy[k // 2] if k % 2 == 0 else mid_xy[k // 2]
+    raise ProfileError(
+        f"{surface.name} does not cover stations {format_station(pos[lo_k])} to "
+        f"{format_station(pos[hi_k])} of the {what} ({offset_ft:g} ft to the {side} of "
+        f"the wall; e.g. plan point {xy_at[0]:.2f}, {xy_at[1]:.2f} at station "
+        f"{format_station(pos[k])}) - extend the surface past the wall or check "
+        "offset_ft and the coordinates", file=surface.label)
