@@ -76,6 +76,31 @@ def _crs_scale(crs, options: Mapping[str, Any], label: str) -> float:
 
 def read_feature(path: Path, options: Mapping[str, Any], label: str):
     """(shapely geometry in feet, feature description) of the chosen feature."""
+    frame = _read_frame(path, options, label)
+    scale = _crs_scale(frame.crs, options, label)
+    row, where = _pick_row(frame, options, label)
+    geom = row.geometry
+    if geom is None or geom.is_empty:
+        raise ProfileError("the feature has no geometry", file=label, where=where)
+    if geom.geom_type == "MultiLineString":
+        geom = shapely.line_merge(geom)
+    if geom.geom_type != "LineString":
+        raise ProfileError(f"the feature is a {geom.geom_type}; a wall needs one connected "
+                           "line", file=label, where=where)
+    coords = np.asarray(geom.coords, dtype=float) * scale
+    if not np.isfinite(coords).all() or np.abs(coords).max() > MAX_COORDINATE_FT:
+        bad = int(np.argmax(~np.isfinite(coords).all(axis=1)
+                            | (np.abs(np.nan_to_num(coords, nan=np.inf)) > MAX_COORDINATE_FT
+                               ).any(axis=1)))
+        raise ProfileError(f"vertex {bad + 1} of the feature is {tuple(coords[bad])}: a "
+                           "coordinate or z that is not a finite number of at most "
+                           f"{MAX_COORDINATE_FT:.0e} ft; fix the feature", file=label,
+                           where=where)
+    return coords, where, scale
+
+
+def _read_frame(path: Path, options: Mapping[str, Any], label: str):
+    """The file's layer as a GeoDataFrame, reprojected by ``to_crs`` when given."""
     import geopandas as gpd
 
     kw = {}
@@ -96,50 +121,35 @@ def read_feature(path: Path, options: Mapping[str, Any], label: str):
             raise ProfileError(f"to_crs = {options['to_crs']!r:.40} cannot be used ({text}); "
                                "give a projected CRS such as \"EPSG:2227\"", file=label,
                                where="to_crs") from None
-    scale = _crs_scale(frame.crs, options, label)
+    return frame
+
+
+def _pick_row(frame, options: Mapping[str, Any], label: str):
+    """The one feature the options choose (the only one, or ``field`` = ``value``) and its
+    description."""
     field = options.get("field")
     if field is None:
         if len(frame) != 1:
             raise ProfileError(f"holds {len(frame)} features; pick one with field = \"...\" "
                                "and value = ...", file=label)
-        row = frame.iloc[0]
-        where = "feature 1"
-    else:
-        if field not in frame.columns:
-            cols = [c for c in frame.columns if c != frame.geometry.name]
-            raise ProfileError(f"has no field '{field}'; fields: {', '.join(map(str, cols))}",
-                               file=label, where=f"field {field}")
-        value = options["value"]
-        col = frame[field]
-        hit = col.astype(str) == str(value)
-        if isinstance(value, (int, float)) and not isinstance(value, bool):
-            with contextlib.suppress(TypeError, ValueError):
-                hit = hit | (col.astype(float) == float(value))
-        where = f"{field} = {value!r}"
-        if int(hit.sum()) != 1:
-            some = ", ".join(sorted({str(v) for v in col})[:12])
-            what = "no feature has" if not hit.any() else f"{int(hit.sum())} features have"
-            raise ProfileError(f"{what} {where}; values present: {some}", file=label,
-                               where=where)
-        row = frame[hit].iloc[0]
-    geom = row.geometry
-    if geom is None or geom.is_empty:
-        raise ProfileError("the feature has no geometry", file=label, where=where)
-    if geom.geom_type == "MultiLineString":
-        geom = shapely.line_merge(geom)
-    if geom.geom_type != "LineString":
-        raise ProfileError(f"the feature is a {geom.geom_type}; a wall needs one connected "
-                           "line", file=label, where=where)
-    coords = np.asarray(geom.coords, dtype=float) * scale
-    if not np.isfinite(coords).all() or np.abs(coords).max() > MAX_COORDINATE_FT:
-        bad = int(np.argmax(~np.isfinite(coords).all(axis=1)
-                            | (np.abs(np.nan_to_num(coords, nan=np.inf)) > MAX_COORDINATE_FT
-                               ).any(axis=1)))
-        raise ProfileError(f"vertex {bad + 1} of the feature is {tuple(coords[bad])}: a "
-                           "coordinate or z that is not a finite number of at most "
-                           f"{MAX_COORDINATE_FT:.0e} ft; fix the feature", file=label,
+        return frame.iloc[0], "feature 1"
+    if field not in frame.columns:
+        cols = [c for c in frame.columns if c != frame.geometry.name]
+        raise ProfileError(f"has no field '{field}'; fields: {', '.join(map(str, cols))}",
+                           file=label, where=f"field {field}")
+    value = options["value"]
+    col = frame[field]
+    hit = col.astype(str) == str(value)
+    if isinstance(value, (int, float)) and not isinstance(value, bool):
+        with contextlib.suppress(TypeError, ValueError):
+            hit = hit | (col.astype(float) == float(value))
+    where = f"{field} = {value!r}"
+    if int(hit.sum()) != 1:
+        some = ", ".join(sorted({str(v) for v in col})[:12])
+        what = "no feature has" if not hit.any() else f"{int(hit.sum())} features have"
+        raise ProfileError(f"{what} {where}; values present: {some}", file=label,
                            where=where)
-    return coords, where, scale
+    return frame[hit].iloc[0], where
 
 
 def read_alignment_gis(path: Path, options: Mapping[str, Any], label: str) -> DrawingAlignment:

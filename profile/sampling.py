@@ -137,8 +137,21 @@ def sample_wall(
             f"{retained.station_ft.size + front.station_ft.size:,} grade points gives more than "
             f"{MAX_STATIONS_PER_WALL:,} stations; raise [criteria] station_interval_ft or thin "
             "the grade profiles", file=alignment.label)
+    st, is_break = _stations(start, end, interval_ft, (retained, front))
+    pts = shapely.line_interpolate_point(alignment.line, st - start)
+    xy = shapely.get_coordinates(pts)
+    rg = retained.at(st)
+    fg = front.at(st)
+    eg = existing.at(st) if existing is not None else np.full(st.size, np.nan)
+    _check_heights(wall, st, rg, fg, retained.label)
+    return WallStations(wall, st, xy[:, 0], xy[:, 1], rg, fg, eg, is_break)
+
+
+def _stations(start: float, end: float, interval_ft: float, profiles):
+    """Regular stations, every grade break of ``profiles`` between the ends, and both ends;
+    stations closer than ``MERGE_TOL_FT`` merged (a break kept if any); (stations, is break)."""
     regular = regular_stations(start, end, interval_ft)
-    breaks = np.concatenate([p.station_ft for p in (retained, front)])
+    breaks = np.concatenate([p.station_ft for p in profiles])
     breaks = breaks[(breaks > start) & (breaks < end)]
     st = np.concatenate([regular, breaks, [start, end]])
     is_break = np.concatenate([np.zeros(regular.size, bool), np.ones(breaks.size, bool),
@@ -151,14 +164,14 @@ def sample_wall(
     brk = np.zeros(int(group[-1]) + 1, bool)
     np.logical_or.at(brk, group, is_break)
     st = st[first]
-    is_break = brk
     # a break within the merge tolerance of an end keeps the exact end station
     st[0], st[-1] = start, end
-    pts = shapely.line_interpolate_point(alignment.line, st - start)
-    xy = shapely.get_coordinates(pts)
-    rg = retained.at(st)
-    fg = front.at(st)
-    eg = existing.at(st) if existing is not None else np.full(st.size, np.nan)
+    return st, brk
+
+
+def _check_heights(wall: str, st, rg, fg, label: str) -> None:
+    """Refuse retained heights no cantilever wall has (units or datum wrong) and a front
+    grade above the retained grade everywhere (sides swapped)."""
     h = rg - fg
     k = int(np.argmax(np.abs(h)))
     if abs(h[k]) > PLAUSIBLE_RETAINED_HEIGHT_FT:
@@ -167,10 +180,9 @@ def sample_wall(
             f"{format_station(st[k])} differ by {abs(h[k]):.2f} ft, more than the plausible "
             f"{PLAUSIBLE_RETAINED_HEIGHT_FT:g} ft for a cantilever wall; check that both grade "
             "files are in feet (not metres), on the same datum and for this wall",
-            file=retained.label)
+            file=label)
     if (h < 0).all():
         raise ProfileError(
             f"wall {wall!r}: the front grade is above the retained grade at every station "
             f"(retained height {h.max():.2f} ft at best); the retained side or the two grade "
-            "files are swapped", file=retained.label)
-    return WallStations(wall, st, xy[:, 0], xy[:, 1], rg, fg, eg, is_break)
+            "files are swapped", file=label)

@@ -152,11 +152,36 @@ def _points(path: str, mtime_ns: int, size: int, label: str, code, max_edge: flo
     if raw.startswith((b"\xff\xfe", b"\xfe\xff")) or b"\x00" in raw:
         raise ProfileError("is not a text file (UTF-16 or binary); save the points as CSV "
                            "UTF-8 text (P,N,E,Z,D)", file=label)
-    text = raw.decode("utf-8-sig", errors="replace")
+    want = code.upper() if isinstance(code, str) else None
+    rows = _point_rows(raw.decode("utf-8-sig", errors="replace"), want, label)
+    what = f"points{f' coded {code!r}' if want else ''}"
+    if len(rows) < 3:
+        raise ProfileError(f"has {len(rows)} {what}; a surface needs at least three (not all on "
+                           "one line)" + ("; check the code" if want else ""), file=label)
+    messages: list[str] = []
+    pts = _distinct_spread(np.array([r[:3] for r in rows], dtype=float), what, label,
+                           messages)
+    tri = Triangulation(pts[:, 0], pts[:, 1]).triangles
+    corners = pts[tri, :2]
+    edge = np.hypot(*np.moveaxis(corners - np.roll(corners, 1, axis=1), 2, 0)).max(axis=1)
+    keep = edge <= max_edge
+    if not keep.any():
+        raise ProfileError(f"no triangle of the {what} has all its edges within max_edge_ft = "
+                           f"{max_edge:g} ft; the points are too far apart (raise max_edge_ft "
+                           "if the ground between them is known to be even)", file=label)
+    if not keep.all():
+        warn(messages, f"{label}: {int((~keep).sum())} triangle(s) with an edge longer than "
+             f"{max_edge:g} ft dropped (gaps in the survey are not bridged)")
+    return make_surface(pts[:, :2], pts[:, 2], tri[keep], name=f"survey {what}", label=label,
+                        messages=messages)
+
+
+def _point_rows(text: str, want: str | None, label: str) -> list[tuple]:
+    """(x, y, z, line) of every point row (coded ``want`` when given); a first row that is
+    not numbers is a header and may name the columns."""
     rows = []
     seen_data = False
     cols = (1, 2, 3, 4)  # P,N,E,Z,D: northing, easting, elevation, description
-    want = code.upper() if isinstance(code, str) else None
     for n, line in enumerate(text.splitlines(), 1):
         if not line.strip() or line.lstrip().startswith("#"):
             continue
@@ -175,12 +200,12 @@ def _points(path: str, mtime_ns: int, size: int, label: str, code, max_edge: flo
         if want is not None and (desc.split() or [""])[0].upper() != want:
             continue
         rows.append((vals[1], vals[0], vals[2], n))  # x = easting, y = northing
-    what = f"points{f' coded {code!r}' if want else ''}"
-    if len(rows) < 3:
-        raise ProfileError(f"has {len(rows)} {what}; a surface needs at least three (not all on "
-                           "one line)" + ("; check the code" if want else ""), file=label)
-    pts = np.array([r[:3] for r in rows], dtype=float)
-    messages: list[str] = []
+    return rows
+
+
+def _distinct_spread(pts: np.ndarray, what: str, label: str, messages: list) -> np.ndarray:
+    """The points without repeats of a plan position (the first kept, with a warning);
+    refused when they lie on one line."""
     key = np.round(pts[:, :2] / MERGE_FT).astype(np.int64)
     _, first = np.unique(key, axis=0, return_index=True)
     if len(first) < len(pts):
@@ -194,16 +219,4 @@ def _points(path: str, mtime_ns: int, size: int, label: str, code, max_edge: flo
     if len(pts) < 3 or spread[-1] / math.sqrt(len(pts)) < MIN_SPREAD_FT:
         raise ProfileError(f"its {len(pts)} {what} lie on one line (or at one place); a "
                            "surface needs points spread in plan", file=label)
-    tri = Triangulation(pts[:, 0], pts[:, 1]).triangles
-    corners = pts[tri, :2]
-    edge = np.hypot(*np.moveaxis(corners - np.roll(corners, 1, axis=1), 2, 0)).max(axis=1)
-    keep = edge <= max_edge
-    if not keep.any():
-        raise ProfileError(f"no triangle of the {what} has all its edges within max_edge_ft = "
-                           f"{max_edge:g} ft; the points are too far apart (raise max_edge_ft "
-                           "if the ground between them is known to be even)", file=label)
-    if not keep.all():
-        warn(messages, f"{label}: {int((~keep).sum())} triangle(s) with an edge longer than "
-             f"{max_edge:g} ft dropped (gaps in the survey are not bridged)")
-    return make_surface(pts[:, :2], pts[:, 2], tri[keep], name=f"survey {what}", label=label,
-                        messages=messages)
+    return pts
