@@ -61,8 +61,6 @@ def draw_section_sketch(pdf, case, *, x_mm: float, y_mm: float, w_mm: float,
                         h_mm: float, font: str) -> float:
     """Draw the sketch of ``case`` into the box (x, y, w, h) of the current page; returns the
     height used (mm)."""
-    from .dxf_elevation import format_ft_in
-
     sec, g, t, hst, (xf0, xb0, xf1, xb1), kd = _geometry(case)
     b = sec.footing_width_ft
     d, hh = float(g.embedment_ft), float(g.design_height_ft)
@@ -86,7 +84,16 @@ def draw_section_sketch(pdf, case, *, x_mm: float, y_mm: float, w_mm: float,
         if sec.has_key:
             kw, ko = sec.key_width_in / 12.0, sec.key_offset_ft
             pen.polygon([(ko, 0), (ko + kw, 0), (ko + kw, -kd), (ko, -kd)])
-    # grades
+    _grades_and_thrust(pen, case, sec, t, hst, (xf0, xb0, xf1, xb1), b, d, hh)
+    _dimensions(pen, sec, g, t, hst, (xf0, xb0, xf1, xb1), b, d, hh, kd)
+    pdf.set_text_color(0)
+    pdf.set_draw_color(0)
+    return title_mm + (ymax - ymin) * scale
+
+
+def _grades_and_thrust(pen, case, sec, t, hst, faces, b, d, hh) -> None:
+    """Both grades and the thrust components on the plane through the heel edge."""
+    xf0, xb0, xf1, xb1 = faces
     x_back_at_h = xb0 + (xb1 - xb0) * (hh - t) / hst if hst > 0 else xb0
     pen.line(x_back_at_h, hh, b + 1.5, hh, rgb=RETAINED_RGB, width=0.5)
     pen.label(b + 1.55, hh, "retained grade", anchor="left")
@@ -100,7 +107,13 @@ def draw_section_sketch(pdf, case, *, x_mm: float, y_mm: float, w_mm: float,
             pen.arrow(b + 1.2, y, b, y, rgb=THRUST_RGB)
             pen.label(b + 1.25, y, f"{comp.name} {float(comp.horizontal_lb):,.0f} lb/ft @ "
                       f"{y:.2f} ft", anchor="left", rgb=THRUST_RGB)
-    # dimensions
+
+
+def _dimensions(pen, sec, g, t, hst, faces, b, d, hh, kd) -> None:
+    """The footing, stem, embedment and height dimensions, and the key's size."""
+    from .dxf_elevation import format_ft_in
+
+    xf0, xb0, xf1, xb1 = faces
     yb = -kd - 0.5
     pen.dim_h(0, sec.toe_ft, yb, f"toe {format_ft_in(sec.toe_ft)}")
     pen.dim_h(xf0, xb0, yb - 0.55, f"stem {sec.stem_base_in:g}\"")
@@ -114,11 +127,9 @@ def draw_section_sketch(pdf, case, *, x_mm: float, y_mm: float, w_mm: float,
     pen.dim_v(xf0 - 0.35 if sec.toe_ft > 0.8 else xf0 + (xb1 - xf0) / 2, t, t + hst,
               f"stem {hst:.2f}'")
     if sec.has_key:
+        kw, ko = sec.key_width_in / 12.0, sec.key_offset_ft
         pen.label(ko + kw / 2, -kd - 0.1, f"key {sec.key_width_in:g}\" x {sec.key_depth_in:g}\"",
                   anchor="center", valign="top")
-    pdf.set_text_color(0)
-    pdf.set_draw_color(0)
-    return title_mm + (ymax - ymin) * scale
 
 
 class _Pen:
