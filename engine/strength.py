@@ -390,7 +390,7 @@ class FootingResult(MemberResult):
     hook_angle_deg: np.ndarray
 
 
-def _footing_member(geom, inputs, bars, mu, vu, cov):
+def footing_member(geom, inputs, bars, mu, vu, cov):
     fc, fy = inputs.fc_psi, inputs.fy_psi
     T = geom.footing_thickness_in
     d = T - cov - bars.diameter_in / 2.0
@@ -597,7 +597,7 @@ def heel_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays, 
             mu_c = np.where(m_i > mu, i, mu_c)
             vu_c = np.where(v_i > vu, i, vu_c)
             mu, vu = np.maximum(mu, m_i), np.maximum(vu, v_i)
-    m = _footing_member(geom, inputs, bars, mu, vu, cov)
+    m = footing_member(geom, inputs, bars, mu, vu, cov)
     dev = footing_development(bars.size, bars.spacing_in, m.as_in2, m.d_in, m.mu_lbft,
                               m.thickness_in, cov, heel_room_in(geom), inputs, top=True,
                               hooked=hooked)
@@ -722,7 +722,7 @@ def toe_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays,
         mu_c = np.where(m_e > mu, i, mu_c)
         vu_c = np.where(f_e > vu, i, vu_c)
         mu, vu = np.maximum(mu, m_e), np.maximum(vu, f_e)
-    m = _footing_member(geom, inputs, bars, mu, vu, cov)
+    m = footing_member(geom, inputs, bars, mu, vu, cov)
     dev = footing_development(bars.size, bars.spacing_in, m.as_in2, m.d_in, m.mu_lbft,
                               m.thickness_in, cov, toe_room_in(geom), inputs, top=False,
                               hooked=hooked)

@@ -8,7 +8,6 @@ import pytest
 from hypothesis import assume, given, settings
 from hypothesis import strategies as st
 from wallsched.engine.checks import check_section
-from wallsched.engine.column_search import ColumnSearch
 from wallsched.engine.section import DesignInputs, SeismicLoad, WaterTable
 from wallsched.engine.sizing import (
     CostRates,
@@ -17,6 +16,7 @@ from wallsched.engine.sizing import (
     exhaustive_optimum,
     parse_sizes,
 )
+from wallsched.engine.sizing.columns import ColumnSearch
 from wallsched.engine.wall_design import reinforcement, station_geometry
 
 

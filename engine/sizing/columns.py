@@ -1,7 +1,7 @@
 """The exact least-cost search at one height, column by column (the fast path of sizing).
 
-A *column* of the grid is one (heel, footing thickness, stem) combination with every toe
-length. The toes of a column that pass the static overturning and sliding checks are the
+A *column* of the grid is one (heel, footing thickness, stem, key depth) combination with
+every toe length. The toes of a column that pass the static overturning and sliding checks are the
 ones from a least toe up: where the stability screen's weights are linear in the height and,
 like their moments about the toe, never decrease as the toe grows (verified on the whole
 grid, not assumed), the least toe is found by bisection on the screen; where the screen
@@ -10,39 +10,36 @@ a backslope) from the engine's weights and thrust over the whole grid at that he
 both the run structure is verified for every column. The cost lower bound of a candidate is linear
 and increasing in its toe, so each column is a sorted list of candidates and the search is a
 merge of the columns by lower bound, in blocks, until no column's next bound is below the
-best full candidate found: branch and bound as in :mod:`.sizing`, over far fewer candidates.
+best full candidate found: branch and bound as in :mod:`.search`, over far fewer candidates.
 
 The lower bound of a candidate uses its heel bars (cheapest passing, exact: the heel demand
 against a capacity table per footing thickness), its stem bars (exact once a column of that
 stem pair has been evaluated; before, the cheapest bars that pass the stem's base flexure,
 minimum steel, spacing and hook length, a necessary part of the stem check) and the
 lightest toe bars there are. Every candidate kept is checked by the engine itself
-(:func:`~.stability.stability`, the stem and heel pair tables, the toe demands), so the
+(:func:`~..stability.stability`, the stem and heel pair tables, the toe demands), so the
 screen and the bounds only decide the order and what may be skipped.
 """
 
 from __future__ import annotations
 
 import math
+from dataclasses import dataclass
 
 import numpy as np
 
-from .bars import bar_weight_plf
-from .grid_sections import (
-    as_column,
-    at_most,
-    axes_geometry,
-    evaluate_candidates,
-    grid_geometry,
-    stem_pair_table,
-)
-from .section import BarArrays, SectionGeometry
-from .strength import (
+from ..bars import bar_weight_plf
+from ..pressure import design_thrust, passive_resistance_lb, thrust_plane_x_ft
+from ..section import BarArrays, SectionGeometry, section_weights
+from ..strength import (
     heel_strength,
     max_flexural_spacing_in,
     min_flexural_steel_in2,
     stem_strength,
 )
+from .context import SearchContext
+from .grid import as_column, axes_geometry, grid_geometry
+from .members import at_most, better, evaluate_candidates, stem_pair_table
 
 COLUMNS_PER_BLOCK = 256
 TOES_PER_COLUMN = 4
@@ -51,14 +48,17 @@ TOES_PER_COLUMN = 4
 class ColumnSearch:
     """The per-design-table set-up of the column search; :meth:`search` runs one height.
 
-    ``g``, ``codes``, ``pre``, ``toe_tab`` and ``screen`` are the structures of
-    :func:`~.sizing.design_table` (flat geometries with the toe as the slowest axis).
+    ``ctx`` holds the structures of :func:`~.search.design_table` (flat geometries with the
+    toe as the slowest axis).
     """
 
-    def __init__(self, g, grid, codes, pre, toe_tab, screen, inputs, rates, bars, emb, fb,
-                 width_max_ft=None):
-        self.g, self.codes, self.pre, self.toe_tab, self.screen = g, codes, pre, toe_tab, screen
-        self.inputs, self.rates, self.bars, self.emb, self.fb = inputs, rates, bars, emb, fb
+    def __init__(self, ctx: SearchContext):
+        g, pre, bars = ctx.g, ctx.pre, ctx.bars
+        self.ctx = ctx
+        self.g, self.codes, self.pre, self.toe_tab = g, ctx.codes, pre, ctx.toe_tab
+        self.screen, self.inputs, self.rates, self.bars = ctx.screen, ctx.inputs, ctx.rates, bars
+        self.emb, self.fb = ctx.emb, ctx.fb
+        codes, width_max_ft = ctx.codes, ctx.width_max_ft
         self.nt, self.ncol = g.nt, g.ncol
         nc = self.ncol
         self.stem_of, self.heel_of = codes["stem_of"], codes["heel_of"]  # per column
@@ -73,7 +73,7 @@ class ColumnSearch:
         self._heel_capacity()
         self._stem_capacity()
         self._hint = None  # the least toes of the last height searched (a starting guess)
-        self.least = self.mode(screen, pre)
+        self.least = self.mode(ctx.screen, pre)
 
     @staticmethod
     def mode(screen, pre) -> str | None:
@@ -161,7 +161,7 @@ class ColumnSearch:
 
     def _stem_bar_length(self, h, cols):
         """Stem bar length (ft) less the hook extension: stem height plus the anchorage into
-        the footing, for the columns ``cols`` (as :func:`~.sizing.stem_steel_lb`)."""
+        the footing, for the columns ``cols`` (as :func:`~.costs.stem_steel_lb`)."""
         pre = self.pre
         return (h + pre["emb_ft"][cols] + self.fb - pre["T_ft"][cols]
                 + pre["stem_anchor_ft"][cols])
@@ -214,11 +214,8 @@ class ColumnSearch:
 
     def _grid_ot_sliding(self, h, toes):
         """The static overturning and sliding checks at ``h`` (as
-        :func:`~.stability.stability` makes them, with the screen's slack) for the toes
+        :func:`~..stability.stability` makes them, with the screen's slack) for the toes
         ``toes`` of every column, from the engine's weights and thrust: (toes, columns)."""
-        from .pressure import design_thrust, passive_resistance_lb, thrust_plane_x_ft
-        from .section import section_weights
-
         g, i, p = self.g, self.inputs, self.screen.p
         k = 1.0 - self.screen.SLACK
         n = toes.stop - toes.start
@@ -256,41 +253,20 @@ class ColumnSearch:
 
     def search(self, h):
         """Exact optimum at height ``h``: (geometry, stem bars, heel bars, toe bars, cost),
-        or None where nothing on the grid holds."""
-        pre, g = self.pre, self.g
-        inputs, rates, bars, emb, fb = self.inputs, self.rates, self.bars, self.emb, self.fb
-        nc = self.ncol
-        cs = rates.steel_usd_per_lb
-        if self.screen.valid_at(h):
-            forces = self.screen._forces(h)
-            self._thrust_has_v = bool(np.any(forces[2] != 0))
-        if self.least == "screen" and self.screen.valid_at(h) and not np.any(forces[2] < 0):
-            ptr = self._least_toes(h, forces, self._hint)  # (an upward thrust: not monotone)
-            self._hint = ptr.copy()
-        else:
-            if self.screen.valid_at(h):  # the screen over the whole grid, then the run check
-                ptr = self._first_passing_toes(
-                    lambda toes, flat: self._ot_sliding(h, forces, np.arange(
-                        flat.start, flat.stop)).reshape(toes.stop - toes.start, -1))
-            else:
-                ptr = self._first_passing_toes(lambda toes, _: self._grid_ot_sliding(h, toes))
-            if ptr is None:  # the passing toes are not a run from a least toe up
-                return NotImplemented
-        heel_pick = self._heel_picks(h)
-        heel_w = np.where(heel_pick >= 0, self.bars_w[np.maximum(heel_pick, 0)], np.inf)
-        stem_lb = self._stem_bounds(h)  # replaced by the exact value once a pair is known
-        n_pairs = stem_lb.size
-        n_k = int(self.toe_tab.mat_class.max()) + 1
-        s_pick_k = np.full((n_pairs, n_k), -2, np.int64)  # -2: not yet evaluated
-        s_lb_k = np.full((n_pairs, n_k), np.inf)
-        live = ((ptr < self.toe_hi) & np.isfinite(heel_w[self.heel_of])
-                & np.isfinite(stem_lb[self.stem_of]) & pre["key_ok"])
+        or None where nothing on the grid holds; NotImplemented where the passing toes of
+        some column are not a run from a least toe up (the whole-grid search then runs)."""
+        ptr = self._first_toes(h)
+        if ptr is None:
+            return NotImplemented
+        hs = self._height_tables(h)
+        live = ((ptr < self.toe_hi) & np.isfinite(hs.heel_w[self.heel_of])
+                & np.isfinite(hs.stem_lb[self.stem_of]) & self.pre["key_ok"])
         cols = np.nonzero(live)[0]
-        one_bar = BarArrays(bars.size[:1], bars.spacing_in[:1])
+        nc = self.ncol
         best_cost, best = math.inf, None
         while cols.size:
             gi = ptr[cols] * nc + cols
-            lower = self._lower(gi, cols, h, stem_lb, heel_w)
+            lower = self._lower(gi, cols, h, hs.stem_lb, hs.heel_w)
             keep = lower < best_cost
             cols, gi, lower = cols[keep], gi[keep], lower[keep]
             if cols.size == 0:
@@ -302,54 +278,88 @@ class ColumnSearch:
                 now, rest = cols[take], cols[~take]
             else:
                 now, rest = cols, cols[:0]
-            # the next toes of the columns taken
-            start = ptr[now]
-            steps = np.arange(TOES_PER_COLUMN)
-            toe_i = start[:, None] + steps[None, :]
-            ok_t = toe_i < self.toe_hi[now][:, None]
-            cand = (toe_i * nc + now[:, None])[ok_t]
-            ccol = np.broadcast_to(now[:, None], toe_i.shape)[ok_t]
-            ptr[now] = start + TOES_PER_COLUMN
-            now = now[ptr[now] < self.toe_hi[now]]
+            cand, ccol, now = self._next_toes(ptr, now)
             cols = np.concatenate([rest, now])
-            # exact stem bars of the pairs met for the first time
-            pairs = self.stem_of[ccol]
-            new = np.unique(pairs[s_pick_k[pairs, 0] == -2])
-            if new.size:
-                first = self.codes["stem_first"][new]
-                pk, lbk = stem_pair_table(g, first, h, emb, fb, inputs, bars,
-                                          pre["long_db_in"][first])
-                s_pick_k[new], s_lb_k[new] = pk, lbk
-                stem_lb[new] = np.min(lbk, axis=1)
-            fine = np.isfinite(stem_lb[pairs]) & (heel_pick[self.heel_of[ccol]] >= 0)
-            cand, ccol = cand[fine], ccol[fine]
-            if cand.size == 0:
-                continue
-            c_of = cand % nc
-            hst = h + pre["emb_ft"][c_of] + fb - pre["T_ft"][c_of]
-            B = pre["B_ft"][cand]
-            base = pre["cost0"][cand] + pre["cost_per_hst"][c_of] * hst
-            low = base + cs * (stem_lb[self.stem_of[c_of]]
-                               + (heel_w[self.heel_of[c_of]] + self.w_min) * (B - 0.5))
-            fine = low < best_cost
-            if not fine.all():
-                cand, base = cand[fine], base[fine]
-            if cand.size == 0:
-                continue
-            fine = self.screen.passes(h, cand)
-            if not fine.all():
-                cand, base = cand[fine], base[fine]
-            if cand.size == 0:
-                continue
-            found = evaluate_candidates(g, cand, base, h, emb, fb, inputs, cs, self.toe_tab,
-                                        s_pick_k, s_lb_k, self.stem_of, one_bar)
-            if found is None:
-                continue
-            if best is None or (found[0], found[1][0]) < (best_cost, best[0]):
-                best_cost, best = found
-        if best is None:
+            best_cost, best = better(self._evaluate(h, hs, cand, ccol, best_cost),
+                                     best_cost, best)
+        return None if best is None else (*best, best_cost)
+
+    def _first_toes(self, h):
+        """Per column the least toe index passing the static overturning and sliding checks
+        at ``h`` (``toe_hi`` where none does); None where they are not a run from it up."""
+        forces = None
+        if self.screen.valid_at(h):
+            forces = self.screen.forces(h)
+            self._thrust_has_v = bool(np.any(forces[2] != 0))
+        if self.least == "screen" and self.screen.valid_at(h) and not np.any(forces[2] < 0):
+            ptr = self._least_toes(h, forces, self._hint)  # (an upward thrust: not monotone)
+            self._hint = ptr.copy()
+            return ptr
+        if self.screen.valid_at(h):  # the screen over the whole grid, then the run check
+            return self._first_passing_toes(
+                lambda toes, flat: self._ot_sliding(h, forces, np.arange(
+                    flat.start, flat.stop)).reshape(toes.stop - toes.start, -1))
+        return self._first_passing_toes(lambda toes, _: self._grid_ot_sliding(h, toes))
+
+    def _height_tables(self, h) -> _HeightTables:
+        """The heel picks and the stem bounds of one height (the stem pairs' exact bars
+        filled in as the pairs are met)."""
+        heel_pick = self._heel_picks(h)
+        heel_w = np.where(heel_pick >= 0, self.bars_w[np.maximum(heel_pick, 0)], np.inf)
+        stem_lb = self._stem_bounds(h)  # replaced by the exact value once a pair is known
+        n_pairs = stem_lb.size
+        n_k = int(self.toe_tab.mat_class.max()) + 1
+        return _HeightTables(heel_pick, heel_w, stem_lb,
+                             np.full((n_pairs, n_k), -2, np.int64),  # -2: not yet evaluated
+                             np.full((n_pairs, n_k), np.inf))
+
+    def _next_toes(self, ptr, now):
+        """The next toes of the columns ``now`` as candidates (flat index, column); moves
+        their pointers on and returns the columns that have toes left."""
+        nc = self.ncol
+        start = ptr[now]
+        steps = np.arange(TOES_PER_COLUMN)
+        toe_i = start[:, None] + steps[None, :]
+        ok_t = toe_i < self.toe_hi[now][:, None]
+        cand = (toe_i * nc + now[:, None])[ok_t]
+        ccol = np.broadcast_to(now[:, None], toe_i.shape)[ok_t]
+        ptr[now] = start + TOES_PER_COLUMN
+        return cand, ccol, now[ptr[now] < self.toe_hi[now]]
+
+    def _evaluate(self, h, hs: _HeightTables, cand, ccol, best_cost):
+        """The candidates that can still beat ``best_cost``, past the screen, checked by the
+        engine (:func:`~.members.evaluate_candidates`); the exact stem bars of the pairs met
+        for the first time go into ``hs``."""
+        pre, nc = self.pre, self.ncol
+        pairs = self.stem_of[ccol]
+        new = np.unique(pairs[hs.s_pick_k[pairs, 0] == -2])
+        if new.size:
+            first = self.codes["stem_first"][new]
+            pk, lbk = stem_pair_table(self.ctx, first, h, pre["long_db_in"][first])
+            hs.s_pick_k[new], hs.s_lb_k[new] = pk, lbk
+            hs.stem_lb[new] = np.min(lbk, axis=1)
+        fine = np.isfinite(hs.stem_lb[pairs]) & (hs.heel_pick[self.heel_of[ccol]] >= 0)
+        cand, ccol = cand[fine], ccol[fine]
+        if cand.size == 0:
             return None
-        return (*best, best_cost)
+        c_of = cand % nc
+        hst = h + pre["emb_ft"][c_of] + self.fb - pre["T_ft"][c_of]
+        B = pre["B_ft"][cand]
+        base = pre["cost0"][cand] + pre["cost_per_hst"][c_of] * hst
+        low = base + self.rates.steel_usd_per_lb * (
+            hs.stem_lb[self.stem_of[c_of]]
+            + (hs.heel_w[self.heel_of[c_of]] + self.w_min) * (B - 0.5))
+        fine = low < best_cost
+        if not fine.all():
+            cand, base = cand[fine], base[fine]
+        if cand.size == 0:
+            return None
+        fine = self.screen.passes(h, cand)
+        if not fine.all():
+            cand, base = cand[fine], base[fine]
+        if cand.size == 0:
+            return None
+        return evaluate_candidates(self.ctx, cand, base, h, hs.s_pick_k, hs.s_lb_k)
 
     def _lower(self, gi, cols, h, stem_lb, heel_w):
         pre, cs = self.pre, self.rates.steel_usd_per_lb
@@ -371,3 +381,14 @@ def _cheapest(ok, weight):
     cost = np.where(ok, weight, np.inf)
     best = np.argmin(cost, axis=1)
     return np.where(np.isfinite(cost[np.arange(cost.shape[0]), best]), best, -1)
+
+
+@dataclass
+class _HeightTables:
+    """One height's heel picks and stem bounds, and the stem pairs' exact bars as found."""
+
+    heel_pick: np.ndarray
+    heel_w: np.ndarray
+    stem_lb: np.ndarray
+    s_pick_k: np.ndarray
+    s_lb_k: np.ndarray

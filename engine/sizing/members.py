@@ -1,16 +1,39 @@
-"""The sizing grid as sections: its geometries as broadcasting axes or gathered by index, as a
-column against the bar options, the pass masks of the member checks, and the cheapest passing
-stem and heel bars per (member, footing) pair. Shared by the branch and bound
-(``engine/sizing.py``) and the column search (``engine/column_search.py``).
+"""The member checks on the grid: the pass masks of the stem, heel and toe rows of
+:func:`~..checks.check_section`, the cheapest passing stem and heel bars per (member, footing)
+pair, the heel and toe capacities per (footing thickness, bar option)
+(:class:`FootingTables`), and the engine's checks of a block of candidates with their cheapest
+bars (:func:`evaluate_candidates`). Shared by the whole-grid branch and bound
+(:mod:`.search`) and the column search (:mod:`.columns`).
 """
 
 from __future__ import annotations
 
 import numpy as np
 
-from .bars import bar_weight_plf
-from .section import BarArrays, DesignInputs, SectionGeometry
-from .strength import heel_strength, stem_strength
+from ..bars import bar_diameter_in, bar_weight_plf
+from ..development import (
+    excess_reinforcement_factor,
+    hook_psi_r,
+    hook_vertical_in,
+    hooked_development_equation_in,
+    reduced_hooked_in,
+    reduced_straight_in,
+    straight_development_simple_in,
+)
+from ..section import BarArrays, SectionGeometry
+from ..stability import stability
+from ..strength import (
+    cover_in,
+    footing_member,
+    heel_room_in,
+    heel_strength,
+    required_steel_in2,
+    stem_strength,
+    toe_room_in,
+    toe_strength,
+)
+from .costs import footing_hook_extra_ft, stem_steel_lb
+from .grid import as_column, grid_geometry
 
 TOE_MIN_DEPTH_IN = 6.0  # ACI 318-19 13.3.1.2 (as in checks.py)
 
@@ -43,58 +66,14 @@ def footing_member_passes(r, toe: bool = False, demand: bool = True) -> np.ndarr
     return ok
 
 
-def stem_steel_lb(geom: SectionGeometry, bars: BarArrays, inputs: DesignInputs):
-    """Stem vertical bars per ft of wall: full stem height, into the footing to the bottom
-    mat, plus a 90-degree hook extension of 12 db (ACI 318-19 Table 25.3.1)."""
-    L = (geom.stem_height_ft + (geom.footing_thickness_in - inputs.cover_toe_in) / 12.0
-         + 12.0 * bars.diameter_in / 12.0)
-    return 12.0 / bars.spacing_in * bar_weight_plf(bars.size) * L
-
-
-def axes_geometry(g, h, emb, fb, toes=slice(None)) -> SectionGeometry:
-    """The grid (or the toes ``toes`` of it) as broadcasting axes (toe, heel, footing, stem,
-    key; the key's front face under the stem's front face):
-    the engine's functions then compute each term on the axes it depends on (much less work
-    than on every element)."""
-    a = g.axes
-    return SectionGeometry(
-        retained_height_ft=h, embedment_ft=a.get("embedment_ft", emb),
-        footing_thickness_in=a["footing_thickness_in"], stem_top_in=a["stem_top_in"],
-        stem_base_in=a["stem_base_in"], toe_ft=a["toe_ft"][toes], heel_ft=a["heel_ft"],
-        key_width_in=a["key_width_in"], key_depth_in=a["key_depth_in"], freeboard_ft=fb)
-
-
-def flat_of(x, shape) -> np.ndarray:
-    return np.broadcast_to(x, shape).reshape(-1)
-
-
-def grid_geometry(g, idx, h, emb, fb) -> SectionGeometry:
-    if "embedment_ft" in g:
-        emb = g.take("embedment_ft", idx)
-    return SectionGeometry(
-        retained_height_ft=h, embedment_ft=emb,
-        footing_thickness_in=g.take("footing_thickness_in", idx),
-        stem_top_in=g.take("stem_top_in", idx), stem_base_in=g.take("stem_base_in", idx),
-        toe_ft=g.take("toe_ft", idx), heel_ft=g.take("heel_ft", idx),
-        key_width_in=g.take("key_width_in", idx), key_depth_in=g.take("key_depth_in", idx),
-        freeboard_ft=fb)
-
-
-def as_column(geo: SectionGeometry) -> SectionGeometry:
-    """The same sections as a column (n, 1), to broadcast against bar options (1, n_b)."""
-    return SectionGeometry(**{k: np.asarray(getattr(geo, k))[..., None] if np.ndim(
-        getattr(geo, k)) else getattr(geo, k) for k in (
-        "retained_height_ft", "embedment_ft", "footing_thickness_in", "stem_top_in",
-        "stem_base_in", "toe_ft", "heel_ft", "key_width_in", "key_depth_in", "key_offset_ft",
-        "freeboard_ft")})
-
-
-def pair_table(g, first, h, emb, fb, inputs, bars: BarArrays, member: str) -> np.ndarray:
+def pair_table(ctx, first, h, member: str) -> np.ndarray:
     """Cheapest passing bar option for each (member dims, footing) pair code; -1 where none.
 
-    ``first`` holds one geometry index per code (the member check depends only on the pair).
+    ``first`` holds one geometry index per code (the member check depends only on the pair);
+    ``ctx`` is the :class:`~.context.SearchContext`.
     """
-    geo = as_column(grid_geometry(g, first, h, emb, fb))
+    inputs, bars = ctx.inputs, ctx.bars
+    geo = as_column(grid_geometry(ctx.g, first, h, ctx.emb, ctx.fb))
     bb = BarArrays(bars.size[None, :], bars.spacing_in[None, :])
     if member == "stem":
         ok = stem_passes(stem_strength(geo, inputs, bb))
@@ -117,13 +96,12 @@ def mat_classes(bars: BarArrays):
     return sizes, cls
 
 
-def stem_pair_table(g, first, h, emb, fb, inputs, bars: BarArrays, long_db_in):
+def stem_pair_table(ctx, first, h, long_db_in):
     """Cheapest passing stem bars of each stem pair code for each toe bar size class (the
     hook rests on the bottom mat: the toe bars and the longitudinal bars, ``long_db_in`` per
     pair): (picks, steel lb per ft of wall), both (pairs, classes); -1 / inf where none."""
-    from .bars import bar_diameter_in
-
-    geo = as_column(grid_geometry(g, first, h, emb, fb))
+    inputs, bars = ctx.inputs, ctx.bars
+    geo = as_column(grid_geometry(ctx.g, first, h, ctx.emb, ctx.fb))
     bb = BarArrays(bars.size[None, :], bars.spacing_in[None, :])
     r = stem_strength(geo, inputs, bb)
     base_ok = stem_passes(r, hook=False)
@@ -149,15 +127,6 @@ class FootingTables:
     check_section)."""
 
     def __init__(self, g, inputs, bars: BarArrays):
-        from .bars import bar_diameter_in
-        from .development import (
-            hook_psi_r,
-            hook_vertical_in,
-            hooked_development_equation_in,
-            straight_development_simple_in,
-        )
-        from .strength import _footing_member, cover_in
-
         self.inputs, self.bars = inputs, bars
         T_vals, self.T_of = np.unique(g.col["footing_thickness_in"], return_inverse=True)
         geo = SectionGeometry(retained_height_ft=1.0, embedment_ft=1.0,
@@ -170,7 +139,7 @@ class FootingTables:
         self.tab = {}
         for name, cov_opt in (("heel", inputs.cover_heel_in), ("toe", inputs.cover_toe_in)):
             cov = cover_in(bb.size, cov_opt)
-            r = _footing_member(geo, inputs, bb, 0.0, 0.0, cov)
+            r = footing_member(geo, inputs, bb, 0.0, 0.0, cov)
             top = name == "heel"
             below = T_vals[:, None] - cov - db
             pt = np.where(top & (below > 12.0), 1.3, 1.0)
@@ -197,13 +166,6 @@ class FootingTables:
         """(passes, steel lb per ft of wall) of every bar option for the candidates: flexure,
         shear, minimum steel, spacing (toe depth) and development, straight where it fits,
         else hooked (the hook's extra length in the steel)."""
-        from .development import (
-            excess_reinforcement_factor,
-            reduced_hooked_in,
-            reduced_straight_in,
-        )
-        from .strength import required_steel_in2
-
         t = self.tab[name]
         rows = lambda k: np.take(t[k], T_idx, axis=0)  # noqa: E731
         mu = np.asarray(mu, float).reshape(-1, 1)
@@ -224,8 +186,6 @@ class FootingTables:
     def picks(self, sub, st, inputs, T_idx, stem_cost_k, one_bar):
         """The cheapest heel bars and the cheapest (toe bars, stem bars at that toe's mat)
         of each candidate: (heel pick, heel lb, toe pick, stem class pick, toe + stem lb)."""
-        from .strength import heel_room_in, heel_strength, toe_room_in, toe_strength
-
         B = np.asarray(sub.footing_width_ft).reshape(-1)
         hr = heel_strength(sub, inputs, one_bar, st)
         h_ok, h_lb = self.member("heel", T_idx, hr.mu_lbft, hr.vu_lb,
@@ -242,33 +202,36 @@ class FootingTables:
         return h_pick, h_best, t_pick, joint[np.arange(n), t_pick]
 
 
-def footing_hook_extra_ft(size, angle_deg):
-    """What a standard hook adds to a footing bar's length beyond the straight bar that runs
-    out to the end cover, ft: the arc and tail (Table 25.3.1) less the hook's out-to-out
-    reach D/2 + db."""
-    from .bars import bar_diameter_in
-    from .development import hook_bend_diameter_in, hook_length_in
-
-    reach = hook_bend_diameter_in(size) / 2.0 + bar_diameter_in(size)
-    return (hook_length_in(size, np.where(np.asarray(angle_deg) == 90, 90, 180)) - reach) / 12.0
+def one_bar(bars: BarArrays) -> BarArrays:
+    """The first bar option alone (for the demands, which do not depend on the bars)."""
+    return BarArrays(bars.size[:1], bars.spacing_in[:1])
 
 
-def evaluate_candidates(g, cand, base, h, emb, fb, inputs, cs, tabs, s_pick_k, s_lb_k, col_stem,
-              one_bar):
+def better(found, best_cost, best):
+    """(cost, candidate) after a block's ``found``: the cheaper, a tie to the lower geometry
+    index (the order of the exhaustive reference)."""
+    if found is not None and (best is None or (found[0], found[1][0]) < (best_cost, best[0])):
+        return found
+    return best_cost, best
+
+
+def evaluate_candidates(ctx, cand, base, h, s_pick_k, s_lb_k):
     """The engine's checks of the candidates ``cand`` (flat geometry indices) with their
     cheapest bars: stability, then the heel and the toe with the stem at the toe's bottom
-    mat. Returns (cost, (geometry, stem, heel, toe bar options)) of the cheapest, or None."""
-    from .stability import stability
-
-    sub = as_column(grid_geometry(g, cand, h, emb, fb))
-    st = stability(sub, inputs)
+    mat (``s_pick_k``, ``s_lb_k``: the stem pairs' picks and steel per mat class; ``base``:
+    the candidates' cost without bars). Returns (cost, (geometry, stem, heel, toe bar
+    options)) of the cheapest, or None."""
+    g, tabs, col_stem = ctx.g, ctx.toe_tab, ctx.codes["stem_of"]
+    sub = as_column(grid_geometry(g, cand, h, ctx.emb, ctx.fb))
+    st = stability(sub, ctx.inputs)
     ok = np.asarray(st.passes & sub.valid).reshape(-1)
     if not ok.any():
         return None
     T_idx = tabs.T_of[g.column_of(cand)]
     stem_k = s_lb_k[col_stem[g.column_of(cand)]]
-    h_pick, h_lb, t_pick, ts_lb = tabs.picks(sub, st, inputs, T_idx, stem_k, one_bar)
-    total = np.where(ok, base + cs * (h_lb + ts_lb), np.inf)
+    h_pick, h_lb, t_pick, ts_lb = tabs.picks(sub, st, ctx.inputs, T_idx, stem_k,
+                                             one_bar(ctx.bars))
+    total = np.where(ok, base + ctx.rates.steel_usd_per_lb * (h_lb + ts_lb), np.inf)
     if not np.isfinite(total).any():
         return None
     k = int(np.lexsort((cand, total))[0])  # least cost, ties to the lower index
