@@ -26,6 +26,7 @@ FOOTER_PT = 5.5
 OPTIONAL = "wallsched-optional"
 GAP_PX = 1.0  # clear gap kept between two texts
 _DRAWN = "_wallsched_drawn"  # set by finish: the figure's pixels are final
+_ANCHOR = "_wallsched_anchor"  # an optional text's (transform, point, offset in points)
 
 
 def new_figure(*, nrows: int = 1, figsize=FIGSIZE_IN, sharex=True, **kw):
@@ -46,7 +47,23 @@ def optional_text(ax, x, y, text, *, priority: int = 0, **kw):
     t = ax.annotate(text, (x, y), **kw)
     t.set_gid(f"{OPTIONAL}:{priority}")
     t.set_in_layout(False)  # placed inside the axes; the layout makes room for fixed texts only
+    xycoords = kw.get("xycoords", "data")
+    offset = kw.get("xytext", (0.0, 0.0)) if kw.get("textcoords") == "offset points" else (
+        None if "xytext" in kw else (0.0, 0.0))
+    if offset is not None and (xycoords == "data" or hasattr(xycoords, "transform")):
+        setattr(t, _ANCHOR, (ax.transData if xycoords == "data" else xycoords, (x, y), offset))
     return t
+
+
+def _anchor_px(t, dpi: float):
+    """The display point the text is aligned on (its box always holds it), from the point and
+    offset it was made with; None when it was made some other way."""
+    got = getattr(t, _ANCHOR, None)
+    if got is None:
+        return None
+    trans, xy, (dx, dy) = got
+    px, py = trans.transform(xy)
+    return px + dx * dpi / 72.0, py + dy * dpi / 72.0
 
 
 def _footer(fig) -> float:
@@ -120,6 +137,8 @@ def finish(fig) -> None:
     The figure is drawn once, into its pixels, with the optional texts hidden (reading every
     fixed text's extent as it draws); the optional texts that fit are then drawn over those
     pixels, which :func:`save` writes as they are."""
+    from matplotlib.transforms import Bbox
+
     foot = _footer(fig)
     fig.tight_layout(rect=(0, foot, 1, 1))
     optional = [t for t in fig.findobj(lambda a: str(a.get_gid() or "").startswith(OPTIONAL))]
@@ -134,6 +153,15 @@ def finish(fig) -> None:
     fig_box = fig.bbox
     for i in order:
         t = optional[i]
+        anchor = _anchor_px(t, fig.dpi)
+        if anchor is not None:
+            # the text's box holds its anchor: where the anchor alone is outside the figure or
+            # not clear, so is the box (the same choice, without laying the text out)
+            a = Bbox.from_extents(anchor[0], anchor[1], anchor[0], anchor[1])
+            if not (fig_box.x0 <= a.x0 <= fig_box.x1 and fig_box.y0 <= a.y0 <= fig_box.y1
+                    and boxes.clear(a)):
+                t.remove()
+                continue
         t.set_visible(True)
         b = t.get_window_extent(renderer)
         inside = (b.x0 >= fig_box.x0 and b.x1 <= fig_box.x1 and b.y0 >= fig_box.y0
