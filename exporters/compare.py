@@ -70,7 +70,6 @@ Quantities
 from __future__ import annotations
 
 import math
-import re
 from collections.abc import Sequence
 from dataclasses import dataclass, field
 from pathlib import Path
@@ -81,6 +80,17 @@ import numpy as np
 from ..cautions import CAUTIONS
 from ..errors import InputError
 from ..profile.stationing import format_station
+from .run_tables import (
+    COST_COLUMNS,
+    FIELDS,
+    LENGTH_TOL_FT,
+    Field,
+    RunTables,
+    as_number,
+    field_value,
+    is_blank,
+    read_run,
+)
 
 if TYPE_CHECKING:  # pragma: no cover
     import pandas as pd
@@ -94,259 +104,8 @@ SEGMENT_COLUMNS = ("wall", "change", "segment_old", "segment_new", "station_star
 QUANTITY_COLUMNS = ("wall", "quantity", "old", "new", "delta")
 
 DEFAULT_HEIGHT_TOL_FT = 0.05
-LENGTH_TOL_FT = 0.005  # about 1/16 in
-INCH_TOL_IN = 0.01
-QTY_REL_TOL = 1e-6
-QTY_ABS_TOL = 0.001
-COST_COLUMNS = ("cost", "cost_usd")
 HEIGHT_FIELD = "retained_height_ft"
 SITE = "site"
-
-_BAR = re.compile(r"^#(\d+)@(\d+(?:\.\d*)?|\.\d+)(.*)$")
-
-
-@dataclass(frozen=True)
-class Field:
-    """One compared schedule column: its group and how it is compared (ft, in, qty, bar, text)."""
-
-    name: str
-    group: str
-    kind: str
-
-    def same(self, a, b) -> bool:
-        """True when ``a`` and ``b`` are equal within this field's tolerance."""
-        if self.kind in ("bar", "text"):
-            return _text(a, self.kind) == _text(b, self.kind)
-        a, b = _num(a), _num(b)
-        if math.isnan(a) or math.isnan(b):
-            return math.isnan(a) and math.isnan(b)
-        if math.isinf(a) or math.isinf(b):  # "inf -> inf" is no change; inf -> 3 is one
-            return a == b
-        if self.kind == "qty":
-            tol = max(QTY_REL_TOL * max(abs(a), abs(b)), QTY_ABS_TOL)
-        else:
-            tol = INCH_TOL_IN if self.kind == "in" else LENGTH_TOL_FT
-        return abs(a - b) <= tol
-
-
-FIELDS: tuple[Field, ...] = (
-    *(Field(n, "extent", "ft") for n in ("station_start_ft", "station_end_ft", "length_ft")),
-    Field("retained_height_max_ft", "height", "ft"),
-    *(Field(n, "elevation", "ft")
-      for n in ("top_of_wall_ft", "top_of_footing_ft", "bottom_of_footing_ft")),
-    Field("stem_top_in", "dimension", "in"),
-    Field("stem_base_in", "dimension", "in"),
-    Field("footing_thickness_in", "dimension", "in"),
-    Field("toe_ft", "dimension", "ft"),
-    Field("heel_ft", "dimension", "ft"),
-    Field("footing_width_ft", "dimension", "ft"),
-    Field("key_width_in", "dimension", "in"),
-    Field("key_depth_in", "dimension", "in"),
-    Field("key_offset_ft", "dimension", "ft"),
-    *(Field(n, "bars", "bar")
-      for n in ("stem_bars", "heel_bars", "toe_bars", "horizontal_bars")),
-    Field("concrete_cy", "quantity", "qty"),
-    Field("steel_lb", "quantity", "qty"),
-    Field("mark", "mark", "text"),
-    Field("status", "status", "text"),
-)
-REQUIRED_COLUMNS = ("wall", "segment", "station_start_ft", "station_end_ft")
-QUANTITIES = ("concrete_cy", "steel_lb")
-
-
-def _num(v) -> float:
-    if v is None or isinstance(v, str):
-        try:
-            return float(v) if v not in (None, "") else math.nan
-        except ValueError:
-            return math.nan
-    return float(v)
-
-
-def _text(v, kind: str = "text") -> str:
-    if v is None or (isinstance(v, float) and math.isnan(v)):
-        return ""
-    s = " ".join(str(v).split())
-    if kind == "bar":
-        s = s.replace(" ", "")
-        m = _BAR.match(s)
-        if m:
-            s = f"#{int(m.group(1))}@{float(m.group(2)):g}{m.group(3)}"
-    return s
-
-
-def _value(v, f: Field):
-    """The value as it goes into a row: float (NaN for blank) or text."""
-    return _num(v) if f.kind in ("ft", "in", "qty") else _text(v, f.kind)
-
-
-def _blank(v) -> bool:
-    return v == "" or (isinstance(v, float) and math.isnan(v))
-
-
-# ---------------------------------------------------------------- reading run folders
-
-
-@dataclass(frozen=True, eq=False)
-class RunTables:
-    """The tables of one run folder: ``schedule`` and (when present) ``stations``."""
-
-    schedule: pd.DataFrame
-    stations: pd.DataFrame | None
-    folder: Path | None = None
-
-    @classmethod
-    def from_frames(cls, schedule, stations=None, folder: Path | None = None) -> RunTables:
-        """Tables held in memory (e.g. a run just designed), checked as if read from files."""
-        return cls(check_schedule(schedule),
-                   None if stations is None else check_stations(stations), folder)
-
-
-def _read_csv(path: Path, text_columns: Sequence[str], key_columns: Sequence[str]):
-    """Read a run table; note lines are skipped (see :func:`read_schedule`).
-
-    The frame gets a column ``source_line``: the line number of each row in the file.
-    """
-    import io
-
-    import pandas as pd
-
-    try:
-        text = path.read_text(encoding="utf-8-sig")
-    except UnicodeDecodeError:
-        raise InputError("is not UTF-8 text", file=path) from None
-    except OSError as exc:
-        raise InputError(f"cannot be read ({exc.strerror})", file=path) from None
-    kept = [(n, line) for n, line in enumerate(text.splitlines(), 1)
-            if line.strip() and not line.lstrip().lstrip('"').startswith("#")]
-    if not kept:
-        raise InputError("is empty; expected a header line and one row per item", file=path)
-    try:
-        frame = pd.read_csv(io.StringIO("\n".join(line for _, line in kept)),
-                            dtype={c: str for c in text_columns}, keep_default_na=False,
-                            na_values=[""], skipinitialspace=True, skip_blank_lines=False)
-    except (pd.errors.ParserError, pd.errors.EmptyDataError, ValueError) as exc:
-        msg = " ".join(str(exc).split())
-        raise InputError(f"is not a readable CSV table ({msg})", file=path) from None
-    frame.columns = [str(c).strip() for c in frame.columns]
-    if len(frame) == len(kept) - 1:
-        frame["source_line"] = [n for n, _ in kept[1:]]
-    else:  # a quoted field over several lines: count rows instead
-        frame["source_line"] = np.arange(len(frame)) + 2
-    keys = [c for c in key_columns if c in frame.columns]
-    if keys:  # a text line (e.g. a footer) with none of the key columns is not a row
-        blank = frame[keys].isna() | (frame[keys].astype(str).apply(lambda c: c.str.strip())
-                                      == "")
-        frame = frame[~blank.all(axis=1)].reset_index(drop=True)
-    return frame
-
-
-def _numeric(frame, column: str, path: Path):
-    import pandas as pd
-
-    raw = frame[column]
-    values = pd.to_numeric(raw, errors="coerce")
-    bad = values.isna() & raw.notna() & (raw.astype(str).str.strip() != "")
-    if bad.any():
-        i = int(np.flatnonzero(bad.to_numpy())[0])
-        raise InputError(f"{column} must be a number, got {raw.iloc[i]!r}", file=path,
-                         where=f"line {frame['source_line'].iloc[i]}")
-    return values.astype(float)
-
-
-SCHEDULE_TEXT = ("wall", "segment", *(f.name for f in FIELDS if f.kind in ("bar", "text")))
-
-
-def read_schedule(path: Path):
-    """Read and check a ``schedule.csv``; raises InputError naming the file and line."""
-    frame = _read_csv(path, SCHEDULE_TEXT, ["segment", "station_start_ft", "station_end_ft"])
-    return check_schedule(frame, path)
-
-
-def check_schedule(frame, path: Path | str = "schedule.csv"):
-    """Check and normalize a schedule frame (as read, or as the pipeline holds it in memory).
-
-    Numbers become floats (blank = NaN), text is stripped (blank = ""); returns a new frame.
-    """
-    frame = frame.copy()
-    text = SCHEDULE_TEXT
-    if "source_line" not in frame.columns:
-        frame["source_line"] = np.arange(len(frame)) + 2
-    missing = [c for c in REQUIRED_COLUMNS if c not in frame.columns]
-    if missing:
-        raise InputError(f"missing column(s) {', '.join(missing)}; not a wall schedule written "
-                         "by wallsched design", file=path, where="line 1")
-    numeric = [f.name for f in FIELDS if f.kind in ("ft", "in", "qty")] + list(COST_COLUMNS)
-    for c in numeric:
-        if c in frame.columns:
-            frame[c] = _numeric(frame, c, path)
-    for c in text:
-        if c in frame.columns:
-            frame[c] = frame[c].fillna("").astype(str).str.strip()
-    for row in frame.itertuples(index=False):
-        where = f"line {row.source_line}"
-        if not row.wall or not row.segment:
-            raise InputError("wall and segment must not be blank", file=path, where=where)
-        s, e = row.station_start_ft, row.station_end_ft
-        if not (math.isfinite(s) and math.isfinite(e)):
-            raise InputError("station_start_ft and station_end_ft must be given", file=path,
-                             where=where)
-        if e < s:
-            raise InputError(f"station_end_ft {e:g} is before station_start_ft {s:g}",
-                             file=path, where=where)
-    dup = frame.duplicated(["wall", "segment"])
-    if dup.any():
-        i = int(np.flatnonzero(dup.to_numpy())[0])
-        raise InputError(f"segment {frame['segment'].iloc[i]!r} of wall "
-                         f"{frame['wall'].iloc[i]!r} appears twice", file=path,
-                         where=f"line {frame['source_line'].iloc[i]}")
-    return frame
-
-
-def read_stations(path: Path):
-    """Read and check a ``stations.csv`` (wall, station_ft, retained_height_ft; rest ignored)."""
-    return check_stations(_read_csv(path, ["wall", "station", "note"], ["station_ft"]), path)
-
-
-def check_stations(frame, path: Path | str = "stations.csv"):
-    """Check a stations frame; returns ``wall, station_ft, retained_height_ft``."""
-    frame = frame.copy()
-    if "source_line" not in frame.columns:
-        frame["source_line"] = np.arange(len(frame)) + 2
-    if "retained_height_ft" not in frame.columns and {
-            "retained_grade_ft", "front_grade_ft"} <= set(frame.columns):
-        frame["retained_height_ft"] = (_numeric(frame, "retained_grade_ft", path)
-                                       - _numeric(frame, "front_grade_ft", path))
-    missing = [c for c in ("wall", "station_ft", "retained_height_ft") if c not in frame.columns]
-    if missing:
-        raise InputError(f"missing column(s) {', '.join(missing)}; not a stations table "
-                         "written by wallsched", file=path, where="line 1")
-    frame["wall"] = frame["wall"].fillna("").astype(str).str.strip()
-    for c in ("station_ft", "retained_height_ft"):
-        frame[c] = _numeric(frame, c, path)
-        bad = ~np.isfinite(frame[c].to_numpy())
-        if bad.any():
-            i = int(np.flatnonzero(bad)[0])
-            raise InputError(f"{c} must be given", file=path,
-                             where=f"line {frame['source_line'].iloc[i]}")
-    return frame[["wall", "station_ft", "retained_height_ft"]]
-
-
-def read_run(folder: Path) -> RunTables:
-    """Read a run folder (``schedule.csv`` required, ``stations.csv`` optional)."""
-    folder = Path(folder)
-    if not folder.is_dir():
-        what = "does not exist" if not folder.exists() else "is a file"
-        raise InputError(f"{what}; give a run folder written by wallsched design --out",
-                         file=folder)
-    sched = folder / "schedule.csv"
-    if not sched.is_file():
-        raise InputError("is not a run folder (no schedule.csv); give a folder written by "
-                         "wallsched design --out", file=folder)
-    st = folder / "stations.csv"
-    stations = read_stations(st) if st.is_file() else None
-    return RunTables(read_schedule(sched), stations, folder)
-
 
 # ---------------------------------------------------------------- the result
 
@@ -471,7 +230,7 @@ def format_value(v) -> str:
 def _change_text(name: str, old, new) -> str:
     text = f"{name} {format_value(old) or '(blank)'} -> {format_value(new) or '(blank)'}"
     if not isinstance(old, str) and not isinstance(new, str):
-        d = _num(new) - _num(old)
+        d = as_number(new) - as_number(old)
         if math.isfinite(d):
             text += f" ({'+' if d >= 0 else ''}{format_value(d)})"
     return text
@@ -524,7 +283,28 @@ def height_change_ranges(old, new, wall: str, tol_ft: float) -> list[dict]:
         return v
 
     go, gn = on_grid(so, ho), on_grid(sn, hn)
-    pieces: list[tuple[float, float, str]] = []  # (start, end, note)
+    pieces = sorted(_pieces(grid, go, gn, tol_ft))
+    ranges: list[list] = []
+    for s, e, note in pieces:
+        if ranges and ranges[-1][2] == note and s <= ranges[-1][1] + 1e-9:
+            ranges[-1][1] = max(ranges[-1][1], e)
+        else:
+            ranges.append([s, e, note])
+    out = []
+    for s, e, note in ranges:
+        rec = {"wall": wall, "station_start_ft": float(s), "station_end_ft": float(e),
+               "max_abs_delta_ft": math.nan, "station_at_max_ft": math.nan,
+               "old_ft": math.nan, "new_ft": math.nan, "note": note}
+        if not note:
+            rec.update(_largest(grid, go, gn, s, e, tol_ft))
+        out.append(rec)
+    return out
+
+
+def _pieces(grid, go, gn, tol_ft: float) -> list[tuple[float, float, str]]:
+    """(start, end, note) of every grid interval, or part of one, where the heights differ by
+    more than ``tol_ft`` or only one run has the wall."""
+    pieces: list[tuple[float, float, str]] = []
     if grid.size == 1:
         d = gn[0] - go[0]
         if np.isnan(go[0]) != np.isnan(gn[0]) or abs(d) > tol_ft:
@@ -548,22 +328,7 @@ def height_change_ranges(old, new, wall: str, tol_ft: float) -> list[dict]:
             else:
                 x = a + (b - a) * p0 / (p0 - p1)
                 pieces.append((a, x, "") if p0 > 0 else (x, b, ""))
-    pieces.sort()
-    ranges: list[list] = []
-    for s, e, note in pieces:
-        if ranges and ranges[-1][2] == note and s <= ranges[-1][1] + 1e-9:
-            ranges[-1][1] = max(ranges[-1][1], e)
-        else:
-            ranges.append([s, e, note])
-    out = []
-    for s, e, note in ranges:
-        rec = {"wall": wall, "station_start_ft": float(s), "station_end_ft": float(e),
-               "max_abs_delta_ft": math.nan, "station_at_max_ft": math.nan,
-               "old_ft": math.nan, "new_ft": math.nan, "note": note}
-        if not note:
-            rec.update(_largest(grid, go, gn, s, e, tol_ft))
-        out.append(rec)
-    return out
+    return pieces
 
 
 def _only_note(o: float, n: float) -> str:
@@ -677,51 +442,15 @@ def diff_tables(old: RunTables, new: RunTables, *,
     rows: list[dict] = []
     segs: list[dict] = []
     hc_all: list[dict] = []
-    rank = {"removed": 0, "changed": 1, "unchanged": 1, "added": 2}
     for wall in order:
-        recs_o = so[so["wall"] == wall].to_dict("records")
-        recs_n = sn[sn["wall"] == wall].to_dict("records")
         hc = height_change_ranges(old.stations, new.stations, wall, height_tol_ft) \
             if heights_ok else []
         hc_all += hc
-        same, pairs, left_o, left_n = _pair_segments(recs_o, recs_n, fields)
-        wall_rows: list[tuple] = []  # (sort key, rows, segment record)
-        for i, j in [*same, *pairs]:
-            o, n = recs_o[i], recs_n[j]
-            r = []
-            for k, f in enumerate(fields):
-                if not f.same(o[f.name], n[f.name]):
-                    r.append((k, _row(wall, "changed", o, n, n, f.name, _value(o[f.name], f),
-                                      _value(n[f.name], f))))
-            for h in hc:
-                if h["note"]:
-                    continue
-                s0, s1 = n["station_start_ft"], n["station_end_ft"]
-                if _overlap(s0, s1, h["station_start_ft"], h["station_end_ft"]) > LENGTH_TOL_FT:
-                    a, b = max(s0, h["station_start_ft"]), min(s1, h["station_end_ft"])
-                    big = _height_at_max(old.stations, new.stations, wall, a, b)
-                    row = _row(wall, "changed", o, n, n, HEIGHT_FIELD, big[0], big[1])
-                    row["station_start_ft"], row["station_end_ft"] = a, b
-                    r.append((len(fields), row))
-            change = "changed" if r else "unchanged"
-            wall_rows.append(((n["station_start_ft"], rank[change]), [x for _, x in r],
-                              _seg(wall, change, o, n, n, [x["field"] for _, x in r])))
-        for i in left_o:
-            o = recs_o[i]
-            r = [_row(wall, "removed", o, None, o, f.name, _value(o[f.name], f), "")
-                 for f in fields if not _blank(_value(o[f.name], f))]
-            wall_rows.append(((o["station_start_ft"], 0), r, _seg(wall, "removed", o, None, o,
-                                                                  [x["field"] for x in r])))
-        for j in left_n:
-            n = recs_n[j]
-            r = [_row(wall, "added", None, n, n, f.name, "", _value(n[f.name], f))
-                 for f in fields if not _blank(_value(n[f.name], f))]
-            wall_rows.append(((n["station_start_ft"], 2), r, _seg(wall, "added", None, n, n,
-                                                                  [x["field"] for x in r])))
-        wall_rows.sort(key=lambda t: t[0])
-        for _, r, s in wall_rows:
+        for r, seg in _wall_rows(wall, so[so["wall"] == wall].to_dict("records"),
+                                 sn[sn["wall"] == wall].to_dict("records"), fields, hc,
+                                 (old.stations, new.stations)):
             rows += r
-            segs.append(s)
+            segs.append(seg)
     qty_cols = [f.name for f in fields if f.group == "quantity"]
     quantities, site = _quantities(so, sn, order, qty_cols, notes)
     return RunDiff(
@@ -736,6 +465,61 @@ def diff_tables(old: RunTables, new: RunTables, *,
         new_label=str(new.folder) if new.folder else "new",
         wall_order=tuple(order),
     )
+
+
+_RANK = {"removed": 0, "changed": 1, "unchanged": 1, "added": 2}
+
+
+def _wall_rows(wall, recs_o, recs_n, fields, hc, stations) -> list[tuple[list, dict]]:
+    """(rows, segment record) of every segment outcome of one wall, in the rows' order: by
+    start station, removed before changed before added."""
+    same, pairs, left_o, left_n = _pair_segments(recs_o, recs_n, fields)
+    out: list[tuple] = []  # (sort key, rows, segment record)
+    for i, j in [*same, *pairs]:
+        o, n = recs_o[i], recs_n[j]
+        r = _paired_rows(wall, o, n, fields) + _height_rows(wall, o, n, hc, stations,
+                                                            len(fields))
+        change = "changed" if r else "unchanged"
+        out.append(((n["station_start_ft"], _RANK[change]), [x for _, x in r],
+                    _seg(wall, change, o, n, n, [x["field"] for _, x in r])))
+    for change, recs, left in (("removed", recs_o, left_o), ("added", recs_n, left_n)):
+        for k in left:
+            rec = recs[k]
+            o, n = (rec, None) if change == "removed" else (None, rec)
+            r = []
+            for f in fields:
+                v = field_value(rec[f.name], f)
+                if not is_blank(v):
+                    r.append(_row(wall, change, o, n, rec, f.name,
+                                  *((v, "") if change == "removed" else ("", v))))
+            out.append(((rec["station_start_ft"], _RANK[change]), r,
+                        _seg(wall, change, o, n, rec, [x["field"] for x in r])))
+    out.sort(key=lambda t: t[0])
+    return [(r, seg) for _, r, seg in out]
+
+
+def _paired_rows(wall, o, n, fields) -> list[tuple[int, dict]]:
+    """(field index, row) of every compared field that differs between two paired segments."""
+    return [(k, _row(wall, "changed", o, n, n, f.name, field_value(o[f.name], f),
+                     field_value(n[f.name], f)))
+            for k, f in enumerate(fields) if not f.same(o[f.name], n[f.name])]
+
+
+def _height_rows(wall, o, n, hc, stations, index) -> list[tuple[int, dict]]:
+    """The ``retained_height_ft`` rows of a paired segment: one per changed height range its
+    new extent overlaps by more than the length tolerance."""
+    out = []
+    s0, s1 = n["station_start_ft"], n["station_end_ft"]
+    for h in hc:
+        if h["note"]:
+            continue
+        if _overlap(s0, s1, h["station_start_ft"], h["station_end_ft"]) > LENGTH_TOL_FT:
+            a, b = max(s0, h["station_start_ft"]), min(s1, h["station_end_ft"])
+            big = _height_at_max(*stations, wall, a, b)
+            row = _row(wall, "changed", o, n, n, HEIGHT_FIELD, big[0], big[1])
+            row["station_start_ft"], row["station_end_ft"] = a, b
+            out.append((index, row))
+    return out
 
 
 def _height_series(frame, wall: str) -> tuple[np.ndarray, np.ndarray]:

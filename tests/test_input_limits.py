@@ -249,7 +249,7 @@ def test_crossing_grades_are_flagged_not_ok(runner, tmp_path):
     assert res.exit_code == 3, res.output  # not designed for soil on the other side
     assert "the front grade is above the retained grade" in res.stdout
     assert "2.50 ft above" in res.stdout
-    from wallsched.exporters.compare import read_schedule
+    from wallsched.exporters.run_tables import read_schedule
 
     sched = read_schedule(tmp_path / "out" / "schedule.csv")
     flagged = sched[sched["status"].str.startswith(StatusCode.GRADES_CROSS.value)]

@@ -348,7 +348,7 @@ def test_diff_out_may_not_name_a_file_of_either_run(runner, tmp_path: Path):
                                         ("inf", "3.0", False), ("-inf", "inf", False),
                                         ("2.0", "2.0", True)])
 def test_diff_inf_to_inf_is_no_change(a, b, same):
-    from wallsched.exporters.compare import Field
+    from wallsched.exporters.run_tables import Field
 
     assert Field("fs_sliding", "stability", "qty").same(a, b) is same
     assert Field("toe_ft", "dimension", "ft").same(a, b) is same
