@@ -11,6 +11,7 @@ from pypdf import PdfReader
 from sitekit import SMALL_GRID, make_site
 from wallsched.engine.checks import check_section
 from wallsched.exporters import report as rp
+from wallsched.exporters import report_pdf as rpdf
 from wallsched.exporters.schedule import schedule_frame
 
 from wallsched.basis import run_info
@@ -234,15 +235,15 @@ def test_contents_fill_exactly_the_pages_reserved(n_entries, reserved):
     follow when they are not, and every entry is listed with its page."""
     import functools
 
-    pdf = rp._make_pdf("Invented site", "test")
+    pdf = rpdf.make_pdf("Invented site", "test")
     pdf.add_page()
-    pdf.insert_toc_placeholder(functools.partial(rp._render_toc, pages=reserved),
+    pdf.insert_toc_placeholder(functools.partial(rpdf.render_toc, pages=reserved),
                                pages=reserved)  # and a page break: the first chapter's page
     for i in range(n_entries):
         if i:
             pdf.add_page()
         pdf.start_section(f"Chapter {i + 1}", level=0)
-        pdf.set_font(rp.FONT, "", 9)
+        pdf.set_font(rpdf.FONT, "", 9)
         pdf.cell(0, 5, f"text of chapter {i + 1}")
     reader = PdfReader(io.BytesIO(bytes(pdf.output())))
     assert len(reader.pages) == reserved + n_entries
@@ -252,7 +253,7 @@ def test_contents_fill_exactly_the_pages_reserved(n_entries, reserved):
 
 
 def test_contents_pages_estimate_holds_the_outline():
-    pdf = rp._make_pdf("Invented site", "test")
+    pdf = rpdf.make_pdf("Invented site", "test")
     pdf.add_page()
-    one = rp._toc_pages(pdf, 1)
-    assert one == 1 and rp._toc_pages(pdf, 200) >= 4  # about 50 rows a page at full height
+    one = rpdf.toc_pages(pdf, 1)
+    assert one == 1 and rpdf.toc_pages(pdf, 200) >= 4  # about 50 rows a page at full height
