@@ -8,7 +8,8 @@ helpers below choosing them from the bar and its situation; each default says it
 - :func:`hooked_development_in` - l_dh by section 25.4.3.1, >= 8 d_b and 6 in;
 - :func:`hook_extension_in`, :func:`hook_bend_diameter_in`, :func:`hook_length_in` -
   standard hook geometry, Table 25.3.1;
-- :func:`lap_splice_in` - tension lap splices, section 25.5.2 (Class B = 1.3 l_d, >= 12 in).
+- :func:`lap_splice_in` - tension lap splices, section 25.5.2 (Class B = 1.3 l_d, >= 12 in);
+- :func:`footing_development` - the footing bars beyond the stem face, straight or hooked.
 
 Reference values (REFERENCES.md section 3, toolbox case [S]): #3, fy 40 ksi, f'c 3000 psi,
 psi_t*psi_e = 1.7, psi_s = 0.8, (cb+Ktr)/db = 2.5 gives 11.17 in, so 12 in.
@@ -19,6 +20,7 @@ from __future__ import annotations
 import numpy as np
 
 from .bars import bar_diameter_in
+from .concrete import required_steel_in2
 
 SQRT_FC_MAX_PSI = 100.0  # 25.4.1.4: sqrt(f'c) <= 100 psi
 
@@ -243,3 +245,44 @@ def hook_vertical_in(size, angle_deg=90):
     D = hook_bend_diameter_in(size)
     angle = np.asarray(angle_deg)
     return np.where(angle == 90, D / 2.0 + db + hook_extension_in(size, 90), D + 2.0 * db)
+
+
+def _a(x):
+    return np.asarray(x, dtype=float)
+
+
+def footing_development(size, spacing_in, as_in2, d_in, mu_lbft, thickness_in, cover_in,
+                        room_in, inputs, *, top: bool, hooked=None):
+    """Development of footing bars beyond the stem face (ACI 318-19 25.4; DESIGN.md 7).
+
+    Straight: Table 25.4.2.3 (row by clear spacing >= 2 db and cover >= db), psi_t = 1.3 for
+    top bars with more than 12 in of fresh concrete below them (25.4.2.5); hooked: 25.4.3.1
+    with psi_r from the spacing (Table 25.4.3.2), psi_o = ``hook_psi_o``, psi_c from f'c.
+    Both reduced by As,req/As,prov (25.4.10.1; As,req for Mu with phi = 0.9) and never below
+    12 in (straight) or 8 db and 6 in (hooked). A bar is hooked where the straight length does
+    not fit in ``room_in`` (unless ``hooked`` says which). ``inputs`` is the
+    :class:`~.section.DesignInputs`. Returns a dict of arrays.
+    """
+    fc, fy = inputs.fc_psi, inputs.fy_psi
+    size = np.asarray(size)
+    db = bar_diameter_in(size)
+    T = _a(thickness_in)
+    below = T - _a(cover_in) - db  # fresh concrete cast below a top bar
+    pt = np.where(top & (below > 12.0), 1.3, 1.0)
+    req = required_steel_in2(np.maximum(_a(mu_lbft), 0.0), d_in, fc, fy)
+    factor = excess_reinforcement_factor(req, as_in2)
+    ld = straight_development_simple_in(size, fc, fy, psi_t=pt, spacing_in=spacing_in,
+                                        cover_in=cover_in)
+    ldh_eq = hooked_development_equation_in(size, fc, fy, psi_r=hook_psi_r(size, spacing_in),
+                                            psi_o=inputs.hook_psi_o)
+    ld_s = reduced_straight_in(ld, factor)
+    ld_h = reduced_hooked_in(size, ldh_eq, factor)
+    room = _a(room_in)
+    hk = (ld_s > room + 1e-9) if hooked is None else np.asarray(hooked, dtype=bool)
+    other = inputs.cover_toe_in if top else (2.0 if inputs.cover_heel_in is None
+                                             else inputs.cover_heel_in)
+    depth = T - _a(cover_in) - other  # a hook turned down (top bar) or up (bottom bar)
+    angle = np.where(hook_vertical_in(size, 90) <= depth + 1e-9, 90, 180)
+    return {"as_required_in2": req, "ld_straight_in": ld_s, "ldh_in": ld_h,
+            "hooked": np.asarray(hk), "ld_required_in": np.where(hk, ld_h, ld_s),
+            "ld_available_in": room, "hook_angle_deg": angle}

@@ -137,6 +137,28 @@ class StabilityResult:
         return pd.DataFrame(cols)
 
 
+def _passive_lb(geom, inputs, p):
+    """Passive resistance from ``passive_neglect_ft`` below the front grade to the bottom of
+    the footing or key (0 without ``use_passive``)."""
+    if not inputs.use_passive:
+        return np.zeros_like(geom.footing_width_ft)
+    key_depth_ft = np.where(geom.has_key, geom.key_depth_in / 12.0, 0.0)
+    return passive_resistance_lb(p.passive_efp_pcf, inputs.passive_neglect_ft,
+                                 geom.embedment_ft + key_depth_ft)
+
+
+def _governing_bearing(case0, case1):
+    """(resultant in the base in both, q_max, q_min, e, case1 governs) of the two bearing
+    cases: the larger q_max governs; where a resultant is outside the base, that case."""
+    in_base = case0.in_base & case1.in_base
+    pick1 = np.where(in_base, case1.q_max_psf > case0.q_max_psf,
+                     ~case1.in_base & case0.in_base)
+    q_max = np.maximum(case0.q_max_psf, case1.q_max_psf)  # NaN if either case is outside
+    q_min = np.where(pick1, case1.q_min_psf, case0.q_min_psf)
+    e = np.where(pick1, case1.eccentricity_ft, case0.eccentricity_ft)
+    return in_base, q_max, q_min, e, pick1
+
+
 def stability(geom: SectionGeometry, inputs: DesignInputs, *,
               pressure: EarthPressure | None = None, thrust: Thrust | None = None,
               weights: Weights | None = None) -> StabilityResult:
@@ -176,20 +198,11 @@ def stability(geom: SectionGeometry, inputs: DesignInputs, *,
         else:
             v1, m1 = v_dead + v_q, m_dead + m_q
             case1 = bearing_pressure(v1, B / 2.0 - (m1 - m_o) / v1, B)
-        key_depth_ft = np.where(geom.has_key, geom.key_depth_in / 12.0, 0.0)
-        pp = (passive_resistance_lb(p.passive_efp_pcf, inputs.passive_neglect_ft,
-                                    geom.embedment_ft + key_depth_ft)
-              if inputs.use_passive else np.zeros_like(B))
+        pp = _passive_lb(geom, inputs, p)
         h_drive = th.horizontal_lb
         h_res = inputs.friction_coefficient * v_r + pp
         fs_sl = h_res / h_drive
-    in_base = case0.in_base & case1.in_base
-    # governing case: the larger q_max; where a resultant is outside the base, that case
-    pick1 = np.where(in_base, case1.q_max_psf > case0.q_max_psf,
-                     ~case1.in_base & case0.in_base)
-    q_max = np.maximum(case0.q_max_psf, case1.q_max_psf)  # NaN if either case is outside
-    q_min = np.where(pick1, case1.q_min_psf, case0.q_min_psf)
-    e = np.where(pick1, case1.eccentricity_ft, case0.eccentricity_ft)
+    in_base, q_max, q_min, e, pick1 = _governing_bearing(case0, case1)
     with_q = np.asarray(pick1 | inputs.surcharge_resists)
     ok_ot = (fs_ot >= inputs.fs_overturning) & in_base
     ok_sl = fs_sl >= inputs.fs_sliding

@@ -36,8 +36,28 @@ from dataclasses import dataclass, fields
 
 import numpy as np
 
-from .bars import bar_diameter_in
-from .development import hook_psi_r, hooked_development_in
+from .concrete import (
+    B_IN,
+    EPS_CU,
+    ES_PSI,
+    PHI_SHEAR,
+    Flexure,
+    beta1,
+    cover_in,
+    crack_control_spacing_in,
+    flexural_strength,
+    max_flexural_spacing_in,
+    min_flexural_steel_in2,
+    one_way_shear_strength,
+    phi_flexure,
+    required_steel_in2,
+    service_steel_stress_psi,
+    shrinkage_spacing_in,
+    shrinkage_steel_in2,
+    size_effect_factor,
+    wall_horizontal_min_in2,
+)
+from .development import footing_development, hook_psi_r, hooked_development_in
 from .pressure import (
     EarthPressure,
     design_thrust,
@@ -47,10 +67,20 @@ from .pressure import (
 )
 from .section import BarArrays, DesignInputs, SectionGeometry
 
-ES_PSI = 29_000_000.0  # 20.2.2.2
-EPS_CU = 0.003  # 22.2.2.1
-PHI_SHEAR = 0.75  # Table 21.2.1
-B_IN = 12.0  # one foot of wall
+# the member strengths, and the strip strengths of engine/concrete.py they are built on
+__all__ = [
+    "B_IN", "COMBINATIONS", "EPS_CU", "ES_PSI", "FOOTING_END_COVER_IN", "Flexure", "FootingResult",
+    "LF_DEAD_ADDS", "LF_DEAD_RESISTS", "LF_LATERAL", "LF_SEISMIC", "LIVE_THRUST", "MemberResult",
+    "PHI_SHEAR", "STATIC_COMBINATIONS", "STEM_HEIGHT_FRACTIONS", "StemResult", "beta1",
+    "clipped_line_load", "cover_in", "crack_control_spacing_in", "factored_pressure_line",
+    "flexural_strength", "heel_demand", "heel_down_loads", "heel_loads_psf",
+    "heel_room_in", "heel_strength", "max_flexural_spacing_in", "min_flexural_steel_in2",
+    "one_way_shear_strength", "phi_flexure", "pressure_line", "required_steel_in2",
+    "seismic_combination", "service_steel_stress_psi", "shrinkage_spacing_in",
+    "shrinkage_steel_in2", "size_effect_factor", "stem_strength", "toe_room_in", "toe_strength",
+    "wall_horizontal_min_in2"
+]
+
 LF_LATERAL = 1.6  # ASCE 7 2.3: H (lateral earth pressure) and L (live surcharge)
 LF_DEAD_ADDS = 1.2
 LF_DEAD_RESISTS = 0.9
@@ -60,152 +90,6 @@ STEM_HEIGHT_FRACTIONS = (0.25, 0.5, 0.75)  # sections up a stem, fractions of h_
 
 def _a(x):
     return np.asarray(x, dtype=float)
-
-
-# ---------------------------------------------------------------- section-level helpers --
-def beta1(fc_psi):
-    """Stress-block depth factor (Table 22.2.2.4.3): 0.85 to 4000 psi, -0.05 per 1000 psi,
-    0.65 from 8000 psi."""
-    fc = _a(fc_psi)
-    return np.clip(0.85 - 0.05 * (fc - 4000.0) / 1000.0, 0.65, 0.85)
-
-
-def phi_flexure(eps_t, fy_psi):
-    """Strength reduction factor from the net tensile strain (Table 21.2.2, 318-19): 0.65 at
-    eps_t <= eps_ty, 0.90 at eps_t >= eps_ty + 0.003, linear between (other than spirals)."""
-    eps_ty = _a(fy_psi) / ES_PSI
-    return np.clip(0.65 + 0.25 * (_a(eps_t) - eps_ty) / 0.003, 0.65, 0.90)
-
-
-@dataclass(frozen=True)
-class Flexure:
-    """Flexural strength of a singly reinforced rectangle."""
-
-    phi_mn_lbft: np.ndarray
-    mn_lbft: np.ndarray
-    phi: np.ndarray
-    eps_t: np.ndarray
-    c_in: np.ndarray
-    a_in: np.ndarray
-
-
-def flexural_strength(as_in2, d_in, fc_psi, fy_psi, b_in=B_IN) -> Flexure:
-    """phi*Mn of a singly reinforced rectangle, lb-ft (ACI 318-19 22.2, Table 21.2.2).
-
-    Equilibrium 0.85 f'c b beta1 c = As fs with fs = min(fy, Es eps_s): first with the steel
-    yielding; where eps_s < eps_ty the quadratic 0.85 f'c b beta1 c^2 + As Es eps_cu c
-    - As Es eps_cu d = 0 gives c (steel elastic).
-    """
-    As, d, fc, fy = _a(as_in2), _a(d_in), _a(fc_psi), _a(fy_psi)
-    b1 = beta1(fc)
-    k = 0.85 * fc * b_in * b1
-    with np.errstate(divide="ignore", invalid="ignore"):
-        c = As * fy / k
-        eps = EPS_CU * (d - c) / c
-        elastic = eps < fy / ES_PSI
-        m = As * ES_PSI * EPS_CU
-        c_el = (-m + np.sqrt(m * m + 4.0 * k * m * d)) / (2.0 * k)
-        c = np.where(elastic, c_el, c)
-        eps = EPS_CU * (d - c) / c
-    a = b1 * c
-    mn = 0.85 * fc * b_in * a * (d - a / 2.0) / 12.0
-    phi = phi_flexure(eps, fy)
-    return Flexure(phi * mn, mn, phi, eps, c, a)
-
-
-def size_effect_factor(d_in):
-    """lambda_s = sqrt(2 / (1 + d/10)) <= 1.0, d in inches (Eq. 22.5.5.1.3)."""
-    return np.minimum(np.sqrt(2.0 / (1.0 + _a(d_in) / 10.0)), 1.0)
-
-
-def one_way_shear_strength(as_in2, d_in, fc_psi, b_in=B_IN, *, size_effect=True, lam=1.0):
-    """phi*Vc, lb, of a member without shear reinforcement (Table 22.5.5.1 row (c), Nu = 0):
-    Vc = 8 lambda_s lam rho_w^(1/3) sqrt(f'c) b d <= 5 lam sqrt(f'c) b d (22.5.5.1.1), with
-    sqrt(f'c) <= 100 psi (22.5.3.1) and phi = 0.75 (Table 21.2.1).
-
-    Args:
-        as_in2: flexural tension steel in the width b, in^2; d_in: effective depth, in.
-        size_effect: apply lambda_s (False where 13.2.6.2 permits neglecting it).
-    """
-    As, d = _a(as_in2), _a(d_in)
-    sq = np.minimum(np.sqrt(_a(fc_psi)), 100.0)
-    with np.errstate(divide="ignore", invalid="ignore"):
-        rho = As / (b_in * d)
-    ls = size_effect_factor(d) if size_effect else 1.0
-    vc = 8.0 * ls * lam * np.cbrt(rho) * sq * b_in * d
-    vc = np.minimum(vc, 5.0 * lam * sq * b_in * d)
-    return PHI_SHEAR * vc
-
-
-def required_steel_in2(mu_lbft, d_in, fc_psi, fy_psi, b_in=B_IN, phi=0.9):
-    """Steel area for ``mu_lbft`` with the Whitney block, assuming yield and ``phi`` (sizing
-    aid; NaN where the section cannot carry it). Check the result with flexural_strength."""
-    mu = _a(mu_lbft) * 12.0 / phi
-    fc, fy, d = _a(fc_psi), _a(fy_psi), _a(d_in)
-    k = 0.85 * fc * b_in
-    with np.errstate(invalid="ignore"):
-        a = d - np.sqrt(d * d - 2.0 * mu / k)
-    return k * a / fy
-
-
-def cover_in(size, override=None):
-    """Clear cover to bars formed and exposed to earth or weather (Table 20.5.1.3.1): 2 in for
-    No. 6 - 18, 1.5 in for No. 5 and smaller; ``override`` (a criteria option) replaces it."""
-    if override is not None:
-        return np.full(np.shape(size), float(override))
-    return np.where(np.asarray(size) >= 6, 2.0, 1.5)
-
-
-def min_flexural_steel_in2(thickness_in, b_in=B_IN):
-    """As,min = 0.0018 Ag of a one-way slab (7.6.1.1, 318-19 [S]); also used for the footing
-    (13.3.2.1 routes one-way shallow foundations to Ch. 7)."""
-    return 0.0018 * b_in * _a(thickness_in)
-
-
-def max_flexural_spacing_in(thickness_in):
-    """Maximum spacing of flexural bars in a slab: the lesser of 3h and 18 in (7.7.2.3)."""
-    return np.minimum(3.0 * _a(thickness_in), 18.0)
-
-
-def service_steel_stress_psi(ms_lbft, as_in2, d_in, fc_psi, b_in=B_IN):
-    """Bar stress under the service moment, cracked elastic section, psi (for 24.3.2).
-
-    n = Es/Ec with Ec = 57,000 sqrt(f'c) (19.2.2.1(b), normal-weight concrete);
-    k = sqrt(2 rho n + (rho n)^2) - rho n; fs = Ms / (As (d - kd/3)).
-    """
-    As, d = _a(as_in2), _a(d_in)
-    n = ES_PSI / (57000.0 * np.sqrt(_a(fc_psi)))
-    with np.errstate(divide="ignore", invalid="ignore"):
-        rn = As / (b_in * d) * n
-        k = np.sqrt(2.0 * rn + rn * rn) - rn
-        return _a(ms_lbft) * 12.0 / (As * d * (1.0 - k / 3.0))
-
-
-def crack_control_spacing_in(fs_psi, clear_cover_in):
-    """Maximum bar spacing for crack control (24.3.2, Table 24.3.2; from memory):
-    s = 15 (40,000/fs) - 2.5 cc <= 12 (40,000/fs), >= 0; infinite where fs = 0."""
-    fs = _a(fs_psi)
-    with np.errstate(divide="ignore"):
-        r = 40000.0 / fs
-    return np.maximum(np.minimum(15.0 * r - 2.5 * _a(clear_cover_in), 12.0 * r), 0.0)
-
-
-def wall_horizontal_min_in2(thickness_in, size, fy_psi, b_in=B_IN):
-    """Minimum horizontal (transverse) wall steel per foot of height, Table 11.6.1 (via
-    11.1.6 for cantilever retaining walls; [S]): rho_t = 0.0020 for No. 5 and smaller with
-    fy >= 60 ksi, else 0.0025, of b times the thickness given (use the average thickness)."""
-    rho = np.where((np.asarray(size) <= 5) & (_a(fy_psi) >= 60000.0), 0.0020, 0.0025)
-    return rho * b_in * _a(thickness_in)
-
-
-def shrinkage_steel_in2(thickness_in, b_in=B_IN):
-    """Shrinkage and temperature steel, 0.0018 Ag (24.4.3.2, 318-19 [S])."""
-    return 0.0018 * b_in * _a(thickness_in)
-
-
-def shrinkage_spacing_in(thickness_in):
-    """Maximum spacing of shrinkage and temperature bars: lesser of 5h and 18 in (24.4.3.3)."""
-    return np.minimum(5.0 * _a(thickness_in), 18.0)
 
 
 # ------------------------------------------------------------------------ member results --
@@ -264,12 +148,54 @@ class StemResult(MemberResult):
     height_shear_y_ft: np.ndarray
 
 
+def stem_factored(geom, inputs, p, z):
+    """Service and factored shear and moment on the stem at depth z below the retained grade:
+    the larger of 1.6 (H + L) and, with [seismic], 1.6 H + 1.0 E (live loads left out)."""
+    v, m = stem_shear_moment(geom, inputs, p, z)
+    vu, mu = LF_LATERAL * v, LF_LATERAL * m
+    if inputs.seismic is not None:
+        v0, m0 = stem_shear_moment(geom, inputs, p, z, live=False)
+        ve, me = stem_seismic_shear_moment(geom, inputs, p, z)
+        vu = np.maximum(vu, LF_LATERAL * v0 + LF_SEISMIC * ve)
+        mu = np.maximum(mu, LF_LATERAL * m0 + LF_SEISMIC * me)
+    return v, m, vu, mu
+
+
+def _up_the_stem(geom, inputs, p, As, d, cover_db, fractions) -> dict:
+    """The worst flexure and shear ratios at the sections up the stem (``fractions`` of h_s
+    above the top of footing; d there = the stem's thickness - cover - db/2, ``cover_db`` =
+    (cover, db))."""
+    cov, db = cover_db
+    fc, fy = inputs.fc_psi, inputs.fy_psi
+    hs = geom.soil_height_ft
+    nd = len(np.broadcast_shapes(np.shape(hs), np.shape(d), np.shape(As), geom.shape))
+    fr = np.asarray(fractions, dtype=float).reshape((-1,) + (1,) * nd)
+    y = fr * hs  # above the top of footing; hs - y below the retained grade
+    d_y = geom.stem_thickness_in(y) - cov - db / 2.0
+    _, _, vu_y, mu_y = stem_factored(geom, inputs, p, hs - y)
+    pmn_y = flexural_strength(As, d_y, fc, fy).phi_mn_lbft
+    pvn_y = one_way_shear_strength(As, d_y, fc, size_effect=True)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        r_f, r_v = mu_y / pmn_y, vu_y / pvn_y
+    i_f = np.argmax(r_f, axis=0)[None]
+    i_v = np.argmax(r_v, axis=0)[None]
+
+    def pick(arr, idx):
+        arr = np.broadcast_to(arr, (arr.shape[0],) + idx.shape[1:])
+        return np.take_along_axis(arr, idx, axis=0)[0]
+
+    return dict(height_mu_lbft=pick(mu_y, i_f), height_phi_mn_lbft=pick(pmn_y, i_f),
+                height_flexure_y_ft=pick(y, i_f), height_vu_lb=pick(vu_y, i_v),
+                height_phi_vn_lb=pick(pvn_y, i_v), height_shear_y_ft=pick(y, i_v))
+
+
 def stem_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays, *,
                   pressure: EarthPressure | None = None,
                   fractions=STEM_HEIGHT_FRACTIONS, bottom_mat_in=0.0) -> StemResult:
     """Stem flexure, shear, minimum steel, spacing, crack control and hook development.
 
-    Mu = 1.6 (EFP h_s^3/6 + Ka q h_s^2/2) with h_s = retained grade - top of footing; Vu at d
+    Mu = 1.6 x the stem load of the pressure models in use (level backfill: EFP h_s^3/6 +
+    Ka q h_s^2/2) with h_s = retained grade - top of footing; Vu at d
     above the footing (7.4.3.2); d = stem base - cover - db/2 (bars at the back face);
     lambda_s applies (one-way slab). The stem bars are hooked into the footing, the hook
     resting on the bottom mat: l_dh (25.4.3.1; psi_r from the bar spacing, psi_o from the
@@ -286,20 +212,8 @@ def stem_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays, 
     d = tb - cov - db / 2.0
     As = bars.area_in2_per_ft
 
-    def factored(z):
-        """Service and factored shear and moment at depth z below the retained grade: the
-        larger of 1.6 (H + L) and, with [seismic], 1.6 H + 1.0 E (live loads left out)."""
-        v, m = stem_shear_moment(geom, inputs, p, z)
-        vu, mu = LF_LATERAL * v, LF_LATERAL * m
-        if inputs.seismic is not None:
-            v0, m0 = stem_shear_moment(geom, inputs, p, z, live=False)
-            ve, me = stem_seismic_shear_moment(geom, inputs, p, z)
-            vu = np.maximum(vu, LF_LATERAL * v0 + LF_SEISMIC * ve)
-            mu = np.maximum(mu, LF_LATERAL * m0 + LF_SEISMIC * me)
-        return v, m, vu, mu
-
-    _, ms, _, mu_base = factored(hs)
-    _, _, vu_d, _ = factored(hs - d / 12.0)
+    _, ms, _, mu_base = stem_factored(geom, inputs, p, hs)
+    _, _, vu_d, _ = stem_factored(geom, inputs, p, hs - d / 12.0)
     fl = flexural_strength(As, d, fc, fy)
     pvn = one_way_shear_strength(As, d, fc, size_effect=True)
     s_max = max_flexural_spacing_in(tb)
@@ -312,23 +226,7 @@ def stem_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays, 
     ldh = hooked_development_in(bars.size, fc, fy, psi_e=1.0,
                                 psi_r=hook_psi_r(bars.size, bars.spacing_in),
                                 psi_o=inputs.hook_psi_o)
-    # sections up the stem: y above the top of footing, z below the retained grade
-    nd = len(np.broadcast_shapes(np.shape(hs), np.shape(d), np.shape(As), geom.shape))
-    fr = np.asarray(fractions, dtype=float).reshape((-1,) + (1,) * nd)
-    y = fr * hs
-    d_y = geom.stem_thickness_in(y) - cov - db / 2.0
-    _, _, vu_y, mu_y = factored(hs - y)
-    pmn_y = flexural_strength(As, d_y, fc, fy).phi_mn_lbft
-    pvn_y = one_way_shear_strength(As, d_y, fc, size_effect=True)
-    with np.errstate(divide="ignore", invalid="ignore"):
-        r_f, r_v = mu_y / pmn_y, vu_y / pvn_y
-    i_f = np.argmax(r_f, axis=0)[None]
-    i_v = np.argmax(r_v, axis=0)[None]
-
-    def pick(arr, idx):
-        arr = np.broadcast_to(arr, (arr.shape[0],) + idx.shape[1:])
-        return np.take_along_axis(arr, idx, axis=0)[0]
-
+    up = _up_the_stem(geom, inputs, p, As, d, (cov, db), fractions)
     return StemResult(
         mu_lbft=mu_base, phi_mn_lbft=fl.phi_mn_lbft, vu_lb=vu_d,
         phi_vn_lb=pvn, d_in=d, thickness_in=tb, as_in2=As,
@@ -336,9 +234,7 @@ def stem_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays, 
         s_max_in=np.minimum(s_max, s_cr), cover_in=cov, phi=fl.phi, eps_t=fl.eps_t,
         a_in=fl.a_in, ms_lbft=ms, fs_service_psi=fs, s_crack_in=s_cr, ldh_in=ldh,
         ldh_available_in=geom.footing_thickness_in - inputs.cover_toe_in - _a(bottom_mat_in),
-        height_mu_lbft=pick(mu_y, i_f), height_phi_mn_lbft=pick(pmn_y, i_f),
-        height_flexure_y_ft=pick(y, i_f), height_vu_lb=pick(vu_y, i_v),
-        height_phi_vn_lb=pick(pvn_y, i_v), height_shear_y_ft=pick(y, i_v),
+        **up,
     )
 
 
@@ -402,52 +298,6 @@ def footing_member(geom, inputs, bars, mu, vu, cov):
         thickness_in=T, as_in2=As, as_min_in2=min_flexural_steel_in2(T),
         spacing_in=bars.spacing_in, s_max_in=max_flexural_spacing_in(T), cover_in=cov,
         phi=fl.phi, eps_t=fl.eps_t, a_in=fl.a_in)
-
-
-def footing_development(size, spacing_in, as_in2, d_in, mu_lbft, thickness_in, cover_in,
-                        room_in, inputs: DesignInputs, *, top: bool, hooked=None):
-    """Development of footing bars beyond the stem face (ACI 318-19 25.4; DESIGN.md 7).
-
-    Straight: Table 25.4.2.3 (row by clear spacing >= 2 db and cover >= db), psi_t = 1.3 for
-    top bars with more than 12 in of fresh concrete below them (25.4.2.5); hooked: 25.4.3.1
-    with psi_r from the spacing (Table 25.4.3.2), psi_o = ``hook_psi_o``, psi_c from f'c.
-    Both reduced by As,req/As,prov (25.4.10.1; As,req for Mu with phi = 0.9) and never below
-    12 in (straight) or 8 db and 6 in (hooked). A bar is hooked where the straight length does
-    not fit in ``room_in`` (unless ``hooked`` says which). Returns a dict of arrays.
-    """
-    from .development import (
-        excess_reinforcement_factor,
-        hook_psi_r,
-        hook_vertical_in,
-        hooked_development_equation_in,
-        reduced_hooked_in,
-        reduced_straight_in,
-        straight_development_simple_in,
-    )
-
-    fc, fy = inputs.fc_psi, inputs.fy_psi
-    size = np.asarray(size)
-    db = bar_diameter_in(size)
-    T = _a(thickness_in)
-    below = T - _a(cover_in) - db  # fresh concrete cast below a top bar
-    pt = np.where(top & (below > 12.0), 1.3, 1.0)
-    req = required_steel_in2(np.maximum(_a(mu_lbft), 0.0), d_in, fc, fy)
-    factor = excess_reinforcement_factor(req, as_in2)
-    ld = straight_development_simple_in(size, fc, fy, psi_t=pt, spacing_in=spacing_in,
-                                        cover_in=cover_in)
-    ldh_eq = hooked_development_equation_in(size, fc, fy, psi_r=hook_psi_r(size, spacing_in),
-                                            psi_o=inputs.hook_psi_o)
-    ld_s = reduced_straight_in(ld, factor)
-    ld_h = reduced_hooked_in(size, ldh_eq, factor)
-    room = _a(room_in)
-    hk = (ld_s > room + 1e-9) if hooked is None else np.asarray(hooked, dtype=bool)
-    other = inputs.cover_toe_in if top else (2.0 if inputs.cover_heel_in is None
-                                             else inputs.cover_heel_in)
-    depth = T - _a(cover_in) - other  # a hook turned down (top bar) or up (bottom bar)
-    angle = np.where(hook_vertical_in(size, 90) <= depth + 1e-9, 90, 180)
-    return {"as_required_in2": req, "ld_straight_in": ld_s, "ldh_in": ld_h,
-            "hooked": np.asarray(hk), "ld_required_in": np.where(hk, ld_h, ld_s),
-            "ld_available_in": room, "hook_angle_deg": angle}
 
 
 def _footing_result(member: MemberResult, mu_c, vu_c, dev) -> FootingResult:
@@ -664,6 +514,22 @@ def clipped_line_load(q0, s, length_ft):
     return force, moment
 
 
+def _toe_seismic(geom, inputs, pressure, weights, w, Lv):
+    """(combination index, Mu, Vu) of the toe for 1.2D + 1.0E + 1.6H: its own factored
+    bearing pressure over the toe (to the face; to ``Lv`` for the shear) less f_D x ``w``."""
+    from .section import section_weights
+
+    L = geom.toe_ft
+    p = pressure or earth_pressure(inputs)
+    wts = weights if weights is not None else section_weights(geom, inputs)
+    i, f_d, f_h, f_l, extra = seismic_combination(geom, inputs, p, wts)
+    q0e, se, _ = factored_pressure_line(geom, inputs, wts, extra["thrust"], f_d, f_h, f_l,
+                                        extra["base"])
+    _, m_e = clipped_line_load(q0e, se, L)
+    f_e, _ = clipped_line_load(q0e, se, Lv)
+    return i, m_e - f_d * w * L * L / 2.0, f_e - f_d * w * Lv
+
+
 def toe_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays,
                  stab=None, *, pressure=None, weights=None, hooked=None) -> FootingResult:
     """Toe as a cantilever from the stem's front face, bottom bars in tension.
@@ -708,17 +574,7 @@ def toe_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays,
     mu_c = np.full(shape, TOE_SERVICE)
     vu_c = np.full(shape, TOE_SERVICE)
     if inputs.seismic is not None:
-        from .section import section_weights
-
-        p = pressure or earth_pressure(inputs)
-        wts = weights if weights is not None else section_weights(geom, inputs)
-        i, f_d, f_h, f_l, extra = seismic_combination(geom, inputs, p, wts)
-        q0e, se, _ = factored_pressure_line(geom, inputs, wts, extra["thrust"], f_d, f_h, f_l,
-                                            extra["base"])
-        _, m_e = clipped_line_load(q0e, se, L)
-        f_e, _ = clipped_line_load(q0e, se, Lv)
-        m_e = m_e - f_d * w * L * L / 2.0
-        f_e = f_e - f_d * w * Lv
+        i, m_e, f_e = _toe_seismic(geom, inputs, pressure, weights, w, Lv)
         mu_c = np.where(m_e > mu, i, mu_c)
         vu_c = np.where(f_e > vu, i, vu_c)
         mu, vu = np.maximum(mu, m_e), np.maximum(vu, f_e)
