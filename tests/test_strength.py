@@ -11,13 +11,11 @@ import math
 
 import numpy as np
 import pytest
-from wallsched.engine.section import BarArrays, DesignInputs, SectionGeometry
-from wallsched.engine.strength import (
+from wallsched.engine.concrete import (
     beta1,
     cover_in,
     crack_control_spacing_in,
     flexural_strength,
-    heel_strength,
     max_flexural_spacing_in,
     min_flexural_steel_in2,
     one_way_shear_strength,
@@ -27,10 +25,10 @@ from wallsched.engine.strength import (
     shrinkage_spacing_in,
     shrinkage_steel_in2,
     size_effect_factor,
-    stem_strength,
-    toe_strength,
     wall_horizontal_min_in2,
 )
+from wallsched.engine.section import BarArrays, DesignInputs, SectionGeometry
+from wallsched.engine.strength import heel_strength, stem_strength, toe_strength
 
 
 @pytest.mark.parametrize("fc,b1", [(2500, 0.85), (4000, 0.85), (5000, 0.80), (6000, 0.75),
