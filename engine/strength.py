@@ -73,7 +73,7 @@ __all__ = [
     "LF_DEAD_ADDS", "LF_DEAD_RESISTS", "LF_LATERAL", "LF_SEISMIC", "LIVE_THRUST", "MemberResult",
     "PHI_SHEAR", "STATIC_COMBINATIONS", "STEM_HEIGHT_FRACTIONS", "StemResult", "beta1",
     "clipped_line_load", "cover_in", "crack_control_spacing_in", "factored_pressure_line",
-    "flexural_strength", "heel_demand", "heel_down_loads", "heel_loads_psf",
+    "flexural_strength", "footing_member", "heel_demand", "heel_down_loads", "heel_loads_psf",
     "heel_room_in", "heel_strength", "max_flexural_spacing_in", "min_flexural_steel_in2",
     "one_way_shear_strength", "phi_flexure", "pressure_line", "required_steel_in2",
     "seismic_combination", "service_steel_stress_psi", "shrinkage_spacing_in",
