@@ -50,7 +50,7 @@ def stem_formulas(inputs, p: EarthPressure) -> tuple[str, str]:
 
 
 def earth_pressure(inputs) -> EarthPressure:
-    """The active/passive pressures of a :class:`~.section.DesignInputs`."""
+    """The active/passive pressures of a :class:`~.inputs.DesignInputs`."""
     ka, efp, incl, basis = active_model(inputs).pressure(inputs)
     gamma = inputs.unit_weight_pcf
     if not inputs.use_passive:

@@ -1,0 +1,191 @@
+"""The site-wide inputs every section is checked with: soil, loads (surcharge, strip loads,
+the seismic case, water), materials and criteria, as plain values (``DesignInputs``), with
+the ``[seismic]`` and ``[water]`` tables (``SeismicLoad``, ``WaterTable``). The geometry, bars
+and weights of a section are ``engine/section.py``.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Mapping
+from dataclasses import dataclass, fields
+
+import numpy as np
+
+SEISMIC_METHODS = ("seed-whitman", "mononobe-okabe")
+
+
+@dataclass(frozen=True)
+class SeismicLoad:
+    """The ``[seismic]`` table: horizontal coefficient, method, load factor, required FS."""
+
+    kh: float
+    method: str = "seed-whitman"
+    load_factor: float = 0.7  # IBC 2021 1807.2.3: 0.7 on nominal earthquake loads
+    fs_overturning: float = 1.1  # IBC 2021 1807.2.3
+    fs_sliding: float = 1.1  # IBC 2021 1807.2.3
+    soil_inertia: bool = True  # the soil over the heel moves with the wall (DESIGN.md 7)
+
+    def __post_init__(self):
+        if self.method not in SEISMIC_METHODS:
+            raise ValueError(f"seismic method must be one of {SEISMIC_METHODS}, "
+                             f"got {self.method!r}")
+        if not (0.0 <= self.kh < 1.0):
+            raise ValueError(f"seismic kh must be in 0 to 1, got {self.kh!r}")
+
+
+@dataclass(frozen=True)
+class WaterTable:
+    """The ``[water]`` table: water level behind the wall above the bottom of footing, ft, and
+    the saturated unit weight of the soil below it (None: ``unit_weight_pcf``)."""
+
+    level_ft: float
+    saturated_unit_weight_pcf: float | None = None
+
+
+def _strip_tuple(items) -> tuple:
+    out = []
+    for it in items or ():
+        if isinstance(it, Mapping):
+            out.append((float(it["offset_ft"]), float(it["width_ft"]),
+                        float(it["pressure_psf"])))
+        else:
+            off, width, q = it
+            out.append((float(off), float(width), float(q)))
+    return tuple(out)
+
+
+@dataclass(frozen=True)
+class DesignInputs:
+    """Soil, loads, materials and criteria shared by every section of one call (plain values).
+
+    Field names and defaults are the keys of ``wallsched/keys.py`` (the site and section files):
+    a test holds the two together. Soil values have no defaults (never silently assumed).
+    Build from validated tables with :meth:`from_tables`.
+    """
+
+    # [soil]
+    unit_weight_pcf: float
+    friction_coefficient: float
+    allowable_bearing_psf: float
+    active_efp_pcf: float | None = None
+    friction_angle_deg: float | None = None
+    passive_efp_pcf: float | None = None
+    passive_from_friction_angle: bool = False
+    backslope_deg: float | None = None  # None or 0: level retained grade
+    active_method: str = "rankine"
+    wall_friction_deg: float | None = None
+    coulomb_plane: str = "heel"  # "heel": soil on soil, friction = backslope; "stem": delta
+    # [loads]
+    surcharge_psf: float = 0.0
+    strip: tuple = ()  # ((offset_ft, width_ft, pressure_psf), ...) from [[loads.strip]]
+    seismic: SeismicLoad | None = None  # from the [seismic] table; None: no seismic case
+    water: WaterTable | None = None  # from the [water] table; None: drained
+    # [materials]
+    fc_psi: float = 4000.0
+    fy_psi: float = 60000.0
+    concrete_unit_weight_pcf: float = 150.0  # common practice
+    # [criteria]: stability conventions (DESIGN.md section 7)
+    fs_overturning: float = 1.5  # IBC 2021 1807.2.3
+    fs_sliding: float = 1.5  # IBC 2021 1807.2.3
+    count_toe_soil: bool = True
+    use_passive: bool = True
+    passive_neglect_ft: float = 1.0  # common practice
+    surcharge_resists: bool = False
+    batter_face: str = "back"
+    min_embedment_ft: float = 1.0  # IBC 2021 1809.4 (12 in)
+    frost_depth_ft: float | None = None
+    # [criteria]: strength options (ACI 318-19)
+    cover_stem_in: float | None = None  # None: Table 20.5.1.3.1 by bar size (2 / 1.5 in)
+    cover_heel_in: float | None = None  # None: Table 20.5.1.3.1 by bar size (2 / 1.5 in)
+    cover_toe_in: float = 3.0  # Table 20.5.1.3.1: cast against earth
+    footing_shear_size_effect: bool = False  # 13.2.6.2 permits neglecting lambda_s
+    crack_control: bool = True  # 24.3.2 on the stem
+    hook_psi_o: float = 1.0  # Table 25.4.3.2 location factor (see development.py)
+    heel_upward_pressure: bool = True  # heel by the net factored pressure (DESIGN.md 7)
+
+    def __post_init__(self):
+        has_efp = self.active_efp_pcf is not None
+        has_phi = self.friction_angle_deg is not None
+        if has_efp == has_phi:
+            raise ValueError("give exactly one of active_efp_pcf and friction_angle_deg")
+        if self.passive_from_friction_angle and not has_phi:
+            raise ValueError("passive_from_friction_angle needs friction_angle_deg")
+        if self.use_passive and not self.passive_from_friction_angle and (
+                self.passive_efp_pcf is None):
+            raise ValueError("use_passive needs passive_efp_pcf or passive_from_friction_angle")
+        if self.batter_face not in ("back", "front"):
+            raise ValueError(f"batter_face must be 'back' or 'front', got {self.batter_face!r}")
+        for name in ("unit_weight_pcf", "friction_coefficient", "allowable_bearing_psf",
+                     "fc_psi", "fy_psi", "concrete_unit_weight_pcf"):
+            v = getattr(self, name)
+            if not (isinstance(v, int | float) and np.isfinite(v) and v > 0):
+                raise ValueError(f"{name} must be a positive number, got {v!r}")
+        object.__setattr__(self, "strip", _strip_tuple(self.strip))
+        self._check_extended(has_phi)
+
+    def _check_extended(self, has_phi: bool):
+        """Cross-key rules of the pressure models (each model's own, engine/pressure)."""
+        from .pressure import check_inputs
+
+        check_inputs(self, has_phi)
+
+    @property
+    def gamma_below_water_pcf(self) -> float:
+        """Total unit weight of the soil below the water level: ``saturated_unit_weight_pcf``
+        when given, else ``unit_weight_pcf`` (DESIGN.md section 7, water)."""
+        sat = None if self.water is None else self.water.saturated_unit_weight_pcf
+        return float(self.unit_weight_pcf if sat is None else sat)
+
+    @property
+    def water_level_ft(self) -> float | None:
+        """Water level above the bottom of footing, ft (None: drained)."""
+        return None if self.water is None else float(self.water.level_ft)
+
+    @classmethod
+    def from_tables(cls, soil: Mapping, loads: Mapping, materials: Mapping,
+                    criteria: Mapping, seismic: Mapping | None = None,
+                    water: Mapping | None = None) -> DesignInputs:
+        """From the validated ``[soil]``, ``[loads]``, ``[materials]``, ``[criteria]`` dicts,
+        and the optional ``[seismic]`` and ``[water]`` tables (absent, empty or without
+        ``kh`` / ``level_ft``: no seismic case, drained).
+
+        Keys this class does not know (e.g. ``station_interval_ft``) are ignored; a missing
+        non-soil key takes the class default (the same as ``wallsched/keys.py``). A
+        ``backslope = "H:V"`` soil key gives ``backslope_deg``.
+        """
+        from .pressure import backslope_from_ratio
+
+        names = {f.name for f in fields(cls)} - {"seismic", "water"}
+        kw = {}
+        for table in (soil, loads, materials, criteria):
+            for k, v in table.items():
+                if k in names and v is not None:
+                    kw[k] = v
+        if soil.get("backslope") is not None:
+            if soil.get("backslope_deg") is not None:
+                raise ValueError("give either backslope (\"H:V\") or backslope_deg, not both")
+            kw["backslope_deg"] = backslope_from_ratio(soil["backslope"])
+        seismic = seismic if seismic is not None else loads.get("seismic")
+        water = water if water is not None else loads.get("water")
+        if seismic and seismic.get("kh") is not None:
+            kw["seismic"] = SeismicLoad(**{k: v for k, v in seismic.items() if v is not None
+                                           and k in {f.name for f in fields(SeismicLoad)}})
+        if water and water.get("level_ft") is not None:
+            sat = water.get("saturated_unit_weight_pcf")
+            kw["water"] = WaterTable(float(water["level_ft"]),
+                                     None if sat is None else float(sat))
+        return cls(**kw)
+
+    @property
+    def stem_plane(self) -> bool:
+        """The thrust acts on the vertical plane through the stem's back face at its base
+        (Coulomb with the report's wall friction): the soil over the heel is retained soil."""
+        return self.active_method == "coulomb" and self.coulomb_plane == "stem"
+
+    @property
+    def extended(self) -> bool:
+        """A pressure model in use that is not level backfill (the static thrust then depends
+        on more than the design height)."""
+        from .pressure import is_level
+
+        return not is_level(self)
