@@ -1,7 +1,7 @@
 """An independent re-check of one section in plain Python floats (``math`` only).
 
 Written apart from the vectorized engine and sharing none of its formula code: only the ASTM
-A615 bar table and the :class:`~.section.DesignInputs` container. The methods differ on
+A615 bar table and the :class:`~.inputs.DesignInputs` container. The methods differ on
 purpose so that an error in one is unlikely to be repeated in the other:
 
 - weights and arms by the shoelace formula over polygons of concrete and soil (the engine
@@ -315,7 +315,7 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
     """The checks of one section and its headline values, independently of the engine.
 
     Args:
-        inputs: a :class:`~.section.DesignInputs`.
+        inputs: a :class:`~.inputs.DesignInputs`.
         geometry: the ``[geometry]`` keys as floats (key and freeboard keys optional).
         bars: ``{"stem": "#6@12" or (size, spacing_in), "heel": ..., "toe": ...}``, optionally
             ``"horizontal"``, ``"horizontal_layers"``, ``"longitudinal"``,

@@ -2,7 +2,7 @@
 
 Public API (all functions broadcast over sections; a scalar call equals the array element):
 
-- inputs: :class:`~.section.SectionGeometry`, :class:`~.section.DesignInputs`
+- inputs: :class:`~.section.SectionGeometry`, :class:`~.inputs.DesignInputs`
   (``DesignInputs.from_tables(soil, loads, materials, criteria)``),
   :class:`~.section.Reinforcement` of :class:`~.section.BarArrays`;
 - :func:`~.stability.stability` (geometry only, for screening), :func:`~.strength.stem_strength`,

@@ -261,7 +261,7 @@ def footing_development(size, spacing_in, as_in2, d_in, mu_lbft, thickness_in, c
     Both reduced by As,req/As,prov (25.4.10.1; As,req for Mu with phi = 0.9) and never below
     12 in (straight) or 8 db and 6 in (hooked). A bar is hooked where the straight length does
     not fit in ``room_in`` (unless ``hooked`` says which). ``inputs`` is the
-    :class:`~.section.DesignInputs`. Returns a dict of arrays.
+    :class:`~.inputs.DesignInputs`. Returns a dict of arrays.
     """
     fc, fy = inputs.fc_psi, inputs.fy_psi
     size = np.asarray(size)

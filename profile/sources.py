@@ -41,7 +41,7 @@ def check_source_options(kind: str, options: Mapping[str, Any], *, file, key: st
     import difflib
 
     allowed = OPTION_KEYS.get(kind, ())
-    if kind != "csv" and not allowed:
+    if kind not in OPTION_KEYS:  # a kind with no options is listed with ()
         raise InputError(f"{kind.upper()} sources are not supported by this version; "
                          "give a CSV path", file=file, where=key)
     for k in options:

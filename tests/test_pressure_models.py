@@ -29,7 +29,8 @@ EFP_SOIL.update(active_efp_pcf=40.0, passive_efp_pcf=300.0)
 
 def test_every_model_module_is_a_member_of_the_enum():
     names = {m.name for m in MODELS}
-    assert names == {"efp", "rankine", "backslope", "coulomb", "water", "surcharge", "strip",
+    # the models of this version (a new model's module adds itself: no edit here)
+    assert names >= {"efp", "rankine", "backslope", "coulomb", "water", "surcharge", "strip",
                      "seismic"}
     assert {k.value for k in Model} == names
     assert model(Model.COULOMB).method == "coulomb"
