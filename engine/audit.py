@@ -311,22 +311,20 @@ def _key_audit(efp_p, neglect, emb, kd, width_in, fc):
             "key_shear": AuditRow(vu, pvn, vu <= pvn)}
 
 
-def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, object]):
-    """The checks of one section and its headline values, independently of the engine.
+def _take(ctx_: dict, names: str) -> tuple:
+    """The values of ``names`` (blank-separated) from the parts computed so far (None for a
+    name that was only a parameter there)."""
+    return tuple(ctx_.get(n) for n in names.split())
 
-    Args:
-        inputs: a :class:`~.inputs.DesignInputs`.
-        geometry: the ``[geometry]`` keys as floats (key and freeboard keys optional).
-        bars: ``{"stem": "#6@12" or (size, spacing_in), "heel": ..., "toe": ...}``, optionally
-            ``"horizontal"``, ``"horizontal_layers"``, ``"longitudinal"``,
-            ``"longitudinal_layers"``.
 
-    Returns:
-        (rows, values): ``rows`` maps check names to AuditRow; ``values`` holds
-        footing_width_ft, m_overturning_lbft, m_resisting_lbft, fs_overturning, h_driving_lb,
-        h_resisting_lb, fs_sliding, q_max_psf (None outside the base), eccentricity_ft, and
-        stem_/heel_/toe_ mu_lbft, phi_mn_lbft, vu_lb, phi_vn_lb, d_in.
-    """
+def _keep(scope: dict, names: str) -> dict:
+    """What a part hands on to the later ones: its names (blank-separated) as it left them."""
+    return {n: scope[n] for n in names.split() if n in scope}
+
+
+def _pressures(ctx_: dict) -> dict:
+    """The inputs read and the soil's pressures (coefficient, direction, thrust plane)."""
+    geometry, inputs = _take(ctx_, "geometry inputs")
     i = inputs
     g = {k: float(v) for k, v in geometry.items() if v is not None}
     h_ret, emb = g["retained_height_ft"], g["embedment_ft"]
@@ -372,7 +370,14 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
         efp_p = (1 + sn) / (1 - sn) * gam
     else:
         efp_p = i.passive_efp_pcf
+    return _keep(locals(), """T T_in beta ci efp efp_p emb ext fb fc fy g g_sat gam gc h_ret
+        heel i incl ka kd ko kw q si_ sn strips sz tb toe tt wl""")
 
+
+def _soil_and_concrete(ctx_: dict) -> dict:
+    """The concrete and soil polygons: weights and arms from the toe edge."""
+    T, beta, emb, fb, gam, gc, h_ret, heel, i = _take(ctx_, "T beta emb fb gam gc h_ret heel i")
+    kd, ko, kw, q, tb, toe, tt, wl = _take(ctx_, "kd ko kw q tb toe tt wl")
     # polygons: x from the toe edge, y up from the bottom of footing
     H = h_ret + emb
     B = toe + tb + heel
@@ -414,7 +419,16 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
         M_dead += unit * area * xc
     Wq = 0.0 if stem_plane else q * heel  # the surcharge over the heel (from the back face)
     Mq = Wq * (x_back + B) / 2
+    return _keep(locals(), """B H Hp Hv M_dead Mq V_dead Wq area concrete hw pieces poly
+        soil_region stem_plane stem_poly unit x_back x_face_at_grade
+        x_front x_p xc y_top""")
 
+
+def _lateral(ctx_: dict) -> dict:
+    """The lateral loads on the thrust plane and the thrust's vertical component."""
+    H, Hp, M_dead, Mq, V_dead, Wq, ci, efp = _take(ctx_, "H Hp M_dead Mq V_dead Wq ci efp")
+    efp_p, emb, ext, g_sat, gam, hw, i, ka = _take(ctx_, "efp_p emb ext g_sat gam hw i ka")
+    kd, kw, q, si_, strips, x_p = _take(ctx_, "kd kw q si_ strips x_p")
     # lateral, on the heel plane over H (H' with a backslope)
     def heel_plane(live):
         """(horizontal force, moment about the base, vertical force) on the heel plane."""
@@ -458,7 +472,14 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
     P_p = efp_p * (z_bot ** 2 - z_top ** 2) / 2 if i.use_passive else 0.0
     H_res = i.friction_coefficient * V_res + P_p
     fs_sl = H_res / H_drive if H_drive > 0 else math.inf
+    return _keep(locals(), """H_drive H_res M_O M_dead M_perm M_res P_p V_dead V_perm V_res
+        V_th fs_ot fs_sl heel_plane z_bot z_top""")
 
+
+def _stability(ctx_: dict) -> dict:
+    """Overturning, sliding and bearing (with and without the surcharge weight)."""
+    B, M_O, M_dead, M_res, Mq, V_dead = _take(ctx_, "B M_O M_dead M_res Mq V_dead")
+    V_res, Wq, emb, fs_ot, fs_sl, i = _take(ctx_, "V_res Wq emb fs_ot fs_sl i")
     # bearing cases: (V, M_R) with and without the surcharge weight
     cases = [(V_res, M_res)] if i.surcharge_resists else [(V_dead, M_dead),
                                                           (V_dead + Wq, M_dead + Mq)]
@@ -491,7 +512,16 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
                                q_max is not None and q_max <= i.allowable_bearing_psf)
     emb_req = max(i.min_embedment_ft, i.frost_depth_ft or 0.0)
     rows["embedment"] = AuditRow(emb_req, emb, emb >= emb_req)
+    return _keep(locals(), """M V bearing cases e_gov emb_req gov in_base q_max qmax rows xb""")
 
+
+def _seismic(ctx_: dict) -> dict:
+    """The seismic case: static soil and water thrust, no live loads, + lf (dPAE + kh W)."""
+    B, H, Hp, M_perm, P_p, T, V_perm, beta = _take(ctx_, "B H Hp M_perm P_p T V_perm beta")
+    ci, concrete, efp, ext, gam, gc = _take(ctx_, "ci concrete efp ext gam gc")
+    heel_plane, i, incl, ka, poly, rows = _take(ctx_, "heel_plane i incl ka poly rows")
+    si_, soil_region, stem_plane, sz = _take(ctx_, "si_ soil_region stem_plane sz")
+    unit, x_p, xb = _take(ctx_, "unit x_p xb")
     # ---- seismic case: static soil and water thrust, no live loads, + lf (dPAE + kh Wc)
     seis = {}
     if sz is not None:
@@ -537,7 +567,16 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
                 "seismic_fs_sliding": fs_sl_e, "seismic_q_max_psf": q_e,
                 "seismic_h_driving_lb": HE, "seismic_m_overturning_lbft": ME,
                 "seismic_sum_v_lb": VE}
+    return _keep(locals(), """HE ME MRE VE _ a_c dc dpae ds fh0 fi fs_ot_e fs_sl_e fv0 kae
+        kh lf mh0 mi moving poly q_e seis unit xb y_c""")
 
+
+def _stem(ctx_: dict) -> dict:
+    """The stem: flexure, shear (at d and up the height), steel, spacing, the hook."""
+    H, T, T_in, a_c, bars, beta, ci, efp, ext = _take(ctx_, "H T T_in a_c bars beta ci efp ext")
+    fc, fy, g, g_sat, gam, gc, hw, i, incl, ka = _take(ctx_, "fc fy g g_sat gam gc hw i incl ka")
+    q, rows, stem_poly, strips, sz, y_c = _take(ctx_, "q rows stem_poly strips sz y_c")
+    y_top, = _take(ctx_, "y_top")
     # ---- stem
     s_size, s_sp = _bar(bars["stem"])
     db = A615[s_size][0]
@@ -642,7 +681,21 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
         mat += A615[_bar(bars["longitudinal"])[0]][0]
     room_hook = T_in - i.cover_toe_in - mat
     rows["stem_hook"] = AuditRow(ldh, room_hook, ldh <= room_hook)
+    return _keep(locals(), """As _ aq as_min best_f best_v bq cov cq d db dy f fs_serv hs
+        kd_ ldh mat ms mu_s mu_y n pm pmn_s pv pvn_s room_hook s_lim
+        s_size s_sp stem_mv stem_poly_up stem_seismic stem_service
+        t_in vu_s vu_y y""")
 
+
+def _heel(ctx_: dict) -> dict:
+    """The heel: a cantilever from the stem's back face, by the combinations."""
+    B, H, Hp, M, M_perm, Mq, T, T_in, V = _take(ctx_, "B H Hp M M_perm Mq T T_in V")
+    V_perm, Wq, a_c, bars, beta, ci = _take(ctx_, "V_perm Wq a_c bars beta ci")
+    concrete, efp, ext, fc, fy, g_sat, gam = _take(ctx_, "concrete efp ext fc fy g_sat gam")
+    gc, heel, heel_plane, hs, hw, i, incl = _take(ctx_, "gc heel heel_plane hs hw i incl")
+    ka, poly, pv, q, rows, si_, soil_region = _take(ctx_, "ka poly pv q rows si_ soil_region")
+    stem_plane, sz, unit, x_back, x_p, y = _take(ctx_, "stem_plane sz unit x_back x_p y")
+    y_c, = _take(ctx_, "y_c")
     # ---- heel: cantilever from the back face
     h_size, h_sp = _bar(bars["heel"])
     t_size, t_sp = _bar(bars["toe"])
@@ -739,7 +792,18 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
     cov_h = _cover(h_size, i.cover_heel_in)
     d_h, pmn_h, pvn_h = _footing_audit(rows, "heel", mu_h, vu_h, h_size, h_sp, cov_h, T_in, fc,
                                        fy, i)
+    return _keep(locals(), """_ a_h a_s brk combo_pressure combos cov_h d_h dead_f dead_m e
+        e_loads fd fh fl h_size h_sp heel_combo m_c mu_h name pf pmn_h
+        pressure_fn pv pv_t pvn_h t_size t_sp th_all th_h th_l up_f
+        up_m v_c vu_h x_h x_s""")
 
+
+def _toe(ctx_: dict) -> dict:
+    """The toe: a cantilever from the stem's front face, by the bearing pressure."""
+    B, T, T_in, brk, combo_pressure = _take(ctx_, "B T T_in brk combo_pressure")
+    combos, emb, fc, fy, gam, gc, gov, hw, i = _take(ctx_, "combos emb fc fy gam gc gov hw i")
+    in_base, pf, rows, sz, t_size, t_sp = _take(ctx_, "in_base pf rows sz t_size t_sp")
+    toe, = _take(ctx_, "toe")
     # ---- toe: 1.6 x service bearing pressure - 0.9 x weight over the toe; Mu at the front
     # face, Vu at d from it (7.4.3.2 by 13.2.7); with [seismic] also 1.2D + 1.0E + 1.6H
     w_toe = gc * T + (gam * max(emb - T, 0.0) if i.count_toe_soil else 0.0)
@@ -768,7 +832,16 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
     d_t, pmn_t, pvn_t = _footing_audit(rows, "toe", mu_t, vu_t, t_size, t_sp, cov_t, T_in, fc,
                                        fy, i)
     rows["toe_depth"] = AuditRow(6.0, d_t, d_t >= 6.0)
+    return _keep(locals(), """_ brk cov_t d_t d_t0 f_up lv m_e m_up mu_t pf pmn_t pvn_t u
+        v_e vu_t w_toe""")
 
+
+def _development(ctx_: dict) -> dict:
+    """The footing bars' development, the key, the horizontal and longitudinal bars."""
+    T_in, aq, bars, cov_h, cov_t, d_h, d_t = _take(ctx_, "T_in aq bars cov_h cov_t d_h d_t")
+    db, efp_p, emb, fc, fy, g, h_size, h_sp = _take(ctx_, "db efp_p emb fc fy g h_size h_sp")
+    heel, i, kd, kw, mu_h, mu_t, n, rows = _take(ctx_, "heel i kd kw mu_h mu_t n rows")
+    t_size, t_sp, toe = _take(ctx_, "t_size t_sp toe")
     # ---- development of the footing bars beyond the stem faces (25.4.2.3, 25.4.3.1, 25.4.10)
     def develop(size, sp, mu, d_, cover, room, top, given):
         db = A615[size][0]
@@ -825,7 +898,36 @@ def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, obje
         rows["footing_longitudinal_steel"] = AuditRow(need, have, have >= need)
         lim = min(5 * T_in, 18.0)
         rows["footing_longitudinal_spacing"] = AuditRow(sp, lim, sp <= lim)
+    return _keep(locals(), """develop have hooked_h hooked_t hz lg lim need need_h need_t
+        rho room_h room_t size sp""")
 
+
+def audit_details(inputs, geometry: Mapping[str, float], bars: Mapping[str, object]):
+    """The checks of one section and its headline values, independently of the engine.
+
+    Args:
+        inputs: a :class:`~.inputs.DesignInputs`.
+        geometry: the ``[geometry]`` keys as floats (key and freeboard keys optional).
+        bars: ``{"stem": "#6@12" or (size, spacing_in), "heel": ..., "toe": ...}``, optionally
+            ``"horizontal"``, ``"horizontal_layers"``, ``"longitudinal"``,
+            ``"longitudinal_layers"``.
+
+    Returns:
+        (rows, values): ``rows`` maps check names to AuditRow; ``values`` holds
+        footing_width_ft, m_overturning_lbft, m_resisting_lbft, fs_overturning, h_driving_lb,
+        h_resisting_lb, fs_sliding, q_max_psf (None outside the base), eccentricity_ft, and
+        stem_/heel_/toe_ mu_lbft, phi_mn_lbft, vu_lb, phi_vn_lb, d_in.
+    """
+    ctx_ = {"inputs": inputs, "geometry": geometry, "bars": bars}
+    for part in (_pressures, _soil_and_concrete, _lateral, _stability, _seismic, _stem, _heel,
+                 _toe, _development):
+        ctx_.update(part(ctx_))
+    B, H_drive, H_res, Hv, M_O, M_res = _take(ctx_, "B H_drive H_res Hv M_O M_res")
+    V_res, d, d_h, d_t, e_gov, fs_ot, fs_sl = _take(ctx_, "V_res d d_h d_t e_gov fs_ot fs_sl")
+    heel_combo, hooked_h, hooked_t, ka = _take(ctx_, "heel_combo hooked_h hooked_t ka")
+    mu_h, mu_s, mu_t, pmn_h, pmn_s, pmn_t = _take(ctx_, "mu_h mu_s mu_t pmn_h pmn_s pmn_t")
+    pvn_h, pvn_s, pvn_t, q_max, rows, seis = _take(ctx_, "pvn_h pvn_s pvn_t q_max rows seis")
+    vu_h, vu_s, vu_t = _take(ctx_, "vu_h vu_s vu_t")
     values = {
         "footing_width_ft": B, "m_overturning_lbft": M_O, "m_resisting_lbft": M_res,
         "fs_overturning": fs_ot, "h_driving_lb": H_drive, "h_resisting_lb": H_res,
