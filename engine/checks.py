@@ -243,9 +243,30 @@ class SectionChecks:
         """
         shp = self.shape
         v = lambda a: _val(a, shp, index)  # noqa: E731
+        out = self._stability_dict(index)
+        out.update(self._members_dict(index))
+        out["checks"] = self._rows_at(index)
+        out["passes"] = bool(np.broadcast_to(self.passes, shp)[index])
+        out["utilization_max"] = v(self.utilization_max)
+        out["governing_check"] = str(np.broadcast_to(self.governing, shp)[index])
+        out["governing_ratio"] = v(np.broadcast_to(self.governing_ratio, shp))
+        out["detailing_at_limit"] = list(self.detailing_at_limit(index))
+        out["load_factors"] = list(LOAD_FACTORS)
+        if self.heel_textbook:
+            out["load_factors"][2] = HEEL_TEXTBOOK_NOTE
+        if self.stability.seismic is not None:
+            out["seismic"] = self._seismic_dict(index)
+            out["load_factors"].append(SEISMIC_LOAD_FACTOR_NOTE)
+        if "key_flexure" in self.names:
+            out["load_factors"].append(KEY_LOAD_FACTOR_NOTE)
+        return out
+
+    def _stability_dict(self, index) -> dict:
+        shp = self.shape
+        v = lambda a: _val(a, shp, index)  # noqa: E731
         st = self.stability
         ot, sl, br = self.row("overturning"), self.row("sliding"), self.row("bearing")
-        out = {
+        return {
             "footing_width_ft": v(st.footing_width_ft),
             "design_height_ft": v(st.design_height_ft),
             "overturning": {
@@ -272,6 +293,11 @@ class SectionChecks:
                 "passes": bool(np.broadcast_to(br.passes, shp)[index]),
             },
         }
+
+    def _members_dict(self, index) -> dict:
+        shp = self.shape
+        v = lambda a: _val(a, shp, index)  # noqa: E731
+        out = {}
         for m in ("stem", "heel", "toe"):
             r = getattr(self, m)
             out[m] = {f: v(getattr(r, f)) for f in
@@ -296,42 +322,33 @@ class SectionChecks:
                            if hooked else "straight"),
                 ld_straight_in=v(r.ld_straight_in), ldh_in=v(r.ldh_in),
                 ld_required_in=v(r.ld_required_in), ld_available_in=v(r.ld_available_in))
-        out["checks"] = self._rows_at(index)
-        out["passes"] = bool(np.broadcast_to(self.passes, shp)[index])
-        out["utilization_max"] = v(self.utilization_max)
-        out["governing_check"] = str(np.broadcast_to(self.governing, shp)[index])
-        out["governing_ratio"] = v(np.broadcast_to(self.governing_ratio, shp))
-        out["detailing_at_limit"] = list(self.detailing_at_limit(index))
-        out["load_factors"] = list(LOAD_FACTORS)
-        if self.heel_textbook:
-            out["load_factors"][2] = HEEL_TEXTBOOK_NOTE
-        sz = st.seismic
-        if sz is not None:
-            lf = sz.thrust.component("seismic increment")
-            inertia = sum(c.horizontal_lb for c in sz.thrust.components
-                          if c.name.startswith("inertia"))
-            out["seismic"] = {
-                "delta_pae_lb": v(sz.delta_pae_lb),
-                "delta_pae_design_lb": v(np.hypot(lf.horizontal_lb, lf.vertical_lb)),
-                "inertia_lb": v(inertia),
-                "fs_overturning": v(sz.fs_overturning),
-                "fs_overturning_required": v(self.row("seismic_overturning").demand),
-                "m_overturning_lbft": v(sz.m_overturning_lbft),
-                "m_resisting_lbft": v(sz.m_resisting_lbft),
-                "fs_sliding": v(sz.fs_sliding),
-                "fs_sliding_required": v(self.row("seismic_sliding").demand),
-                "h_driving_lb": v(sz.h_driving_lb), "h_resisting_lb": v(sz.h_resisting_lb),
-                "sum_v_lb": v(sz.sum_v_lb),
-                "q_max_psf": v(sz.q_max_psf), "q_min_psf": v(sz.q_min_psf),
-                "eccentricity_ft": v(sz.eccentricity_ft),
-                "resultant_in_base": bool(np.broadcast_to(sz.resultant_in_base, shp)[index]),
-                "passes": all(bool(np.broadcast_to(self.row(n).passes, shp)[index]) for n in
-                              ("seismic_overturning", "seismic_sliding", "seismic_bearing")),
-            }
-            out["load_factors"].append(SEISMIC_LOAD_FACTOR_NOTE)
-        if "key_flexure" in self.names:
-            out["load_factors"].append(KEY_LOAD_FACTOR_NOTE)
         return out
+
+    def _seismic_dict(self, index) -> dict:
+        shp = self.shape
+        v = lambda a: _val(a, shp, index)  # noqa: E731
+        sz = self.stability.seismic
+        lf = sz.thrust.component("seismic increment")
+        inertia = sum(c.horizontal_lb for c in sz.thrust.components
+                      if c.name.startswith("inertia"))
+        return {
+            "delta_pae_lb": v(sz.delta_pae_lb),
+            "delta_pae_design_lb": v(np.hypot(lf.horizontal_lb, lf.vertical_lb)),
+            "inertia_lb": v(inertia),
+            "fs_overturning": v(sz.fs_overturning),
+            "fs_overturning_required": v(self.row("seismic_overturning").demand),
+            "m_overturning_lbft": v(sz.m_overturning_lbft),
+            "m_resisting_lbft": v(sz.m_resisting_lbft),
+            "fs_sliding": v(sz.fs_sliding),
+            "fs_sliding_required": v(self.row("seismic_sliding").demand),
+            "h_driving_lb": v(sz.h_driving_lb), "h_resisting_lb": v(sz.h_resisting_lb),
+            "sum_v_lb": v(sz.sum_v_lb),
+            "q_max_psf": v(sz.q_max_psf), "q_min_psf": v(sz.q_min_psf),
+            "eccentricity_ft": v(sz.eccentricity_ft),
+            "resultant_in_base": bool(np.broadcast_to(sz.resultant_in_base, shp)[index]),
+            "passes": all(bool(np.broadcast_to(self.row(n).passes, shp)[index]) for n in
+                          ("seismic_overturning", "seismic_sliding", "seismic_bearing")),
+        }
 
 
 def _val(a, shape, index):
@@ -395,13 +412,32 @@ def check_section(geom: SectionGeometry, inputs: DesignInputs, bars: Reinforceme
                          hooked=bars.heel_hooked)
     toe = toe_strength(geom, inputs, bars.toe, st, pressure=p, weights=w,
                        hooked=bars.toe_hooked)
-    aci = "ACI 318-19"
+    rows = [*_stability_rows(geom, inputs, st, valid), *_stem_rows(stem, inputs, valid),
+            *_footing_member_rows(heel, toe, inputs, valid)]
+    if np.any(geom.has_key):
+        rows.extend(_key_rows(key_strength(geom, inputs, p), valid))
+    rows += _seismic_rows(st, inputs, valid) + _detailing_rows(geom, inputs, bars, valid)
+    shape = np.broadcast_shapes(*(np.shape(r.ratio) for r in rows), geom.shape)
+    passes = np.broadcast_to(valid, shape).copy()
+    util = np.full(shape, -np.inf)
+    for r in rows:
+        passes &= r.passes
+        util = np.maximum(util, r.ratio)  # NaN propagates
+    return SectionChecks(tuple(rows), st, stem, heel, toe, p, np.asarray(valid), passes, util,
+                         heel_textbook=not inputs.heel_upward_pressure)
+
+
+_ACI = "ACI 318-19"
+
+
+def _stability_rows(geom, inputs, st, valid) -> list:
+    """Overturning, sliding, bearing and embedment (IBC 2021 1807.2.3, 1806.1, 1809.4)."""
     emb_req = max(inputs.min_embedment_ft, inputs.frost_depth_ft or 0.0)
     with np.errstate(divide="ignore", invalid="ignore"):
         ot_ratio = inputs.fs_overturning / st.fs_overturning
         br_ratio = np.where(st.resultant_in_base,
                             st.q_max_psf / inputs.allowable_bearing_psf, np.inf)
-    rows = [
+    return [
         _row("overturning", "Overturning about the toe (FS)", "-", "IBC 2021 1807.2.3",
              inputs.fs_overturning, st.fs_overturning, ratio=ot_ratio,
              extra_ok=st.resultant_in_base, valid=valid),
@@ -412,6 +448,13 @@ def check_section(geom: SectionGeometry, inputs: DesignInputs, bars: Reinforceme
              inputs.allowable_bearing_psf, ratio=br_ratio, valid=valid),
         _row("embedment", "Embedment below front grade", "ft",
              "IBC 2021 1809.4, 1809.5 (frost)", emb_req, geom.embedment_ft, valid=valid),
+    ]
+
+
+def _stem_rows(stem, inputs, valid) -> list:
+    """The stem's flexure and shear (at its base and up the height), steel, spacing, hook."""
+    aci = _ACI
+    return [
         _row("stem_flexure", "Stem flexure at top of footing", "lb-ft",
              f"{aci} 22.2, Table 21.2.2", stem.mu_lbft, stem.phi_mn_lbft, valid=valid),
         _row("stem_shear", "Stem shear at d above footing", "lb",
@@ -429,6 +472,13 @@ def check_section(geom: SectionGeometry, inputs: DesignInputs, bars: Reinforceme
              stem.spacing_in, stem.s_max_in, valid=valid),
         _row("stem_hook", "Stem bar hook development into footing (on the bottom mat)", "in",
              f"{aci} 25.4.3.1, Table 25.3.1", stem.ldh_in, stem.ldh_available_in, valid=valid),
+    ]
+
+
+def _footing_member_rows(heel, toe, inputs, valid) -> list:
+    """The heel and toe as members, the toe's depth and both bars' development."""
+    aci = _ACI
+    return [
         *_footing_rows("heel", "back face of stem", "top", heel, inputs, valid),
         *_footing_rows("toe", "front face of stem", "bottom", toe, inputs, valid,
                        shear_at="at d from"),
@@ -441,8 +491,11 @@ def check_section(geom: SectionGeometry, inputs: DesignInputs, bars: Reinforceme
              f"{aci} 25.4.2.3 (straight) or 25.4.3.1 (hooked), 25.4.10.1",
              toe.ld_required_in, toe.ld_available_in, valid=valid),
     ]
-    if np.any(geom.has_key):
-        rows.extend(_key_rows(key_strength(geom, inputs, p), valid))
+
+
+def _seismic_rows(st, inputs, valid) -> list:
+    """The stability checks of the seismic case (none without [seismic])."""
+    rows = []
     sz = st.seismic
     if sz is not None:
         si = inputs.seismic
@@ -459,6 +512,13 @@ def check_section(geom: SectionGeometry, inputs: DesignInputs, bars: Reinforceme
         rows.append(_row("seismic_bearing", "Bearing pressure q_max with seismic", "psf",
                          clause + "; allowable not increased", sz.q_max_psf,
                          inputs.allowable_bearing_psf, ratio=sbr_ratio, valid=valid))
+    return rows
+
+
+def _detailing_rows(geom, inputs, bars, valid) -> list:
+    """The stem horizontal and footing longitudinal bars, when given."""
+    aci = _ACI
+    rows = []
     if bars.horizontal is not None:
         hb = bars.horizontal
         t_avg = (geom.stem_top_in + geom.stem_base_in) / 2.0
@@ -478,14 +538,7 @@ def check_section(geom: SectionGeometry, inputs: DesignInputs, bars: Reinforceme
         rows.append(_row("footing_longitudinal_spacing", "Footing longitudinal bar spacing",
                          "in", f"{aci} 24.4.3.3", lb.spacing_in, shrinkage_spacing_in(T),
                          valid=valid))
-    shape = np.broadcast_shapes(*(np.shape(r.ratio) for r in rows), geom.shape)
-    passes = np.broadcast_to(valid, shape).copy()
-    util = np.full(shape, -np.inf)
-    for r in rows:
-        passes &= r.passes
-        util = np.maximum(util, r.ratio)  # NaN propagates
-    return SectionChecks(tuple(rows), st, stem, heel, toe, p, np.asarray(valid), passes, util,
-                         heel_textbook=not inputs.heel_upward_pressure)
+    return rows
 
 
 def bottom_mat_in(bars: Reinforcement):

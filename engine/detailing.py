@@ -189,95 +189,134 @@ class BarRow:
     shape: str
 
 
+@dataclass(frozen=True)
+class _Run:
+    """What every bar of one segment is cut from: the stock length, the run along the wall
+    between end covers, the footing's thickness and width, the stem's mean height (in), and
+    the concrete strengths for the laps."""
+
+    stock_in: float
+    run_along_in: float
+    t_in: float
+    width_in: float
+    stem_h_in: float
+    fc_psi: float
+    fy_psi: float
+
+
+BOTTOM_MAT_IN = COVER_EARTH_IN  # bottom of footing cast against earth
+TOP_COVER_IN = 2.0  # top of footing, formed or exposed to earth (Table 20.5.1.3.1)
+
+
+def _lap(r: _Run, spec: BarSpec, cover_in: float, concrete_below_in: float) -> float:
+    # ACI 318-19 25.4.2.5: psi_t = 1.3 only for a horizontal top bar, one with more than
+    # 12 in of fresh concrete cast below it in one pour (0: a vertical bar)
+    psi_t = 1.3 if concrete_below_in > 12.0 else 1.0
+    return class_b_lap_in(spec.size, cover_in=cover_in, spacing_in=spec.spacing_in,
+                          psi_t=psi_t, fc_psi=r.fc_psi, fy_psi=r.fy_psi)
+
+
 def _rows_for_segment(seg: Segment, *, fc_psi: float, fy_psi: float,
                       bar_stock_ft: float) -> list[BarRow]:
     sec: SectionDims = seg.section
     if sec is None:
         return []
-    stock_in = bar_stock_ft * 12.0
-    length_in = seg.length_ft * 12.0
-    run_along_in = length_in - 2 * END_COVER_IN  # along the wall, between end covers
-    t_in = sec.footing_thickness_in
-    width_in = sec.footing_width_ft * 12.0
-    stem_h_in = stem_height_avg_ft(seg) * 12.0
+    r = _Run(bar_stock_ft * 12.0, seg.length_ft * 12.0 - 2 * END_COVER_IN,
+             sec.footing_thickness_in, sec.footing_width_ft * 12.0,
+             stem_height_avg_ft(seg) * 12.0, fc_psi, fy_psi)
+    return (_stem_rows(r, sec) + _footing_rows(r, sec) + _longitudinal_rows(r, sec)
+            + _horizontal_rows(r, sec))
+
+
+def _stem_rows(r: _Run, sec: SectionDims) -> list[BarRow]:
+    """S1 (one hooked bar), or D1 dowels and S2 lapped bars above them."""
     rows: list[BarRow] = []
-    dev = {"fc_psi": fc_psi, "fy_psi": fy_psi}
-
-    def lap(spec: BarSpec, cover_in: float, concrete_below_in: float) -> float:
-        # ACI 318-19 25.4.2.5: psi_t = 1.3 only for a horizontal top bar, one with more than
-        # 12 in of fresh concrete cast below it in one pour (0: a vertical bar)
-        psi_t = 1.3 if concrete_below_in > 12.0 else 1.0
-        return class_b_lap_in(spec.size, cover_in=cover_in, spacing_in=spec.spacing_in,
-                              psi_t=psi_t, **dev)
-
-    bottom_mat_in = COVER_EARTH_IN  # bottom of footing cast against earth
-    top_cover_in = 2.0  # top of footing, formed or exposed to earth (Table 20.5.1.3.1)
-
+    bottom_mat_in = BOTTOM_MAT_IN
     s = sec.stem_bars
     if s is not None:
-        n = bar_count(run_along_in, s.spacing_in)
+        n = bar_count(r.run_along_in, s.spacing_in)
         # vertical leg, out to out: stem top less cover down to the bottom mat of the footing
-        vertical_in = stem_h_in + t_in - formed_cover_in(s.size) - bottom_mat_in
+        vertical_in = r.stem_h_in + r.t_in - formed_cover_in(s.size) - bottom_mat_in
         straight_in = vertical_in - hook_out_to_out_in(s.size)
         cut_in = straight_in + hook_developed_in(s.size, 90)
-        if cut_in <= stock_in:
+        if cut_in <= r.stock_in:
             rows.append(BarRow("S1", s.size, s.spacing_in, n, round_up_inch(cut_in),
                                SHAPE_HOOK90))
         else:
-            lap_in = lap(s, formed_cover_in(s.size), 0.0)
-            dowel_straight = t_in - bottom_mat_in - hook_out_to_out_in(s.size) + lap_in
+            lap_in = _lap(r, s, formed_cover_in(s.size), 0.0)
+            dowel_straight = r.t_in - bottom_mat_in - hook_out_to_out_in(s.size) + lap_in
             dowel_in = dowel_straight + hook_developed_in(s.size, 90)
-            upper_in = stem_h_in - formed_cover_in(s.size)
+            upper_in = r.stem_h_in - formed_cover_in(s.size)
             rows.append(BarRow("D1", s.size, s.spacing_in, n, round_up_inch(dowel_in),
                                SHAPE_HOOK90))
-            pieces, piece_in = lapped_pieces(upper_in, lap(s, formed_cover_in(s.size), 0.0),
-                                             stock_in)
+            pieces, piece_in = lapped_pieces(upper_in, _lap(r, s, formed_cover_in(s.size), 0.0),
+                                             r.stock_in)
             rows.append(BarRow("S2", s.size, s.spacing_in, n * pieces, round_up_inch(piece_in),
                                SHAPE_STRAIGHT))
 
+    return rows
+
+
+def _footing_rows(r: _Run, sec: SectionDims) -> list[BarRow]:
+    """F1 (heel, top) and F2 (toe, bottom) across the footing, hooked where the section says."""
+    rows: list[BarRow] = []
+    bottom_mat_in, top_cover_in = BOTTOM_MAT_IN, TOP_COVER_IN
     for mark, spec, hooked, top in (("F1", sec.heel_bars, sec.heel_hooked, True),
                                     ("F2", sec.toe_bars, sec.toe_hooked, False)):
         if spec is None:
             continue
-        n = bar_count(run_along_in, spec.spacing_in)
-        across_in = width_in - 2 * COVER_EARTH_IN  # footing edges cast against earth
-        below_in = t_in - top_cover_in - bar_db_in(spec.size) if top else 0.0
+        n = bar_count(r.run_along_in, spec.spacing_in)
+        across_in = r.width_in - 2 * COVER_EARTH_IN  # footing edges cast against earth
+        below_in = r.t_in - top_cover_in - bar_db_in(spec.size) if top else 0.0
         shape = SHAPE_STRAIGHT
         if hooked:
             # a standard hook at the far end from the heel edge (F1) or the toe edge (F2):
             # 90 degrees where its tail fits in the depth between the covers, else 180
-            depth = t_in - (formed_cover_in(spec.size) if top else top_cover_in) - bottom_mat_in
+            depth = r.t_in - (formed_cover_in(spec.size) if top else top_cover_in) - bottom_mat_in
             tail90 = bend_diameter_in(spec.size) / 2 + bar_db_in(spec.size) + hook_extension_in(
                 spec.size, 90)
             angle = 90 if tail90 <= depth + 1e-9 else 180
             shape = SHAPE_HOOK90 if angle == 90 else SHAPE_HOOK180
             across_in = (across_in - hook_out_to_out_in(spec.size)
                          + hook_developed_in(spec.size, angle))
-        pieces, piece_in = lapped_pieces(across_in, lap(spec, COVER_EARTH_IN, below_in),
-                                         stock_in)
+        pieces, piece_in = lapped_pieces(across_in, _lap(r, spec, COVER_EARTH_IN, below_in),
+                                         r.stock_in)
         rows.append(BarRow(mark, spec.size, spec.spacing_in, n * pieces, round_up_inch(piece_in),
                            shape))
 
+    return rows
+
+
+def _longitudinal_rows(r: _Run, sec: SectionDims) -> list[BarRow]:
+    """L1 (top mat) and L2 (bottom mat) along the wall."""
+    rows: list[BarRow] = []
+    top_cover_in = TOP_COVER_IN
     f = sec.footing_long_bars
     if f is not None:
-        across_in = width_in - 2 * COVER_EARTH_IN
+        across_in = r.width_in - 2 * COVER_EARTH_IN
         n = bar_count(across_in, f.spacing_in)
         # L1 is the top mat (fresh concrete below it), L2 the bottom mat (none)
-        for mark, below_in in (("L1", t_in - top_cover_in - bar_db_in(f.size)), ("L2", 0.0)):
-            pieces, piece_in = lapped_pieces(run_along_in, lap(f, COVER_EARTH_IN, below_in),
-                                             stock_in)
+        for mark, below_in in (("L1", r.t_in - top_cover_in - bar_db_in(f.size)), ("L2", 0.0)):
+            pieces, piece_in = lapped_pieces(r.run_along_in, _lap(r, f, COVER_EARTH_IN, below_in),
+                                             r.stock_in)
             rows.append(BarRow(mark, f.size, f.spacing_in, n * pieces, round_up_inch(piece_in),
                                SHAPE_STRAIGHT))
 
+    return rows
+
+
+def _horizontal_rows(r: _Run, sec: SectionDims) -> list[BarRow]:
+    """H1 and H2, the stem's horizontal bars on its two faces."""
+    rows: list[BarRow] = []
     h = sec.horizontal_bars
     if h is not None:
         # spread from just above the top of footing to the top of the stem, less top cover
-        n = bar_count(stem_h_in - 2 * formed_cover_in(h.size), h.spacing_in)
+        n = bar_count(r.stem_h_in - 2 * formed_cover_in(h.size), h.spacing_in)
         # stem horizontal bars: the stem is cast in lifts; a bar in the lift with more than
         # 12 in of concrete below it is a top bar (conservative: psi_t = 1.3 above the first
         # foot of the stem, which is nearly all of them)
-        pieces, piece_in = lapped_pieces(run_along_in, lap(h, formed_cover_in(h.size),
-                                                           stem_h_in), stock_in)
+        pieces, piece_in = lapped_pieces(r.run_along_in, _lap(r, h, formed_cover_in(h.size),
+                                                           r.stem_h_in), r.stock_in)
         for mark in ("H1", "H2"):
             rows.append(BarRow(mark, h.size, h.spacing_in, n * pieces, round_up_inch(piece_in),
                                SHAPE_STRAIGHT))
