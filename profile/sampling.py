@@ -158,12 +158,17 @@ def _stations(start: float, end: float, interval_ft: float, profiles):
                                [False, False]])
     order = np.lexsort((~is_break, st))  # by station; a break first among equals
     st, is_break = st[order], is_break[order]
-    # merge stations closer than the tolerance, keeping the first (a break if any)
+    # merge stations closer than the tolerance: one station, the break's if any (a grade
+    # break is where the height can peak), else the first
     first = np.r_[True, np.diff(st) > MERGE_TOL_FT]
     group = np.cumsum(first) - 1
     brk = np.zeros(int(group[-1]) + 1, bool)
     np.logical_or.at(brk, group, is_break)
-    st = st[first]
+    keep = np.flatnonzero(first)
+    at_break = np.flatnonzero(is_break)  # a group with a break keeps the break's station
+    groups, first_break = np.unique(group[at_break], return_index=True)
+    keep[groups] = at_break[first_break]
+    st = st[keep]
     # a break within the merge tolerance of an end keeps the exact end station
     st[0], st[-1] = start, end
     return st, brk
