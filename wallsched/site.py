@@ -278,6 +278,42 @@ def _wall(i: int, raw: Any, site: dict[str, dict], *, folder: Path, file, src: S
     label = f"walls[{i + 1}]"
     if not isinstance(raw, dict):
         raise InputError("each [[walls]] entry must be a table", file=file, where=label)
+    own, nested, flat_override = _wall_keys(raw, file=file, src=src)
+    base = check_table({k: v for k, v in own.items() if k in WALL_KEYS}, WALL_KEYS,
+                       table="walls", file=file, src=src)
+    wid = base["id"].strip()
+    from .exporters.file_names import id_problem
+
+    problem = id_problem(wid)
+    if problem:
+        raise InputError(problem, file=file, where=f"{label}.id")
+    label = f"walls[{i + 1}] (id {wid!r})"
+    resolved = {table: _wall_table(table, keys, site, nested, flat_override, file=file,
+                                   label=label)
+                for table, keys in OVERRIDABLE.items()}
+    own_soil = bool(nested.get("soil")) or bool(flat_override.get("soil"))
+    resolve_soil(resolved["soil"], resolved["criteria"], file=file,
+                 table=f"{label}.soil" if own_soil else "soil")
+    loads = resolved["loads"]
+    loads["strip"] = check_strips(loads.get("strip"), file=file, where=f"{label}.loads.strip")
+    for t, keys in OPTIONAL_TABLES.items():
+        loads[t] = optional_table(site[t], nested.get(t), keys, file=file,
+                                  where=f"{label}.{t}")
+    _check_inputs(resolved, file=file, where=label)
+    check_criteria_sets(resolved["criteria"], file=file, where=f"{label}.criteria")
+    sources = _wall_sources(own, folder=folder, file=file, label=label)
+    return WallSpec(
+        index=i, id=wid, retained_side=base["retained_side"],
+        start_station_ft=base["start_station_ft"], name=base["name"],
+        soil=MappingProxyType(resolved["soil"]), loads=MappingProxyType(resolved["loads"]),
+        materials=MappingProxyType(resolved["materials"]),
+        criteria=MappingProxyType(resolved["criteria"]), **sources,
+    )
+
+
+def _wall_keys(raw: dict, *, file, src: SourceText):
+    """A [[walls]] entry's keys sorted: its own (id, sources, ...), its nested tables, and the
+    flat overrides by the table that owns them; an unknown key is refused with a hint."""
     flat_override = {}
     nested = {}
     own = {}
@@ -295,53 +331,41 @@ def _wall(i: int, raw: Any, site: dict[str, dict], *, folder: Path, file, src: S
             hint = did_you_mean(k, sorted(allowed | set(owner_of)))
             raise InputError(f"unknown key '{k}'; {hint}", file=file,
                              where=_where(src, "walls", k))
-    base = check_table({k: v for k, v in own.items() if k in WALL_KEYS}, WALL_KEYS,
-                       table="walls", file=file, src=src)
-    wid = base["id"].strip()
-    from .exporters.file_names import id_problem
+    return own, nested, flat_override
 
-    problem = id_problem(wid)
-    if problem:
-        raise InputError(problem, file=file, where=f"{label}.id")
-    label = f"walls[{i + 1}] (id {wid!r})"
-    resolved = {}
-    for table, keys in OVERRIDABLE.items():
-        if not isinstance(nested.get(table, {}), dict):
-            raise InputError(f"'{table}' must be a table of keys, e.g. {table} = {{ ... }}, "
-                             f"got {short_value(nested[table])}", file=file,
+
+def _wall_table(table: str, keys, site, nested, flat_override, *, file, label: str) -> dict:
+    """One table of a wall: the site's values, the wall's overrides checked, the defaults."""
+    if not isinstance(nested.get(table, {}), dict):
+        raise InputError(f"'{table}' must be a table of keys, e.g. {table} = {{ ... }}, "
+                         f"got {short_value(nested[table])}", file=file,
+                         where=f"{label}.{table}")
+    over = dict(nested.get(table, {}))
+    over.update(flat_override.get(table, {}))
+    for k in over:
+        if table == "loads" and k in TABLE_VALUED_LOADS:
+            raise InputError(f"give [{k}] as its own table ([walls.{k}] for one wall), "
+                             "not inside [loads]", file=file, where=f"{label}.loads.{k}")
+        if k not in keys:
+            raise InputError(f"unknown key '{k}'; {did_you_mean(k, keys)}", file=file,
                              where=f"{label}.{table}")
-        over = dict(nested.get(table, {}))
-        over.update(flat_override.get(table, {}))
-        for k in over:
-            if table == "loads" and k in TABLE_VALUED_LOADS:
-                raise InputError(f"give [{k}] as its own table ([walls.{k}] for one wall), "
-                                 "not inside [loads]", file=file, where=f"{label}.loads.{k}")
-            if k not in keys:
-                raise InputError(f"unknown key '{k}'; {did_you_mean(k, keys)}", file=file,
-                                 where=f"{label}.{table}")
-        merged = dict(site[table])
-        if table == "soil" and ({"active_efp_pcf", "friction_angle_deg"} & set(over)):
-            merged.pop("active_efp_pcf", None)
-            merged.pop("friction_angle_deg", None)
-        if table == "soil" and ({"passive_efp_pcf", "passive_from_friction_angle"} & set(over)):
-            merged.pop("passive_efp_pcf", None)
-            merged.pop("passive_from_friction_angle", None)
-        for k, v in over.items():
-            merged[k] = check_value(v, keys[k], file=file, where=f"{label}.{k}")
-        for k, spec in keys.items():
-            if k not in merged:
-                merged[k] = None if spec.default is REQUIRED else spec.default
-        resolved[table] = merged
-    own_soil = bool(nested.get("soil")) or bool(flat_override.get("soil"))
-    resolve_soil(resolved["soil"], resolved["criteria"], file=file,
-                 table=f"{label}.soil" if own_soil else "soil")
-    loads = resolved["loads"]
-    loads["strip"] = check_strips(loads.get("strip"), file=file, where=f"{label}.loads.strip")
-    for t, keys in OPTIONAL_TABLES.items():
-        loads[t] = optional_table(site[t], nested.get(t), keys, file=file,
-                                  where=f"{label}.{t}")
-    _check_inputs(resolved, file=file, where=label)
-    check_criteria_sets(resolved["criteria"], file=file, where=f"{label}.criteria")
+    merged = dict(site[table])
+    if table == "soil" and ({"active_efp_pcf", "friction_angle_deg"} & set(over)):
+        merged.pop("active_efp_pcf", None)
+        merged.pop("friction_angle_deg", None)
+    if table == "soil" and ({"passive_efp_pcf", "passive_from_friction_angle"} & set(over)):
+        merged.pop("passive_efp_pcf", None)
+        merged.pop("passive_from_friction_angle", None)
+    for k, v in over.items():
+        merged[k] = check_value(v, keys[k], file=file, where=f"{label}.{k}")
+    for k, spec in keys.items():
+        if k not in merged:
+            merged[k] = None if spec.default is REQUIRED else spec.default
+    return merged
+
+
+def _wall_sources(own: dict, *, folder: Path, file, label: str) -> dict:
+    """The wall's alignment and grade sources (``existing_ground`` optional)."""
     sources = {}
     for name in WALL_SOURCES:
         if name not in own:
@@ -350,13 +374,8 @@ def _wall(i: int, raw: Any, site: dict[str, dict], *, folder: Path, file, src: S
                 continue
             raise InputError(f"missing required key '{name}'", file=file, where=label)
         sources[name] = _source(own[name], folder=folder, file=file, key=f"{label}.{name}")
-    return WallSpec(
-        index=i, id=wid, retained_side=base["retained_side"],
-        start_station_ft=base["start_station_ft"], name=base["name"],
-        soil=MappingProxyType(resolved["soil"]), loads=MappingProxyType(resolved["loads"]),
-        materials=MappingProxyType(resolved["materials"]),
-        criteria=MappingProxyType(resolved["criteria"]), **sources,
-    )
+    return sources
+
 
 
 # [criteria] keys that must not exceed their partner (each pair: least, greatest)
