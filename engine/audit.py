@@ -302,8 +302,9 @@ def _key_audit(efp_p, neglect, emb, kd, width_in, fc):
     numerically): ACI 318-19 14.5.2.1a Mn = 5 sqrt(f'c) S, 14.5.5.1a Vn = 4/3 sqrt(f'c) b h,
     phi 0.60 (Table 21.2.1), h = width - 2 in against soil (14.5.1.7) (from memory)."""
     y_a = max(neglect - emb, 0.0)  # the loaded part of the key, down from its root
+    # ASCE 7-22 2.3.1: 1.6 on H (earth pressure), the factor the stem takes (engine/key.py)
     vu = 1.6 * _simpson(lambda y: efp_p * (emb + y), y_a, kd)
-    mu = 1.6 * _simpson(lambda y: efp_p * (emb + y) * y, y_a, kd)
+    mu = 1.6 * _simpson(lambda y: efp_p * (emb + y) * y, y_a, kd)  # the same factor
     h = max(width_in - 2.0, 0.0)
     pmn = 0.60 * 5.0 * math.sqrt(fc) * (12.0 * h ** 2 / 6.0) / 12.0
     pvn = 0.60 * (4.0 / 3.0) * math.sqrt(fc) * 12.0 * h
