@@ -23,6 +23,7 @@ from __future__ import annotations
 
 import math
 from collections.abc import Mapping
+from functools import cache, lru_cache
 from typing import NamedTuple
 
 from .bars import A615, parse_bars
@@ -184,6 +185,7 @@ def _strip_breaks(strips, top):
 WATER = 62.4  # pcf, unit weight of fresh water (common practice)
 
 
+@lru_cache(maxsize=4096)  # a pure function of its numbers: sections repeat along a wall
 def _whitney_strength(As, d, fc, fy, b=12.0):
     """phi*Mn (lb-ft) by bisection on c: 0.85 f'c b beta1 c = As * min(fy, Es eps_s)."""
     if As <= 0 or d <= 0:
@@ -220,6 +222,7 @@ def _whitney_strength(As, d, fc, fy, b=12.0):
     return phi * mn, phi
 
 
+@lru_cache(maxsize=4096)  # a pure function of its numbers: sections repeat along a wall
 def _shear_strength(As, d, fc, lam_s_used, b=12.0):
     """0.75 Vc, Table 22.5.5.1(c), Nu = 0."""
     if d <= 0:
@@ -230,6 +233,7 @@ def _shear_strength(As, d, fc, lam_s_used, b=12.0):
     return 0.75 * min(vc, 5.0 * root * b * d)
 
 
+@lru_cache(maxsize=4096)  # a pure function of its numbers: sections repeat along a wall
 def _ldh(size, fc, fy, spacing, psi_o):
     db = A615[size][0]
     root = min(math.sqrt(fc), 100.0)
@@ -303,8 +307,9 @@ def _key_audit(efp_p, neglect, emb, kd, width_in, fc):
     phi 0.60 (Table 21.2.1), h = width - 2 in against soil (14.5.1.7) (from memory)."""
     y_a = max(neglect - emb, 0.0)  # the loaded part of the key, down from its root
     # ASCE 7-22 2.3.1: 1.6 on H (earth pressure), the factor the stem takes (engine/key.py)
-    vu = 1.6 * _simpson(lambda y: efp_p * (emb + y), y_a, kd)
-    mu = 1.6 * _simpson(lambda y: efp_p * (emb + y) * y, y_a, kd)  # the same factor
+    # the load is linear in y (its moment quadratic): Simpson on a few intervals is exact
+    vu = 1.6 * _simpson(lambda y: efp_p * (emb + y), y_a, kd, n=4)
+    mu = 1.6 * _simpson(lambda y: efp_p * (emb + y) * y, y_a, kd, n=4)  # the same factor
     h = max(width_in - 2.0, 0.0)
     pmn = 0.60 * 5.0 * math.sqrt(fc) * (12.0 * h ** 2 / 6.0) / 12.0
     pvn = 0.60 * (4.0 / 3.0) * math.sqrt(fc) * 12.0 * h
@@ -312,15 +317,21 @@ def _key_audit(efp_p, neglect, emb, kd, width_in, fc):
             "key_shear": AuditRow(vu, pvn, vu <= pvn)}
 
 
+@cache
+def _names(names: str) -> tuple[str, ...]:
+    """The blank-separated names of a part's hand-over (split once per distinct text)."""
+    return tuple(names.split())
+
+
 def _take(ctx_: dict, names: str) -> tuple:
     """The values of ``names`` (blank-separated) from the parts computed so far (None for a
     name that was only a parameter there)."""
-    return tuple(ctx_.get(n) for n in names.split())
+    return tuple(map(ctx_.get, _names(names)))
 
 
 def _keep(scope: dict, names: str) -> dict:
     """What a part hands on to the later ones: its names (blank-separated) as it left them."""
-    return {n: scope[n] for n in names.split() if n in scope}
+    return {n: scope[n] for n in _names(names) if n in scope}
 
 
 def _pressures(ctx_: dict) -> dict:
@@ -439,10 +450,11 @@ def _lateral(ctx_: dict) -> dict:
             return ka * (gam * (Hp - y) + (g_sat - gam - WATER) * max(hw - y, 0.0))
 
         brk = [hw]  # integrate from the base (y = 0) to the top of the plane (y = Hp)
-        f = _simpson(p_soil, 0.0, Hp, brk)
-        m = _simpson(lambda y: p_soil(y) * y, 0.0, Hp, brk)
-        fw = _simpson(lambda y: WATER * max(hw - y, 0.0), 0.0, Hp, brk)
-        mw = _simpson(lambda y: WATER * max(hw - y, 0.0) * y, 0.0, Hp, brk)
+        # linear between the breaks (times y: quadratic), so a few Simpson intervals are exact
+        f = _simpson(p_soil, 0.0, Hp, brk, 4)
+        m = _simpson(lambda y: p_soil(y) * y, 0.0, Hp, brk, 4)
+        fw = _simpson(lambda y: WATER * max(hw - y, 0.0), 0.0, Hp, brk, 4)
+        mw = _simpson(lambda y: WATER * max(hw - y, 0.0) * y, 0.0, Hp, brk, 4)
         fh, mh, fv = f * ci + fw, m * ci + mw, f * si_
         if live:
             fh += ka * q * Hp * ci
@@ -625,8 +637,8 @@ def _stem(ctx_: dict) -> dict:
             return tot / hs * (1.6 - 1.2 * z / hs)
 
         zc = min(max(zc, 0.0), hs)
-        m = _simpson(lambda z: p(z) * (zc - z), 0.0, zc)
-        v = _simpson(p, 0.0, zc)
+        m = _simpson(lambda z: p(z) * (zc - z), 0.0, zc, n=4)  # linear p: exact
+        v = _simpson(p, 0.0, zc, n=4)
         y_cut = H - zc
         a_c, _, y_c = _polygon_y(_clip_y(stem_poly_up, y_cut, below=False))
         return m + sz.kh * gc * a_c * (y_c - y_cut), v + sz.kh * gc * a_c
