@@ -11,6 +11,8 @@ from dataclasses import dataclass, fields
 
 import numpy as np
 
+from .defaults import CRITERIA, LOADS, MATERIALS, SEISMIC
+
 SEISMIC_METHODS = ("seed-whitman", "mononobe-okabe")
 
 
@@ -19,11 +21,11 @@ class SeismicLoad:
     """The ``[seismic]`` table: horizontal coefficient, method, load factor, required FS."""
 
     kh: float
-    method: str = "seed-whitman"
-    load_factor: float = 0.7  # IBC 2021 1807.2.3: 0.7 on nominal earthquake loads
-    fs_overturning: float = 1.1  # IBC 2021 1807.2.3
-    fs_sliding: float = 1.1  # IBC 2021 1807.2.3
-    soil_inertia: bool = True  # the soil over the heel moves with the wall (DESIGN.md 7)
+    method: str = SEISMIC["method"]
+    load_factor: float = SEISMIC["load_factor"]
+    fs_overturning: float = SEISMIC["fs_overturning"]
+    fs_sliding: float = SEISMIC["fs_sliding"]
+    soil_inertia: bool = SEISMIC["soil_inertia"]
 
     def __post_init__(self):
         if self.method not in SEISMIC_METHODS:
@@ -58,9 +60,9 @@ def _strip_tuple(items) -> tuple:
 class DesignInputs:
     """Soil, loads, materials and criteria shared by every section of one call (plain values).
 
-    Field names and defaults are the keys of ``wallsched/keys.py`` (the site and section files):
-    a test holds the two together. Soil values have no defaults (never silently assumed).
-    Build from validated tables with :meth:`from_tables`.
+    Field names are the keys of ``wallsched/keys.py`` (the site and section files); the
+    defaults, with their sources, are declared once in ``engine/defaults.py``. Soil values
+    have no defaults (never silently assumed). Build from validated tables with :meth:`from_tables`.
     """
 
     # [soil]
@@ -76,32 +78,31 @@ class DesignInputs:
     wall_friction_deg: float | None = None
     coulomb_plane: str = "heel"  # "heel": soil on soil, friction = backslope; "stem": delta
     # [loads]
-    surcharge_psf: float = 0.0
-    strip: tuple = ()  # ((offset_ft, width_ft, pressure_psf), ...) from [[loads.strip]]
+    surcharge_psf: float = LOADS["surcharge_psf"]
+    strip: tuple = LOADS["strip"]
     seismic: SeismicLoad | None = None  # from the [seismic] table; None: no seismic case
     water: WaterTable | None = None  # from the [water] table; None: drained
     # [materials]
-    fc_psi: float = 4000.0
-    fy_psi: float = 60000.0
-    concrete_unit_weight_pcf: float = 150.0  # common practice
+    fc_psi: float = MATERIALS["fc_psi"]
+    fy_psi: float = MATERIALS["fy_psi"]
+    concrete_unit_weight_pcf: float = MATERIALS["concrete_unit_weight_pcf"]
     # [criteria]: stability conventions (DESIGN.md section 7)
-    fs_overturning: float = 1.5  # IBC 2021 1807.2.3
-    fs_sliding: float = 1.5  # IBC 2021 1807.2.3
-    count_toe_soil: bool = True
-    use_passive: bool = True
-    passive_neglect_ft: float = 1.0  # common practice
-    surcharge_resists: bool = False
-    batter_face: str = "back"
-    min_embedment_ft: float = 1.0  # IBC 2021 1809.4 (12 in)
-    frost_depth_ft: float | None = None
-    # [criteria]: strength options (ACI 318-19)
-    cover_stem_in: float | None = None  # None: Table 20.5.1.3.1 by bar size (2 / 1.5 in)
-    cover_heel_in: float | None = None  # None: Table 20.5.1.3.1 by bar size (2 / 1.5 in)
-    cover_toe_in: float = 3.0  # Table 20.5.1.3.1: cast against earth
-    footing_shear_size_effect: bool = False  # 13.2.6.2 permits neglecting lambda_s
-    crack_control: bool = True  # 24.3.2 on the stem
-    hook_psi_o: float = 1.0  # Table 25.4.3.2 location factor (see development.py)
-    heel_upward_pressure: bool = True  # heel by the net factored pressure (DESIGN.md 7)
+    fs_overturning: float = CRITERIA["fs_overturning"]
+    fs_sliding: float = CRITERIA["fs_sliding"]
+    count_toe_soil: bool = CRITERIA["count_toe_soil"]
+    use_passive: bool = CRITERIA["use_passive"]
+    passive_neglect_ft: float = CRITERIA["passive_neglect_ft"]
+    surcharge_resists: bool = CRITERIA["surcharge_resists"]
+    batter_face: str = CRITERIA["batter_face"]
+    min_embedment_ft: float = CRITERIA["min_embedment_ft"]
+    frost_depth_ft: float | None = CRITERIA["frost_depth_ft"]
+    cover_stem_in: float | None = CRITERIA["cover_stem_in"]
+    cover_heel_in: float | None = CRITERIA["cover_heel_in"]
+    cover_toe_in: float = CRITERIA["cover_toe_in"]
+    footing_shear_size_effect: bool = CRITERIA["footing_shear_size_effect"]
+    crack_control: bool = CRITERIA["crack_control"]
+    hook_psi_o: float = CRITERIA["hook_psi_o"]
+    heel_upward_pressure: bool = CRITERIA["heel_upward_pressure"]
 
     def __post_init__(self):
         has_efp = self.active_efp_pcf is not None

@@ -1,12 +1,14 @@
 """The declared keys of the site file and the section file (DESIGN.md section 4).
 
-One place for every key, its type, range, default and source, shared by the site file,
-the section file and the starter site. Soil keys have no defaults: a soil parameter is
+One place for every key, its type, range and source, shared by the site file, the section
+file and the starter site; each key's default is taken from the engine's one declaration of
+them (``engine/defaults.py``). Soil keys have no defaults: a soil parameter is
 never defaulted silently.
 """
 
 from __future__ import annotations
 
+from .engine.defaults import COSTS, CRITERIA, LOADS, MATERIALS, SEISMIC, SIZING
 from .schema import REQUIRED, Key
 
 SITE_KEYS = {
@@ -50,11 +52,12 @@ SOIL_KEYS = {
 }
 
 LOADS_KEYS = {
-    "surcharge_psf": Key(float, 0.0, lo=0, hi=5000,
+    "surcharge_psf": Key(float, LOADS["surcharge_psf"], lo=0, hi=5000,
                          doc="uniform live surcharge on the retained grade, psf"),
     # table-valued: written as [[loads.strip]] entries, and the top-level [seismic] and
     # [water] tables (the files' loaders fill these three; STRIP_KEYS, SEISMIC_KEYS, WATER_KEYS)
-    "strip": Key(list, (), doc="strip surcharges near the wall, [[loads.strip]] entries"),
+    "strip": Key(list, LOADS["strip"],
+                 doc="strip surcharges near the wall, [[loads.strip]] entries"),
     "seismic": Key(dict, None, doc="the seismic case, from the [seismic] table"),
     "water": Key(dict, None, doc="water behind the wall, from the [water] table (default "
                  "drained)"),
@@ -72,16 +75,16 @@ STRIP_KEYS = {
 # [seismic]: present only where the site or section file has the table
 SEISMIC_KEYS = {
     "kh": Key(float, REQUIRED, lo=0, hi=0.8, doc="horizontal seismic coefficient kh"),
-    "method": Key(str, "seed-whitman", choices=("seed-whitman", "mononobe-okabe"),
+    "method": Key(str, SEISMIC["method"], choices=("seed-whitman", "mononobe-okabe"),
                   doc="dynamic increment: Seed-Whitman 0.375 kh gamma H^2 or Mononobe-Okabe"),
-    "load_factor": Key(float, 0.7, lo=0, hi=1.0, lo_open=True,
+    "load_factor": Key(float, SEISMIC["load_factor"], lo=0, hi=1.0, lo_open=True,
                        doc="factor on the nominal earthquake loads in the stability case "
                            "(IBC 2021 1807.2.3: 0.7)"),
-    "fs_overturning": Key(float, 1.1, lo=1.0, hi=5.0,
+    "fs_overturning": Key(float, SEISMIC["fs_overturning"], lo=1.0, hi=5.0,
                           doc="required FS, overturning with seismic (IBC 2021 1807.2.3)"),
-    "fs_sliding": Key(float, 1.1, lo=1.0, hi=5.0,
+    "fs_sliding": Key(float, SEISMIC["fs_sliding"], lo=1.0, hi=5.0,
                       doc="required FS, sliding with seismic (IBC 2021 1807.2.3)"),
-    "soil_inertia": Key(bool, True,
+    "soil_inertia": Key(bool, SEISMIC["soil_inertia"],
                         doc="the soil over the heel moves with the wall: its inertia kh W "
                             "acts with the concrete's"),
 }
@@ -97,96 +100,105 @@ WATER_KEYS = {
 }
 
 MATERIALS_KEYS = {
-    "fc_psi": Key(float, 4000.0, lo=2500, hi=10000,
+    "fc_psi": Key(float, MATERIALS["fc_psi"], lo=2500, hi=10000,
                   doc="concrete strength f'c, psi (ACI 318-19 Table 19.2.1.1 minimum 2500)"),
-    "fy_psi": Key(float, 60000.0, lo=40000, hi=80000, doc="reinforcement yield fy, psi (A615)"),
-    "concrete_unit_weight_pcf": Key(float, 150.0, lo=90, hi=160,
+    "fy_psi": Key(float, MATERIALS["fy_psi"], lo=40000, hi=80000,
+                  doc="reinforcement yield fy, psi (A615)"),
+    "concrete_unit_weight_pcf": Key(float, MATERIALS["concrete_unit_weight_pcf"], lo=90, hi=160,
                                     doc="concrete unit weight, pcf (common practice 150)"),
 }
 
 CRITERIA_KEYS = {
     # stability, IBC 2021 section 1807.2.3
-    "fs_overturning": Key(float, 1.5, lo=1.0, hi=5.0, doc="FS overturning (IBC 1807.2.3)"),
-    "fs_sliding": Key(float, 1.5, lo=1.0, hi=5.0, doc="required FS, sliding (IBC 1807.2.3)"),
-    "count_toe_soil": Key(bool, True, doc="soil over the toe resists"),
-    "use_passive": Key(bool, True, doc="passive pressure on the front resists sliding"),
-    "passive_neglect_ft": Key(float, 1.0, lo=0, hi=10,
+    "fs_overturning": Key(float, CRITERIA["fs_overturning"], lo=1.0, hi=5.0,
+                          doc="FS overturning (IBC 1807.2.3)"),
+    "fs_sliding": Key(float, CRITERIA["fs_sliding"], lo=1.0, hi=5.0,
+                      doc="required FS, sliding (IBC 1807.2.3)"),
+    "count_toe_soil": Key(bool, CRITERIA["count_toe_soil"], doc="soil over the toe resists"),
+    "use_passive": Key(bool, CRITERIA["use_passive"],
+                       doc="passive pressure on the front resists sliding"),
+    "passive_neglect_ft": Key(float, CRITERIA["passive_neglect_ft"], lo=0, hi=10,
                               doc="depth below front grade with no passive (common practice)"),
-    "surcharge_resists": Key(bool, False, doc="live surcharge weight on the heel resists"),
-    "batter_face": Key(str, "back", choices=("back", "front"), doc="which stem face is battered"),
+    "surcharge_resists": Key(bool, CRITERIA["surcharge_resists"],
+                             doc="live surcharge weight on the heel resists"),
+    "batter_face": Key(str, CRITERIA["batter_face"], choices=("back", "front"),
+                       doc="which stem face is battered"),
     # geometry along the wall (the site pipeline)
-    "min_embedment_ft": Key(float, 1.0, lo=0, hi=20,
+    "min_embedment_ft": Key(float, CRITERIA["min_embedment_ft"], lo=0, hi=20,
                             doc="front grade to bottom of footing, ft (IBC 2021 1809.4: 12 in)"),
-    "frost_depth_ft": Key(float, None, lo=0, hi=15, doc="frost depth below front grade, ft"),
-    "footing_width_max_ft": Key(float, None, lo=1, hi=100,
+    "frost_depth_ft": Key(float, CRITERIA["frost_depth_ft"], lo=0, hi=15,
+                          doc="frost depth below front grade, ft"),
+    "footing_width_max_ft": Key(float, CRITERIA["footing_width_max_ft"], lo=1, hi=100,
                                 doc="widest footing the site has room for, ft (no limit)"),
-    "footing_cover_ft": Key(float, 0.0, lo=0, hi=5,
+    "footing_cover_ft": Key(float, CRITERIA["footing_cover_ft"], lo=0, hi=5,
                             doc="front grade to top of footing, least, ft (common practice: the "
                                 "footing is buried)"),
-    "station_interval_ft": Key(float, 5.0, lo=0.1, hi=500, doc="station spacing, ft"),
-    "coverage_tolerance_ft": Key(float, 0.01, lo=0, hi=5,
+    "station_interval_ft": Key(float, CRITERIA["station_interval_ft"], lo=0.1, hi=500,
+                               doc="station spacing, ft"),
+    "coverage_tolerance_ft": Key(float, CRITERIA["coverage_tolerance_ft"], lo=0, hi=5,
                                  doc="how far a profile may stop short of a wall end, ft"),
-    "freeboard_ft": Key(float, 0.5, lo=0, hi=5,
+    "freeboard_ft": Key(float, CRITERIA["freeboard_ft"], lo=0, hi=5,
                         doc="top of wall above retained grade, ft (common practice)"),
-    "min_retained_height_ft": Key(float, 0.5, lo=0, hi=5,
+    "min_retained_height_ft": Key(float, CRITERIA["min_retained_height_ft"], lo=0, hi=5,
                                   doc="below this no wall is needed, ft (common practice)"),
-    "end_height_warn_ft": Key(float, 3.0, lo=0, hi=40,
+    "end_height_warn_ft": Key(float, CRITERIA["end_height_warn_ft"], lo=0, hi=40,
                               doc="warn where a wall end still retains more than this, ft "
                                   "(common practice: a return wall or a turn-down there)"),
-    "max_retained_height_ft": Key(float, 20.0, lo=1, hi=40,
+    "max_retained_height_ft": Key(float, CRITERIA["max_retained_height_ft"], lo=1, hi=40,
                                   doc="cantilever range limit, ft (common practice)"),
     # constructible segments (engine/segments.py)
-    "footing_step_max_ft": Key(float, 2.0, lo=0.1, hi=10,
+    "footing_step_max_ft": Key(float, CRITERIA["footing_step_max_ft"], lo=0.1, hi=10,
                                doc="largest step between footings, ft (common practice)"),
-    "elevation_step_ft": Key(float, 0.5, lo=0.05, hi=2,
+    "elevation_step_ft": Key(float, CRITERIA["elevation_step_ft"], lo=0.05, hi=2,
                              doc="bottoms of footing (rounded down) and tops of wall (rounded "
                                  "up) on this elevation grid, ft (common practice)"),
-    "step_min_in": Key(float, 6.0, lo=0, hi=48,
+    "step_min_in": Key(float, CRITERIA["step_min_in"], lo=0, hi=48,
                        doc="a step in footing or top is 0 or at least this, in (common "
                            "practice: a step a crew can form)"),
-    "top_of_wall": Key(str, "stepped", choices=("stepped", "follow_grade"),
+    "top_of_wall": Key(str, CRITERIA["top_of_wall"], choices=("stepped", "follow_grade"),
                        doc="top of wall level per segment, or following the grade"),
-    "segment_min_ft": Key(float, 20.0, lo=0, hi=500,
+    "segment_min_ft": Key(float, CRITERIA["segment_min_ft"], lo=0, hi=500,
                           doc="shortest segment inside a wall, ft (common practice: a length "
                               "worth forming)"),
-    "segment_max_ft": Key(float, 90.0, lo=5, hi=1000, doc="longest segment, ft (common practice)"),
-    "contraction_joint_max_ft": Key(float, 30.0, lo=5, hi=200,
+    "segment_max_ft": Key(float, CRITERIA["segment_max_ft"], lo=5, hi=1000,
+                          doc="longest segment, ft (common practice)"),
+    "contraction_joint_max_ft": Key(float, CRITERIA["contraction_joint_max_ft"], lo=5, hi=200,
                                     doc="contraction joint spacing limit, ft (common practice: "
                                         "at most 30 ft, concretenetwork.com, poured retaining "
                                         "walls, provisions)"),
-    "expansion_joint_max_ft": Key(float, 90.0, lo=10, hi=1000,
+    "expansion_joint_max_ft": Key(float, CRITERIA["expansion_joint_max_ft"], lo=10, hi=1000,
                                   doc="expansion joint spacing limit, ft, and one at every "
                                       "footing step (common practice: up to 90 ft, "
                                       "concretenetwork.com, poured retaining walls)"),
-    "design_height_increment_ft": Key(float, 1.0, lo=0.01, hi=5,
+    "design_height_increment_ft": Key(float, CRITERIA["design_height_increment_ft"], lo=0.01, hi=5,
                                       doc="design heights rounded up to this, ft (common "
                                           "practice: walls tabulated by height)"),
     # excavation and backfill quantities (engine/quantities.py), with existing ground given
-    "working_room_ft": Key(float, 2.0, lo=0, hi=20,
+    "working_room_ft": Key(float, CRITERIA["working_room_ft"], lo=0, hi=20,
                            doc="trench floor beyond each footing edge, ft (common practice)"),
-    "trench_side_slope_h_per_v": Key(float, 1.0, lo=0, hi=5,
+    "trench_side_slope_h_per_v": Key(float, CRITERIA["trench_side_slope_h_per_v"], lo=0, hi=5,
                                      doc="trench sides, horizontal per 1 vertical (1.0: OSHA 29 "
                                          "CFR 1926 Subpart P App. B, Type B soil, from memory; "
                                          "0: vertical sides)"),
     # strength options, ACI 318-19 (the section check; DESIGN.md section 7)
-    "cover_stem_in": Key(float, None, lo=0.75, hi=6,
+    "cover_stem_in": Key(float, CRITERIA["cover_stem_in"], lo=0.75, hi=6,
                          doc="clear cover to the stem bars, in (default ACI 318-19 Table "
                              "20.5.1.3.1: 2 in for #6 and larger, 1.5 in for #5 and smaller)"),
-    "cover_heel_in": Key(float, None, lo=0.75, hi=6,
+    "cover_heel_in": Key(float, CRITERIA["cover_heel_in"], lo=0.75, hi=6,
                          doc="clear cover to the heel top bars, in (default as cover_stem_in)"),
-    "cover_toe_in": Key(float, 3.0, lo=0.75, hi=6,
+    "cover_toe_in": Key(float, CRITERIA["cover_toe_in"], lo=0.75, hi=6,
                         doc="clear cover to the toe bottom bars, in (ACI 318-19 Table "
                             "20.5.1.3.1: 3 in cast against earth)"),
-    "footing_shear_size_effect": Key(bool, False,
+    "footing_shear_size_effect": Key(bool, CRITERIA["footing_shear_size_effect"],
                                      doc="apply lambda_s to footing one-way shear (ACI 318-19 "
                                          "13.2.6.2 permits neglecting it)"),
-    "crack_control": Key(bool, True,
+    "crack_control": Key(bool, CRITERIA["crack_control"],
                          doc="limit the stem bar spacing for crack control (ACI 318-19 24.3.2, "
                              "service bar stress)"),
-    "hook_psi_o": Key(float, 1.0, lo=1.0, hi=1.25,
+    "hook_psi_o": Key(float, CRITERIA["hook_psi_o"], lo=1.0, hi=1.25,
                       doc="hook location factor psi_o (ACI 318-19 Table 25.4.3.2): 1.0 for a "
                           "continuous wall, 1.25 where side cover < 6 db"),
-    "heel_upward_pressure": Key(bool, True,
+    "heel_upward_pressure": Key(bool, CRITERIA["heel_upward_pressure"],
                                 doc="design the heel for the net factored pressure of "
                                     "1.2D+1.6H+1.6L, 1.2D+1.6H and 0.9D+1.6H (false: the "
                                     "textbook method, upward pressure neglected)"),
@@ -194,49 +206,60 @@ CRITERIA_KEYS = {
 
 # [costs]: the least-cost objective. ILLUSTRATIVE defaults, not market prices.
 COSTS_KEYS = {
-    "concrete_usd_per_cy": Key(float, 250.0, lo=0, hi=10000, doc="placed concrete, $/CY"),
-    "steel_usd_per_lb": Key(float, 1.25, lo=0, hi=100, doc="reinforcing steel in place, $/lb"),
-    "excavation_usd_per_cy": Key(float, 30.0, lo=0, hi=10000, doc="excavation, $/CY"),
-    "formwork_usd_per_sf": Key(float, 12.0, lo=0, hi=1000, doc="formwork, $/SF of contact"),
-    "step_usd": Key(float, 500.0, lo=0, hi=100000, doc="one step in footing or top, $ each"),
-    "mark_usd": Key(float, 1000.0, lo=0, hi=1000000,
+    "concrete_usd_per_cy": Key(float, COSTS["concrete_usd_per_cy"], lo=0, hi=10000,
+                               doc="placed concrete, $/CY"),
+    "steel_usd_per_lb": Key(float, COSTS["steel_usd_per_lb"], lo=0, hi=100,
+                            doc="reinforcing steel in place, $/lb"),
+    "excavation_usd_per_cy": Key(float, COSTS["excavation_usd_per_cy"], lo=0, hi=10000,
+                                 doc="excavation, $/CY"),
+    "formwork_usd_per_sf": Key(float, COSTS["formwork_usd_per_sf"], lo=0, hi=1000,
+                               doc="formwork, $/SF of contact"),
+    "step_usd": Key(float, COSTS["step_usd"], lo=0, hi=100000,
+                    doc="one step in footing or top, $ each"),
+    "mark_usd": Key(float, COSTS["mark_usd"], lo=0, hi=1000000,
                     doc="one more section mark (detailing, forms, checking), $ each"),
 }
 
 # [sizing]: the candidate grid of the least-cost search (common practice increments).
 SIZING_KEYS = {
-    "toe_min_ft": Key(float, 1.0, lo=0, hi=30,
+    "toe_min_ft": Key(float, SIZING["toe_min_ft"], lo=0, hi=30,
                       doc="smallest toe, ft (common practice: room for the toe bars and the "
                           "bearing; 0 for a wall on a property line)"),
-    "toe_max_ft": Key(float, 8.0, lo=0, hi=30, doc="largest toe, ft"),
-    "heel_max_ft": Key(float, 14.0, lo=0.5, hi=40, doc="largest heel, ft"),
-    "toe_heel_step_in": Key(float, 3.0, lo=1, hi=24, doc="toe and heel increments, in"),
-    "footing_thickness_min_in": Key(float, 12.0, lo=8, hi=60,
+    "toe_max_ft": Key(float, SIZING["toe_max_ft"], lo=0, hi=30, doc="largest toe, ft"),
+    "heel_max_ft": Key(float, SIZING["heel_max_ft"], lo=0.5, hi=40, doc="largest heel, ft"),
+    "toe_heel_step_in": Key(float, SIZING["toe_heel_step_in"], lo=1, hi=24,
+                            doc="toe and heel increments, in"),
+    "footing_thickness_min_in": Key(float, SIZING["footing_thickness_min_in"], lo=8, hi=60,
                                     doc="thinnest footing, in (IBC 2021 1809.4: 12 in width)"),
-    "footing_thickness_max_in": Key(float, 48.0, lo=8, hi=96, doc="thickest footing, in"),
-    "footing_thickness_step_in": Key(float, 1.0, lo=0.5, hi=12, doc="footing increments, in"),
-    "stem_min_in": Key(float, 8.0, lo=6, hi=48, doc="thinnest stem, in (common practice)"),
-    "stem_max_in": Key(float, 24.0, lo=6, hi=72, doc="thickest stem base, in"),
-    "stem_step_in": Key(float, 1.0, lo=0.5, hi=12, doc="stem increments, in"),
-    "stem_batter": Key(bool, False, doc="batter the back face: stem top at stem_min_in"),
-    "bar_sizes": Key(str, "4-11", doc="bar sizes to try, e.g. \"4-11\" (ASTM A615 numbers)"),
-    "bar_spacings_in": Key(list, [4.0, 6.0, 8.0, 9.0, 10.0, 12.0, 15.0, 16.0, 18.0], lo=2, hi=48,
+    "footing_thickness_max_in": Key(float, SIZING["footing_thickness_max_in"], lo=8, hi=96,
+                                    doc="thickest footing, in"),
+    "footing_thickness_step_in": Key(float, SIZING["footing_thickness_step_in"], lo=0.5, hi=12,
+                                     doc="footing increments, in"),
+    "stem_min_in": Key(float, SIZING["stem_min_in"], lo=6, hi=48,
+                       doc="thinnest stem, in (common practice)"),
+    "stem_max_in": Key(float, SIZING["stem_max_in"], lo=6, hi=72, doc="thickest stem base, in"),
+    "stem_step_in": Key(float, SIZING["stem_step_in"], lo=0.5, hi=12, doc="stem increments, in"),
+    "stem_batter": Key(bool, SIZING["stem_batter"],
+                       doc="batter the back face: stem top at stem_min_in"),
+    "bar_sizes": Key(str, SIZING["bar_sizes"],
+                     doc="bar sizes to try, e.g. \"4-11\" (ASTM A615 numbers)"),
+    "bar_spacings_in": Key(list, list(SIZING["bar_spacings_in"]), lo=2, hi=48,
                            doc="the bar spacings to use, in (common practice: the spacings a "
                                "detailer uses)"),
-    "key_depths_in": Key(list, [0.0, 12.0, 24.0], lo=0, hi=72,
+    "key_depths_in": Key(list, list(SIZING["key_depths_in"]), lo=0, hi=72,
                          doc="shear key depths below the footing to try, in (0: no key; "
                              "common practice: 1 to 2 ft); the key sits under the stem, its "
                              "front face under the stem's front face, cast against the soil "
                              "of its trench, and is checked as plain concrete"),
-    "key_width_in": Key(float, 0.0, lo=0, hi=60,
+    "key_width_in": Key(float, SIZING["key_width_in"], lo=0, hi=60,
                         doc="shear key width, in (0: as wide as the stem's base, common "
                             "practice)"),
-    "marks_max": Key(int, 6, lo=1, hi=100,
+    "marks_max": Key(int, SIZING["marks_max"], lo=1, hi=100,
                      doc="most section marks per wall (or per site), chosen from the design "
                          "table (common practice: a few marks a crew can build)"),
-    "marks_per": Key(str, "wall", choices=("wall", "site"),
+    "marks_per": Key(str, SIZING["marks_per"], choices=("wall", "site"),
                      doc="marks_max counts the marks of each wall, or of the whole site"),
-    "memory_budget_gb": Key(float, 2.0, lo=0.1, hi=4096,
+    "memory_budget_gb": Key(float, SIZING["memory_budget_gb"], lo=0.1, hi=4096,
                             doc="memory a design may need, GB: a run estimated to need more "
                                 "is refused before it starts"),
 }

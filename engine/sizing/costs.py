@@ -12,6 +12,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from ..bars import bar_area_in2, bar_weight_plf
+from ..defaults import COSTS
 from ..key import key_passes
 from ..pressure import earth_pressure
 from ..section import BarArrays, DesignInputs, SectionGeometry
@@ -30,12 +31,12 @@ CY_FT3 = 27.0
 class CostRates:
     """Unit costs (``[costs]``; illustrative defaults, not market prices)."""
 
-    concrete_usd_per_cy: float = 250.0
-    steel_usd_per_lb: float = 1.25
-    excavation_usd_per_cy: float = 30.0
-    formwork_usd_per_sf: float = 12.0
-    step_usd: float = 500.0
-    mark_usd: float = 1000.0
+    concrete_usd_per_cy: float = COSTS["concrete_usd_per_cy"]
+    steel_usd_per_lb: float = COSTS["steel_usd_per_lb"]
+    excavation_usd_per_cy: float = COSTS["excavation_usd_per_cy"]
+    formwork_usd_per_sf: float = COSTS["formwork_usd_per_sf"]
+    step_usd: float = COSTS["step_usd"]
+    mark_usd: float = COSTS["mark_usd"]
 
     @classmethod
     def from_table(cls, t: Mapping) -> CostRates:

@@ -12,12 +12,13 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from ..bars import SIZES
+from ..defaults import SIZING
 from ..section import BarArrays, SectionGeometry
 
 # bar spacings a detailer uses, in (common practice: 4-in steps to 12 in, 15, 16, 18)
-STANDARD_SPACINGS_IN = (4.0, 6.0, 8.0, 9.0, 10.0, 12.0, 15.0, 16.0, 18.0)
+STANDARD_SPACINGS_IN = tuple(SIZING["bar_spacings_in"])
 # shear key depths below the footing, in (0 = no key; common practice: keys of 1 to 2 ft)
-KEY_DEPTHS_DEFAULT_IN = np.array([0.0, 12.0, 24.0])
+KEY_DEPTHS_DEFAULT_IN = np.array(SIZING["key_depths_in"])
 
 
 def _steps(lo, hi, step):
@@ -61,27 +62,27 @@ class SizingGrid:
 
     @classmethod
     def from_table(cls, t: Mapping) -> SizingGrid:
-        st = float(t.get("toe_heel_step_in", 3.0)) / 12.0
-        smin = float(t.get("stem_min_in", 8.0))
+        """From the validated ``[sizing]`` table; a key it does not give takes its default
+        (``engine/defaults.py``)."""
+        d = {**SIZING, **t}
+        st = float(d["toe_heel_step_in"]) / 12.0
+        smin = float(d["stem_min_in"])
         return cls(
-            toe_ft=_steps(min(float(t.get("toe_min_ft", 1.0)), float(t.get("toe_max_ft", 8.0))),
-                          float(t.get("toe_max_ft", 8.0)), st),
-            heel_ft=_steps(st * 2, float(t.get("heel_max_ft", 14.0)), st),
-            footing_thickness_in=_steps(float(t.get("footing_thickness_min_in", 12.0)),
-                                        float(t.get("footing_thickness_max_in", 48.0)),
-                                        float(t.get("footing_thickness_step_in", 1.0))),
-            stem_base_in=_steps(smin, float(t.get("stem_max_in", 24.0)),
-                                float(t.get("stem_step_in", 1.0))),
+            toe_ft=_steps(min(float(d["toe_min_ft"]), float(d["toe_max_ft"])),
+                          float(d["toe_max_ft"]), st),
+            heel_ft=_steps(st * 2, float(d["heel_max_ft"]), st),
+            footing_thickness_in=_steps(float(d["footing_thickness_min_in"]),
+                                        float(d["footing_thickness_max_in"]),
+                                        float(d["footing_thickness_step_in"])),
+            stem_base_in=_steps(smin, float(d["stem_max_in"]), float(d["stem_step_in"])),
             stem_top_min_in=smin,
-            stem_batter=bool(t.get("stem_batter", False)),
-            bar_sizes=parse_sizes(t.get("bar_sizes", "4-11")),
-            bar_spacings_in=np.array(sorted(set(float(x) for x in t.get(
-                "bar_spacings_in", STANDARD_SPACINGS_IN)))),
-            marks_max=int(t.get("marks_max", 6)),
-            marks_per=str(t.get("marks_per", "wall")),
-            key_depth_in=np.array(sorted({float(x) for x in t.get(
-                "key_depths_in", KEY_DEPTHS_DEFAULT_IN)} | {0.0})),
-            key_width_in=float(t.get("key_width_in", 0.0)),
+            stem_batter=bool(d["stem_batter"]),
+            bar_sizes=parse_sizes(d["bar_sizes"]),
+            bar_spacings_in=np.array(sorted(set(float(x) for x in d["bar_spacings_in"]))),
+            marks_max=int(d["marks_max"]),
+            marks_per=str(d["marks_per"]),
+            key_depth_in=np.array(sorted({float(x) for x in d["key_depths_in"]} | {0.0})),
+            key_width_in=float(d["key_width_in"]),
         )
 
     def geometries(self) -> Geometries:
