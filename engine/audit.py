@@ -292,7 +292,7 @@ def _footing_audit(rows, name, mu, vu, size, sp, cover, T_in, fc, fy, i):
     d = T_in - cover - A615[size][0] / 2
     As = A615[size][1] * 12 / sp
     pmn, _ = _whitney_strength(As, d, fc, fy)
-    pvn = _shear_strength(As, d, fc, i.footing_shear_size_effect)
+    pvn = _shear_strength(As, d, fc, i.criteria.footing_shear_size_effect)
     rows[f"{name}_flexure"] = AuditRow(mu, pmn, mu <= pmn)
     rows[f"{name}_shear"] = AuditRow(vu, pvn, vu <= pvn)
     rows[f"{name}_min_steel"] = AuditRow(0.0018 * 12 * T_in, As, As >= 0.0018 * 12 * T_in)
@@ -346,42 +346,42 @@ def _pressures(ctx_: dict) -> dict:
     kw, kd = g.get("key_width_in", 0.0) / 12.0, g.get("key_depth_in", 0.0) / 12.0
     ko = g.get("key_offset_ft", toe)
     fb = g.get("freeboard_ft", 0.5)
-    gam, gc, q = i.unit_weight_pcf, i.concrete_unit_weight_pcf, i.surcharge_psf
+    gam, gc, q = i.soil.unit_weight_pcf, i.materials.concrete_unit_weight_pcf, i.loads.surcharge_psf
     g_sat = i.gamma_below_water_pcf  # total unit weight below a water level
-    fc, fy = i.fc_psi, i.fy_psi
+    fc, fy = i.materials.fc_psi, i.materials.fy_psi
 
     # pressures; the thrust's direction ``incl`` above the horizontal
-    beta = i.backslope_deg or 0.0
-    strips = list(i.strip)
-    wl = None if i.water is None else i.water.level_ft
-    sz = i.seismic
-    ext = beta > 0 or i.active_method == "coulomb" or bool(strips) or wl is not None
+    beta = i.soil.backslope_deg or 0.0
+    strips = list(i.loads.strip)
+    wl = None if i.loads.water is None else i.loads.water.level_ft
+    sz = i.loads.seismic
+    ext = beta > 0 or i.soil.active_method == "coulomb" or bool(strips) or wl is not None
     incl = 0.0
-    if i.active_efp_pcf is not None:
-        efp = i.active_efp_pcf
+    if i.soil.active_efp_pcf is not None:
+        efp = i.soil.active_efp_pcf
         ka = efp / gam
-    elif i.active_method == "coulomb":
+    elif i.soil.active_method == "coulomb":
         # soil against soil on the heel plane (friction = backslope); the report's wall
         # friction only on the stem's back face
-        incl = i.wall_friction_deg if i.coulomb_plane == "stem" else beta
-        ka = _wedge_k(i.friction_angle_deg, incl, beta)
+        incl = i.soil.wall_friction_deg if i.soil.coulomb_plane == "stem" else beta
+        ka = _wedge_k(i.soil.friction_angle_deg, incl, beta)
         efp = ka * gam
     elif beta > 0:
         incl = beta  # Rankine with a backslope = the wedge with delta = beta on a vertical back
-        ka = _wedge_k(i.friction_angle_deg, beta, beta)
+        ka = _wedge_k(i.soil.friction_angle_deg, beta, beta)
         efp = ka * gam
     else:
-        sn = math.sin(math.radians(i.friction_angle_deg))
+        sn = math.sin(math.radians(i.soil.friction_angle_deg))
         ka = (1 - sn) / (1 + sn)
         efp = ka * gam
     ci, si_ = math.cos(math.radians(incl)), math.sin(math.radians(incl))
-    if not i.use_passive:
+    if not i.criteria.use_passive:
         efp_p = 0.0
-    elif i.passive_from_friction_angle:
-        sn = math.sin(math.radians(i.friction_angle_deg))
+    elif i.soil.passive_from_friction_angle:
+        sn = math.sin(math.radians(i.soil.friction_angle_deg))
         efp_p = (1 + sn) / (1 - sn) * gam
     else:
-        efp_p = i.passive_efp_pcf
+        efp_p = i.soil.passive_efp_pcf
     return _keep(locals(), """T T_in beta ci efp efp_p emb ext fb fc fy g g_sat gam gc h_ret
         heel i incl ka kd ko kw q si_ sn strips sz tb toe tt wl""")
 
@@ -395,14 +395,14 @@ def _soil_and_concrete(ctx_: dict) -> dict:
     B = toe + tb + heel
     y_top = H + fb
     x_front, x_back = toe, toe + tb
-    if i.batter_face == "back":
+    if i.criteria.batter_face == "back":
         stem_poly = [(x_front, T), (x_back, T), (x_front + tt, y_top), (x_front, y_top)]
         x_face_at_grade = x_back - (tb - tt) * (H - T) / (y_top - T)
     else:
         stem_poly = [(x_front, T), (x_back, T), (x_back, y_top), (x_back - tt, y_top)]
         x_face_at_grade = x_back
     Hv = H + (B - x_face_at_grade) * math.tan(math.radians(beta))  # ground at the heel edge
-    stem_plane = i.active_method == "coulomb" and i.coulomb_plane == "stem"
+    stem_plane = i.soil.active_method == "coulomb" and i.soil.coulomb_plane == "stem"
     if stem_plane:  # the thrust on the stem's back face at its base, the heel's soil retained
         x_p = x_back
         Hp = H + (x_back - x_face_at_grade) * math.tan(math.radians(beta))
@@ -422,7 +422,7 @@ def _soil_and_concrete(ctx_: dict) -> dict:
             pieces.append((i.gamma_below_water_pcf - gam, _clip_y(soil_region, hw)))  # weights)
     if hw > 0:  # uplift: the head at the heel edge falling to zero at the toe edge
         pieces.append((-1.0, [(0, 0), (B, 0), (B, WATER * hw)]))
-    if i.count_toe_soil and emb > T:
+    if i.criteria.count_toe_soil and emb > T:
         pieces.append((gam, [(0, T), (toe, T), (toe, emb), (0, emb)]))
     V_dead = M_dead = 0.0
     for unit, poly in pieces:
@@ -478,12 +478,12 @@ def _lateral(ctx_: dict) -> dict:
     V_perm, M_perm = V_dead, M_dead  # without the thrust (the seismic case adds its own)
     V_dead += V_th
     M_dead += V_th * x_p
-    V_res, M_res = (V_dead + Wq, M_dead + Mq) if i.surcharge_resists else (V_dead, M_dead)
+    V_res, M_res = (V_dead + Wq, M_dead + Mq) if i.criteria.surcharge_resists else (V_dead, M_dead)
     fs_ot = M_res / M_O if M_O > 0 else math.inf
     z_bot = emb + (kd if (kw > 0 and kd > 0) else 0.0)
-    z_top = min(i.passive_neglect_ft, z_bot)
-    P_p = efp_p * (z_bot ** 2 - z_top ** 2) / 2 if i.use_passive else 0.0
-    H_res = i.friction_coefficient * V_res + P_p
+    z_top = min(i.criteria.passive_neglect_ft, z_bot)
+    P_p = efp_p * (z_bot ** 2 - z_top ** 2) / 2 if i.criteria.use_passive else 0.0
+    H_res = i.soil.friction_coefficient * V_res + P_p
     fs_sl = H_res / H_drive if H_drive > 0 else math.inf
     return _keep(locals(), """H_drive H_res M_O M_dead M_perm M_res P_p V_dead V_perm V_res
         V_th fs_ot fs_sl heel_plane z_bot z_top""")
@@ -494,7 +494,7 @@ def _stability(ctx_: dict) -> dict:
     B, M_O, M_dead, M_res, Mq, V_dead = _take(ctx_, "B M_O M_dead M_res Mq V_dead")
     V_res, Wq, emb, fs_ot, fs_sl, i = _take(ctx_, "V_res Wq emb fs_ot fs_sl i")
     # bearing cases: (V, M_R) with and without the surcharge weight
-    cases = [(V_res, M_res)] if i.surcharge_resists else [(V_dead, M_dead),
+    cases = [(V_res, M_res)] if i.criteria.surcharge_resists else [(V_dead, M_dead),
                                                           (V_dead + Wq, M_dead + Mq)]
     bearing = []
     for V, M in cases:
@@ -517,13 +517,13 @@ def _stability(ctx_: dict) -> dict:
     e_gov = B / 2 - gov[1]
 
     rows: dict[str, AuditRow] = {}
-    rows["overturning"] = AuditRow(i.fs_overturning, fs_ot,
-                                   fs_ot >= i.fs_overturning and in_base)
-    rows["sliding"] = AuditRow(i.fs_sliding, fs_sl, fs_sl >= i.fs_sliding)
+    rows["overturning"] = AuditRow(i.criteria.fs_overturning, fs_ot,
+                                   fs_ot >= i.criteria.fs_overturning and in_base)
+    rows["sliding"] = AuditRow(i.criteria.fs_sliding, fs_sl, fs_sl >= i.criteria.fs_sliding)
     rows["bearing"] = AuditRow(q_max if q_max is not None else math.nan,
-                               i.allowable_bearing_psf,
-                               q_max is not None and q_max <= i.allowable_bearing_psf)
-    emb_req = max(i.min_embedment_ft, i.frost_depth_ft or 0.0)
+                               i.soil.allowable_bearing_psf,
+                               q_max is not None and q_max <= i.soil.allowable_bearing_psf)
+    emb_req = max(i.criteria.min_embedment_ft, i.criteria.frost_depth_ft or 0.0)
     rows["embedment"] = AuditRow(emb_req, emb, emb >= emb_req)
     return _keep(locals(), """M V bearing cases e_gov emb_req gov in_base q_max qmax rows xb""")
 
@@ -542,7 +542,7 @@ def _seismic(ctx_: dict) -> dict:
         if sz.method == "seed-whitman":
             dpae, dc, ds = 0.375 * kh * gam * Hp * Hp, 1.0, 0.0
         else:
-            kae = _wedge_k(i.friction_angle_deg, incl, beta, kh)
+            kae = _wedge_k(i.soil.friction_angle_deg, incl, beta, kh)
             dpae, dc, ds = (kae - ka) * gam * Hp * Hp / 2, ci, si_
         if ext:
             fh0, mh0, fv0 = heel_plane(False)
@@ -561,7 +561,7 @@ def _seismic(ctx_: dict) -> dict:
         VE = V_perm + fv0 + lf * dpae * ds
         MRE = M_perm + (fv0 + lf * dpae * ds) * x_p
         fs_ot_e = MRE / ME if ME > 0 else math.inf
-        fs_sl_e = (i.friction_coefficient * VE + P_p) / HE if HE > 0 else math.inf
+        fs_sl_e = (i.soil.friction_coefficient * VE + P_p) / HE if HE > 0 else math.inf
         xb = (MRE - ME) / VE if VE > 0 else math.nan
         if VE > 0 and 0 < xb < B:
             if B / 3 <= xb <= 2 * B / 3:
@@ -574,8 +574,8 @@ def _seismic(ctx_: dict) -> dict:
                                                fs_ot_e >= sz.fs_overturning and q_e is not None)
         rows["seismic_sliding"] = AuditRow(sz.fs_sliding, fs_sl_e, fs_sl_e >= sz.fs_sliding)
         rows["seismic_bearing"] = AuditRow(
-            q_e if q_e is not None else math.nan, i.allowable_bearing_psf,
-            q_e is not None and q_e <= i.allowable_bearing_psf)
+            q_e if q_e is not None else math.nan, i.soil.allowable_bearing_psf,
+            q_e is not None and q_e <= i.soil.allowable_bearing_psf)
         seis = {"seismic_delta_pae_lb": dpae, "seismic_fs_overturning": fs_ot_e,
                 "seismic_fs_sliding": fs_sl_e, "seismic_q_max_psf": q_e,
                 "seismic_h_driving_lb": HE, "seismic_m_overturning_lbft": ME,
@@ -594,7 +594,7 @@ def _stem(ctx_: dict) -> dict:
     s_size, s_sp = _bar(bars["stem"])
     db = A615[s_size][0]
     As = A615[s_size][1] * 12 / s_sp
-    cov = _cover(s_size, i.cover_stem_in)
+    cov = _cover(s_size, i.criteria.cover_stem_in)
     d = g["stem_base_in"] - cov - db / 2
     hs = max(H - T, 0.0)
 
@@ -631,7 +631,8 @@ def _stem(ctx_: dict) -> dict:
         if sz.method == "seed-whitman":
             tot = 0.375 * sz.kh * gam * hs * hs
         else:
-            tot = (_wedge_k(i.friction_angle_deg, incl, beta, sz.kh) - ka) * gam * hs * hs / 2 * ci
+            k_ae = _wedge_k(i.soil.friction_angle_deg, incl, beta, sz.kh)
+            tot = (k_ae - ka) * gam * hs * hs / 2 * ci
 
         def p(z):
             return tot / hs * (1.6 - 1.2 * z / hs)
@@ -676,7 +677,7 @@ def _stem(ctx_: dict) -> dict:
     as_min = 0.0018 * 12 * g["stem_base_in"]
     rows["stem_min_steel"] = AuditRow(as_min, As, As >= as_min)
     s_lim = min(3 * g["stem_base_in"], 18.0)
-    if i.crack_control:
+    if i.criteria.crack_control:
         ms = stem_service(hs)[0]
         n = E_STEEL / (57000 * math.sqrt(fc))
         # transformed section: 12 kd^2 / 2 = n As (d - kd)
@@ -687,12 +688,12 @@ def _stem(ctx_: dict) -> dict:
             s_lim = max(0.0, min(s_lim, 15 * 40000 / fs_serv - 2.5 * cov,
                                  12 * 40000 / fs_serv))
     rows["stem_spacing"] = AuditRow(s_sp, s_lim, s_sp <= s_lim)
-    ldh = _ldh(s_size, fc, fy, s_sp, i.hook_psi_o)
+    ldh = _ldh(s_size, fc, fy, s_sp, i.criteria.hook_psi_o)
     # the hook rests on the bottom mat: the toe bars and the longitudinal bars (when given)
     mat = A615[_bar(bars["toe"])[0]][0]
     if bars.get("longitudinal") is not None:
         mat += A615[_bar(bars["longitudinal"])[0]][0]
-    room_hook = T_in - i.cover_toe_in - mat
+    room_hook = T_in - i.criteria.cover_toe_in - mat
     rows["stem_hook"] = AuditRow(ldh, room_hook, ldh <= room_hook)
     return _keep(locals(), """As _ aq as_min best_f best_v bq cov cq d db dy f fs_serv hs
         kd_ ldh mat ms mu_s mu_y n pm pmn_s pv pvn_s room_hook s_lim
@@ -758,7 +759,7 @@ def _heel(ctx_: dict) -> dict:
         if sz.method == "seed-whitman":
             dp, cc, ss = 0.375 * sz.kh * gam * Hp * Hp, 1.0, 0.0
         else:
-            dp = (_wedge_k(i.friction_angle_deg, incl, beta, sz.kh) - ka) * gam * Hp * Hp / 2
+            dp = (_wedge_k(i.soil.friction_angle_deg, incl, beta, sz.kh) - ka) * gam * Hp * Hp / 2
             cc, ss = ci, si_
         fh_, mh_ = dp * cc, dp * cc * 0.6 * Hp
         mass = [(gc, c) for c in concrete]
@@ -783,7 +784,7 @@ def _heel(ctx_: dict) -> dict:
             V, M, MO = V + e[2], M + e[2] * x_p, MO + e[1]
         return pressure_fn(V, M, MO)
 
-    if not i.heel_upward_pressure:
+    if not i.criteria.heel_upward_pressure:
         pv_t = 0.0 if stem_plane else th_all[2]  # (stem plane: on the stem, not the heel)
         mu_h = 1.2 * dead_m + 1.6 * (q * heel ** 2 / 2 + pv_t * heel)
         vu_h = 1.2 * dead_f + 1.6 * (q * heel + pv_t)
@@ -802,7 +803,7 @@ def _heel(ctx_: dict) -> dict:
             if v_c > vu_h:
                 heel_combo = name
             mu_h, vu_h = max(mu_h, m_c), max(vu_h, v_c)
-    cov_h = _cover(h_size, i.cover_heel_in)
+    cov_h = _cover(h_size, i.criteria.cover_heel_in)
     d_h, pmn_h, pvn_h = _footing_audit(rows, "heel", mu_h, vu_h, h_size, h_sp, cov_h, T_in, fc,
                                        fy, i)
     return _keep(locals(), """_ a_h a_s brk combo_pressure combos cov_h d_h dead_f dead_m e
@@ -819,8 +820,8 @@ def _toe(ctx_: dict) -> dict:
     toe, = _take(ctx_, "toe")
     # ---- toe: 1.6 x service bearing pressure - 0.9 x weight over the toe; Mu at the front
     # face, Vu at d from it (7.4.3.2 by 13.2.7); with [seismic] also 1.2D + 1.0E + 1.6H
-    w_toe = gc * T + (gam * max(emb - T, 0.0) if i.count_toe_soil else 0.0)
-    cov_t = _cover(t_size, i.cover_toe_in)
+    w_toe = gc * T + (gam * max(emb - T, 0.0) if i.criteria.count_toe_soil else 0.0)
+    cov_t = _cover(t_size, i.criteria.cover_toe_in)
     d_t0 = T_in - cov_t - A615[t_size][0] / 2
     lv = max(toe - d_t0 / 12, 0.0)
     if in_base:
@@ -876,7 +877,7 @@ def _development(ctx_: dict) -> dict:
         ld_s = max(ld * ratio, 12.0)
         psi_r = 1.0 if (size <= 11 and sp >= 6 * db) else 1.6
         psi_c = 0.6 + fc / 15000 if fc < 6000 else 1.0
-        ldh_eq = fy * psi_r * i.hook_psi_o * psi_c / (55 * root) * db ** 1.5
+        ldh_eq = fy * psi_r * i.criteria.hook_psi_o * psi_c / (55 * root) * db ** 1.5
         ld_h = max(ldh_eq * ratio, 8 * db, 6.0)
         hooked = (ld_s > room + 1e-9) if given is None else bool(given)
         return (ld_h if hooked else ld_s), hooked
@@ -890,7 +891,7 @@ def _development(ctx_: dict) -> dict:
     rows["heel_development"] = AuditRow(need_h, room_h, need_h <= room_h)
     rows["toe_development"] = AuditRow(need_t, room_t, need_t <= room_t)
     if kw > 0 and kd > 0:
-        rows.update(_key_audit(efp_p, i.passive_neglect_ft, emb, kd, kw * 12.0, fc))
+        rows.update(_key_audit(efp_p, i.criteria.passive_neglect_ft, emb, kd, kw * 12.0, fc))
     else:  # no key: nothing to carry (the engine's rows, where a batch has them, are 0 / 0)
         rows.update({n: AuditRow(0.0, 0.0, True) for n in ("key_flexure", "key_shear")})
 

@@ -359,7 +359,8 @@ def _val(a, shape, index):
 def _footing_rows(name, face, mat, m, inputs, valid, shear_at="at"):
     """Flexure, shear, minimum steel and spacing of a footing cantilever (heel or toe)."""
     aci = "ACI 318-19"
-    shear = f"{aci} Table 22.5.5.1(c), " + ("lambda_s applied" if inputs.footing_shear_size_effect
+    size_effect = inputs.criteria.footing_shear_size_effect
+    shear = f"{aci} Table 22.5.5.1(c), " + ("lambda_s applied" if size_effect
                                            else "lambda_s neglected per 13.2.6.2")
     if shear_at != "at":
         shear += ", 7.4.3.2 by 13.2.7"
@@ -424,7 +425,7 @@ def check_section(geom: SectionGeometry, inputs: DesignInputs, bars: Reinforceme
         passes &= r.passes
         util = np.maximum(util, r.ratio)  # NaN propagates
     return SectionChecks(tuple(rows), st, stem, heel, toe, p, np.asarray(valid), passes, util,
-                         heel_textbook=not inputs.heel_upward_pressure)
+                         heel_textbook=not inputs.criteria.heel_upward_pressure)
 
 
 _ACI = "ACI 318-19"
@@ -432,20 +433,20 @@ _ACI = "ACI 318-19"
 
 def _stability_rows(geom, inputs, st, valid) -> list:
     """Overturning, sliding, bearing and embedment (IBC 2021 1807.2.3, 1806.1, 1809.4)."""
-    emb_req = max(inputs.min_embedment_ft, inputs.frost_depth_ft or 0.0)
+    emb_req = max(inputs.criteria.min_embedment_ft, inputs.criteria.frost_depth_ft or 0.0)
     with np.errstate(divide="ignore", invalid="ignore"):
-        ot_ratio = inputs.fs_overturning / st.fs_overturning
+        ot_ratio = inputs.criteria.fs_overturning / st.fs_overturning
         br_ratio = np.where(st.resultant_in_base,
-                            st.q_max_psf / inputs.allowable_bearing_psf, np.inf)
+                            st.q_max_psf / inputs.soil.allowable_bearing_psf, np.inf)
     return [
         _row("overturning", "Overturning about the toe (FS)", "-", "IBC 2021 1807.2.3",
-             inputs.fs_overturning, st.fs_overturning, ratio=ot_ratio,
+             inputs.criteria.fs_overturning, st.fs_overturning, ratio=ot_ratio,
              extra_ok=st.resultant_in_base, valid=valid),
-        _row("sliding", "Sliding (FS)", "-", "IBC 2021 1807.2.3", inputs.fs_sliding,
+        _row("sliding", "Sliding (FS)", "-", "IBC 2021 1807.2.3", inputs.criteria.fs_sliding,
              st.fs_sliding, valid=valid),
         _row("bearing", "Bearing pressure q_max", "psf",
              "IBC 2021 1806.1; allowable from the geotechnical report", st.q_max_psf,
-             inputs.allowable_bearing_psf, ratio=br_ratio, valid=valid),
+             inputs.soil.allowable_bearing_psf, ratio=br_ratio, valid=valid),
         _row("embedment", "Embedment below front grade", "ft",
              "IBC 2021 1809.4, 1809.5 (frost)", emb_req, geom.embedment_ft, valid=valid),
     ]
@@ -468,7 +469,7 @@ def _stem_rows(stem, inputs, valid) -> list:
         _row("stem_min_steel", "Stem minimum vertical steel", "in2/ft", f"{aci} 7.6.1.1",
              stem.as_min_in2, stem.as_in2, valid=valid),
         _row("stem_spacing", "Stem bar spacing (3h, 18 in, crack control)", "in",
-             f"{aci} 7.7.2.3, 24.3.2" if inputs.crack_control else f"{aci} 7.7.2.3",
+             f"{aci} 7.7.2.3, 24.3.2" if inputs.criteria.crack_control else f"{aci} 7.7.2.3",
              stem.spacing_in, stem.s_max_in, valid=valid),
         _row("stem_hook", "Stem bar hook development into footing (on the bottom mat)", "in",
              f"{aci} 25.4.3.1, Table 25.3.1", stem.ldh_in, stem.ldh_available_in, valid=valid),
@@ -498,11 +499,11 @@ def _seismic_rows(st, inputs, valid) -> list:
     rows = []
     sz = st.seismic
     if sz is not None:
-        si = inputs.seismic
+        si = inputs.loads.seismic
         with np.errstate(divide="ignore", invalid="ignore"):
             sot_ratio = si.fs_overturning / sz.fs_overturning
             sbr_ratio = np.where(sz.resultant_in_base,
-                                 sz.q_max_psf / inputs.allowable_bearing_psf, np.inf)
+                                 sz.q_max_psf / inputs.soil.allowable_bearing_psf, np.inf)
         clause = f"IBC 2021 1807.2.3 ({si.load_factor:g} E, {si.method})"
         rows.append(_row("seismic_overturning", "Overturning with seismic (FS)", "-", clause,
                          si.fs_overturning, sz.fs_overturning, ratio=sot_ratio,
@@ -511,7 +512,7 @@ def _seismic_rows(st, inputs, valid) -> list:
                          si.fs_sliding, sz.fs_sliding, valid=valid))
         rows.append(_row("seismic_bearing", "Bearing pressure q_max with seismic", "psf",
                          clause + "; allowable not increased", sz.q_max_psf,
-                         inputs.allowable_bearing_psf, ratio=sbr_ratio, valid=valid))
+                         inputs.soil.allowable_bearing_psf, ratio=sbr_ratio, valid=valid))
     return rows
 
 
@@ -524,7 +525,7 @@ def _detailing_rows(geom, inputs, bars, valid) -> list:
         t_avg = (geom.stem_top_in + geom.stem_base_in) / 2.0
         rows.append(_row("stem_horizontal_steel", "Stem horizontal steel (average thickness)",
                          "in2/ft", f"{aci} 11.1.6, Table 11.6.1",
-                         wall_horizontal_min_in2(t_avg, hb.size, inputs.fy_psi),
+                         wall_horizontal_min_in2(t_avg, hb.size, inputs.materials.fy_psi),
                          bars.horizontal_layers * hb.area_in2_per_ft, valid=valid))
         rows.append(_row("stem_horizontal_spacing", "Stem horizontal bar spacing", "in",
                          f"{aci} 11.7.3.1", hb.spacing_in,

@@ -6,6 +6,12 @@ together). Soil keys have none: a soil parameter is never defaulted silently.
 
 from __future__ import annotations
 
+SOIL_OPTIONS = {  # the soil table's choices of method (not soil values: those have none)
+    "passive_from_friction_angle": False,
+    "active_method": "rankine",
+    "coulomb_plane": "heel",
+}
+
 LOADS = {
     "surcharge_psf": 0.0,
     "strip": (),  # no strip loads

@@ -263,7 +263,7 @@ def footing_development(size, spacing_in, as_in2, d_in, mu_lbft, thickness_in, c
     not fit in ``room_in`` (unless ``hooked`` says which). ``inputs`` is the
     :class:`~.inputs.DesignInputs`. Returns a dict of arrays.
     """
-    fc, fy = inputs.fc_psi, inputs.fy_psi
+    fc, fy = inputs.materials.fc_psi, inputs.materials.fy_psi
     size = np.asarray(size)
     db = bar_diameter_in(size)
     T = _a(thickness_in)
@@ -274,13 +274,13 @@ def footing_development(size, spacing_in, as_in2, d_in, mu_lbft, thickness_in, c
     ld = straight_development_simple_in(size, fc, fy, psi_t=pt, spacing_in=spacing_in,
                                         cover_in=cover_in)
     ldh_eq = hooked_development_equation_in(size, fc, fy, psi_r=hook_psi_r(size, spacing_in),
-                                            psi_o=inputs.hook_psi_o)
+                                            psi_o=inputs.criteria.hook_psi_o)
     ld_s = reduced_straight_in(ld, factor)
     ld_h = reduced_hooked_in(size, ldh_eq, factor)
     room = _a(room_in)
     hk = (ld_s > room + 1e-9) if hooked is None else np.asarray(hooked, dtype=bool)
-    other = inputs.cover_toe_in if top else (2.0 if inputs.cover_heel_in is None
-                                             else inputs.cover_heel_in)
+    other = inputs.criteria.cover_toe_in if top else (2.0 if inputs.criteria.cover_heel_in is None
+                                             else inputs.criteria.cover_heel_in)
     depth = T - _a(cover_in) - other  # a hook turned down (top bar) or up (bottom bar)
     angle = np.where(hook_vertical_in(size, 90) <= depth + 1e-9, 90, 180)
     return {"as_required_in2": req, "ld_straight_in": ld_s, "ldh_in": ld_h,

@@ -11,7 +11,7 @@ from dataclasses import dataclass, fields
 
 import numpy as np
 
-from .defaults import CRITERIA, LOADS, MATERIALS, SEISMIC
+from .defaults import CRITERIA, LOADS, MATERIALS, SEISMIC, SOIL_OPTIONS
 
 SEISMIC_METHODS = ("seed-whitman", "mononobe-okabe")
 
@@ -57,36 +57,51 @@ def _strip_tuple(items) -> tuple:
 
 
 @dataclass(frozen=True)
-class DesignInputs:
-    """Soil, loads, materials and criteria shared by every section of one call (plain values).
+class Soil:
+    """The ``[soil]`` table (from the geotechnical report): no soil value has a default."""
 
-    Field names are the keys of ``wallsched/keys.py`` (the site and section files); the
-    defaults, with their sources, are declared once in ``engine/defaults.py``. Soil values
-    have no defaults (never silently assumed). Build from validated tables with :meth:`from_tables`.
-    """
-
-    # [soil]
     unit_weight_pcf: float
     friction_coefficient: float
     allowable_bearing_psf: float
     active_efp_pcf: float | None = None
     friction_angle_deg: float | None = None
     passive_efp_pcf: float | None = None
-    passive_from_friction_angle: bool = False
+    passive_from_friction_angle: bool = SOIL_OPTIONS["passive_from_friction_angle"]
     backslope_deg: float | None = None  # None or 0: level retained grade
-    active_method: str = "rankine"
+    active_method: str = SOIL_OPTIONS["active_method"]
     wall_friction_deg: float | None = None
-    coulomb_plane: str = "heel"  # "heel": soil on soil, friction = backslope; "stem": delta
-    # [loads]
+    # "heel": soil on soil, friction = backslope; "stem": delta on the stem's back face
+    coulomb_plane: str = SOIL_OPTIONS["coulomb_plane"]
+
+
+@dataclass(frozen=True)
+class Loads:
+    """The ``[loads]`` table with the ``[seismic]`` and ``[water]`` tables."""
+
     surcharge_psf: float = LOADS["surcharge_psf"]
+    # ((offset_ft, width_ft, pressure_psf), ...) from [[loads.strip]]
     strip: tuple = LOADS["strip"]
     seismic: SeismicLoad | None = None  # from the [seismic] table; None: no seismic case
     water: WaterTable | None = None  # from the [water] table; None: drained
-    # [materials]
+
+    def __post_init__(self):
+        object.__setattr__(self, "strip", _strip_tuple(self.strip))
+
+
+@dataclass(frozen=True)
+class Materials:
+    """The ``[materials]`` table."""
+
     fc_psi: float = MATERIALS["fc_psi"]
     fy_psi: float = MATERIALS["fy_psi"]
     concrete_unit_weight_pcf: float = MATERIALS["concrete_unit_weight_pcf"]
-    # [criteria]: stability conventions (DESIGN.md section 7)
+
+
+@dataclass(frozen=True)
+class Criteria:
+    """The design rules of ``[criteria]`` a section is checked by: the stability conventions
+    (DESIGN.md section 7) and the strength options (ACI 318-19)."""
+
     fs_overturning: float = CRITERIA["fs_overturning"]
     fs_sliding: float = CRITERIA["fs_sliding"]
     count_toe_soil: bool = CRITERIA["count_toe_soil"]
@@ -104,24 +119,66 @@ class DesignInputs:
     hook_psi_o: float = CRITERIA["hook_psi_o"]
     heel_upward_pressure: bool = CRITERIA["heel_upward_pressure"]
 
+
+GROUPS = (("soil", Soil), ("loads", Loads), ("materials", Materials), ("criteria", Criteria))
+
+
+@dataclass(frozen=True)
+class DesignInputs:
+    """Soil, loads, materials and criteria shared by every section of one call, each its own
+    object (``inputs.soil.unit_weight_pcf``, ``inputs.criteria.fs_sliding``, ...).
+
+    Field names are the keys of ``wallsched/keys.py`` (the site and section files); the
+    defaults, with their sources, are declared once in ``engine/defaults.py``. Soil values
+    have no defaults (never silently assumed). Build from validated tables with
+    :meth:`from_tables`, or from the keys by name with :meth:`of`.
+    """
+
+    soil: Soil
+    loads: Loads = Loads()
+    materials: Materials = Materials()
+    criteria: Criteria = Criteria()
+
+    @classmethod
+    def of(cls, **values) -> DesignInputs:
+        """From the keys by name (``DesignInputs.of(unit_weight_pcf=120, fs_sliding=1.5,
+        ...)``), each to its group; an unknown name raises TypeError."""
+        parts = {}
+        for name, group in GROUPS:
+            names = {f.name for f in fields(group)}
+            parts[name] = group(**{k: values.pop(k) for k in list(values) if k in names})
+        if values:
+            raise TypeError(f"unknown design inputs: {', '.join(sorted(values))}")
+        return cls(**parts)
+
+    def but(self, **values) -> DesignInputs:
+        """A copy with the keys ``values`` (by name, as :meth:`of`) changed."""
+        flat = {f.name: getattr(getattr(self, name), f.name)
+                for name, group in GROUPS for f in fields(group)}
+        unknown = set(values) - set(flat)
+        if unknown:
+            raise TypeError(f"unknown design inputs: {', '.join(sorted(unknown))}")
+        return DesignInputs.of(**{**flat, **values})
+
     def __post_init__(self):
-        has_efp = self.active_efp_pcf is not None
-        has_phi = self.friction_angle_deg is not None
+        soil, crit = self.soil, self.criteria
+        has_efp = soil.active_efp_pcf is not None
+        has_phi = soil.friction_angle_deg is not None
         if has_efp == has_phi:
             raise ValueError("give exactly one of active_efp_pcf and friction_angle_deg")
-        if self.passive_from_friction_angle and not has_phi:
+        if soil.passive_from_friction_angle and not has_phi:
             raise ValueError("passive_from_friction_angle needs friction_angle_deg")
-        if self.use_passive and not self.passive_from_friction_angle and (
-                self.passive_efp_pcf is None):
+        if crit.use_passive and not soil.passive_from_friction_angle and (
+                soil.passive_efp_pcf is None):
             raise ValueError("use_passive needs passive_efp_pcf or passive_from_friction_angle")
-        if self.batter_face not in ("back", "front"):
-            raise ValueError(f"batter_face must be 'back' or 'front', got {self.batter_face!r}")
-        for name in ("unit_weight_pcf", "friction_coefficient", "allowable_bearing_psf",
-                     "fc_psi", "fy_psi", "concrete_unit_weight_pcf"):
-            v = getattr(self, name)
+        if crit.batter_face not in ("back", "front"):
+            raise ValueError(f"batter_face must be 'back' or 'front', got {crit.batter_face!r}")
+        for group, name in (("soil", "unit_weight_pcf"), ("soil", "friction_coefficient"),
+                            ("soil", "allowable_bearing_psf"), ("materials", "fc_psi"),
+                            ("materials", "fy_psi"), ("materials", "concrete_unit_weight_pcf")):
+            v = getattr(getattr(self, group), name)
             if not (isinstance(v, int | float) and np.isfinite(v) and v > 0):
                 raise ValueError(f"{name} must be a positive number, got {v!r}")
-        object.__setattr__(self, "strip", _strip_tuple(self.strip))
         self._check_extended(has_phi)
 
     def _check_extended(self, has_phi: bool):
@@ -134,13 +191,14 @@ class DesignInputs:
     def gamma_below_water_pcf(self) -> float:
         """Total unit weight of the soil below the water level: ``saturated_unit_weight_pcf``
         when given, else ``unit_weight_pcf`` (DESIGN.md section 7, water)."""
-        sat = None if self.water is None else self.water.saturated_unit_weight_pcf
-        return float(self.unit_weight_pcf if sat is None else sat)
+        water = self.loads.water
+        sat = None if water is None else water.saturated_unit_weight_pcf
+        return float(self.soil.unit_weight_pcf if sat is None else sat)
 
     @property
     def water_level_ft(self) -> float | None:
         """Water level above the bottom of footing, ft (None: drained)."""
-        return None if self.water is None else float(self.water.level_ft)
+        return None if self.loads.water is None else float(self.loads.water.level_ft)
 
     @classmethod
     def from_tables(cls, soil: Mapping, loads: Mapping, materials: Mapping,
@@ -151,12 +209,12 @@ class DesignInputs:
         ``kh`` / ``level_ft``: no seismic case, drained).
 
         Keys this class does not know (e.g. ``station_interval_ft``) are ignored; a missing
-        non-soil key takes the class default (the same as ``wallsched/keys.py``). A
+        non-soil key takes its default (``engine/defaults.py``). A
         ``backslope = "H:V"`` soil key gives ``backslope_deg``.
         """
         from .pressure import backslope_from_ratio
 
-        names = {f.name for f in fields(cls)} - {"seismic", "water"}
+        names = {f.name for _, group in GROUPS for f in fields(group)} - {"seismic", "water"}
         kw = {}
         for table in (soil, loads, materials, criteria):
             for k, v in table.items():
@@ -175,13 +233,13 @@ class DesignInputs:
             sat = water.get("saturated_unit_weight_pcf")
             kw["water"] = WaterTable(float(water["level_ft"]),
                                      None if sat is None else float(sat))
-        return cls(**kw)
+        return cls.of(**kw)
 
     @property
     def stem_plane(self) -> bool:
         """The thrust acts on the vertical plane through the stem's back face at its base
         (Coulomb with the report's wall friction): the soil over the heel is retained soil."""
-        return self.active_method == "coulomb" and self.coulomb_plane == "stem"
+        return self.soil.active_method == "coulomb" and self.soil.coulomb_plane == "stem"
 
     @property
     def extended(self) -> bool:

@@ -67,10 +67,10 @@ def key_strength(geom: SectionGeometry, inputs: DesignInputs,
     """Flexure and shear of each section's key at the bottom of the footing (module notes)."""
     has = geom.has_key
     kd_ft = np.where(has, geom.key_depth_in / 12.0, 0.0)
-    efp = pressure.passive_efp_pcf if inputs.use_passive else 0.0
-    force, moment = key_passive(efp, inputs.passive_neglect_ft, geom.embedment_ft, kd_ft)
+    efp = pressure.passive_efp_pcf if inputs.criteria.use_passive else 0.0
+    force, moment = key_passive(efp, inputs.criteria.passive_neglect_ft, geom.embedment_ft, kd_ft)
     h = np.where(has, np.maximum(geom.key_width_in - CAST_AGAINST_SOIL_IN, 0.0), 0.0)
-    root = np.sqrt(inputs.fc_psi)
+    root = np.sqrt(inputs.materials.fc_psi)
     sm = 12.0 * h * h / 6.0  # in^3 per ft of wall
     phi_mn = PHI_PLAIN * 5.0 * root * sm / 12.0  # 14.5.2.1a, lb-ft
     phi_vn = PHI_PLAIN * 4.0 / 3.0 * root * 12.0 * h  # 14.5.5.1a, lb

@@ -279,7 +279,7 @@ def retained_soil_polygons(geom: SectionGeometry, inputs: DesignInputs, top_y=No
     tt, tb = g.stem_top_in / 12.0, g.stem_base_in / 12.0
     x_back = g.toe_ft + tb
     x_gf = stem_face_x_at_grade(g, inputs)
-    tanb = math.tan(math.radians(inputs.backslope_deg or 0.0))
+    tanb = math.tan(math.radians(inputs.soil.backslope_deg or 0.0))
     y_back = H + (x_back - x_gf) * tanb  # ground above the stem's back face at its base
     Hv = virtual_back_height_ft(g, inputs)
     if top_y is None:
@@ -287,7 +287,7 @@ def retained_soil_polygons(geom: SectionGeometry, inputs: DesignInputs, top_y=No
         batter = ([x_back, x_back, x_gf], [T, y_back, H])
         return heel, batter
     y = np.clip(top_y, T, H)
-    if inputs.batter_face == "back":
+    if inputs.criteria.batter_face == "back":
         with np.errstate(divide="ignore", invalid="ignore"):
             x_y = x_back - np.where(g.stem_height_ft > 0,
                                     (tb - tt) * (y - T) / g.stem_height_ft, 0.0)
@@ -306,14 +306,14 @@ def _polygon_soil_weights(geom, inputs):
     buoyant weight as well, which would count the water twice."""
     from .pressure import WATER_PCF, water_height_ft
 
-    gs = inputs.unit_weight_pcf
+    gs = inputs.soil.unit_weight_pcf
     heel, batter = retained_soil_polygons(geom, inputs)
     ah, xh, _ = polygon_area_centroid(*heel)
     ab, xb, _ = polygon_area_centroid(*batter)
     wh, mh, wb, mb = gs * ah, gs * ah * xh, gs * ab, gs * ab * xb
     B = geom.footing_width_ft
     uplift = None
-    if inputs.water is not None:
+    if inputs.loads.water is not None:
         hw = water_height_ft(geom, inputs)
         sh, sb = retained_soil_polygons(geom, inputs, top_y=hw)
         a1, x1, _ = polygon_area_centroid(*sh)
@@ -344,7 +344,7 @@ def section_weights(geom: SectionGeometry, inputs: DesignInputs) -> Weights:
     given), and the base carries the uplift (a negative dead weight, see
     :func:`_polygon_soil_weights`).
     """
-    g, gc, gs = geom, inputs.concrete_unit_weight_pcf, inputs.unit_weight_pcf
+    g, gc, gs = geom, inputs.materials.concrete_unit_weight_pcf, inputs.soil.unit_weight_pcf
     T = g.footing_thickness_ft
     B = g.footing_width_ft
     tt, tb = g.stem_top_in / 12.0, g.stem_base_in / 12.0
@@ -355,7 +355,7 @@ def section_weights(geom: SectionGeometry, inputs: DesignInputs) -> Weights:
     x_back = toe + tb  # stem back face at its base
     rect_w = gc * tt * hst
     tri_w = gc * 0.5 * bat * hst
-    if inputs.batter_face == "back":
+    if inputs.criteria.batter_face == "back":
         rect_x = toe + tt / 2.0
         tri_x = toe + tt + bat / 3.0
         # width of the soil wedge at the retained grade (the face slopes to x_back at the base)
@@ -365,10 +365,10 @@ def section_weights(geom: SectionGeometry, inputs: DesignInputs) -> Weights:
         rect_x = toe + bat + tt / 2.0
         tri_x = toe + 2.0 * bat / 3.0
         w_top = np.zeros_like(bat)
-    soil_toe_w = gs * toe * g.toe_soil_depth_ft * (1.0 if inputs.count_toe_soil else 0.0)
+    soil_toe_w = gs * toe * g.toe_soil_depth_ft * (1.0 if inputs.criteria.count_toe_soil else 0.0)
     on_heel = 0.0 if inputs.stem_plane else 1.0  # retained soil with the stem plane
-    q = inputs.surcharge_psf
-    if inputs.backslope_deg or inputs.water is not None:
+    q = inputs.loads.surcharge_psf
+    if inputs.soil.backslope_deg or inputs.loads.water is not None:
         soil_heel, soil_batter, uplift = _polygon_soil_weights(g, inputs)
     else:  # level and drained: the closed forms (equal to the polygon; tested)
         soil_heel = Weight(gs * g.heel_ft * hs, B - g.heel_ft / 2.0)

@@ -249,7 +249,7 @@ def marked_tables(walls: Sequence[WallToDesign], keys, tables, plans, grid: Sizi
                 run = wall_run(wall.stations, wall.criteria)
                 weight += row_weights(plan, wall.stations.station_ft[run], table)
         old = () if previous is None else tuple(
-            replace(sec, batter_face=group_walls[0].inputs.batter_face)
+            replace(sec, batter_face=group_walls[0].inputs.criteria.batter_face)
             for m, sec in previous.marks.items() if m in _marks_used(previous, group_walls,
                                                                      grid.marks_per))
         marked, _ = marked_table(table, group_walls[0].inputs, rates, weight, grid.marks_max,
@@ -274,7 +274,7 @@ def detailed(design: WallDesign, inputs: DesignInputs, rates: CostRates | None =
     )
 
     trench = earthwork_options(criteria)
-    bars = wall_bar_list(design, fc_psi=inputs.fc_psi, fy_psi=inputs.fy_psi)
+    bars = wall_bar_list(design, fc_psi=inputs.materials.fc_psi, fy_psi=inputs.materials.fy_psi)
     if not len(bars):
         bars = pd.DataFrame(columns=bars.columns)
     q = wall_quantities(design, bars, **trench)

@@ -140,10 +140,10 @@ class StabilityResult:
 def _passive_lb(geom, inputs, p):
     """Passive resistance from ``passive_neglect_ft`` below the front grade to the bottom of
     the footing or key (0 without ``use_passive``)."""
-    if not inputs.use_passive:
+    if not inputs.criteria.use_passive:
         return np.zeros_like(geom.footing_width_ft)
     key_depth_ft = np.where(geom.has_key, geom.key_depth_in / 12.0, 0.0)
-    return passive_resistance_lb(p.passive_efp_pcf, inputs.passive_neglect_ft,
+    return passive_resistance_lb(p.passive_efp_pcf, inputs.criteria.passive_neglect_ft,
                                  geom.embedment_ft + key_depth_ft)
 
 
@@ -186,30 +186,30 @@ def stability(geom: SectionGeometry, inputs: DesignInputs, *,
     v_dead = v_dead + v_th
     m_dead = m_dead + v_th * thrust_plane_x_ft(geom, inputs)
     m_o = th.moment_lbft
-    if inputs.surcharge_resists:
+    if inputs.criteria.surcharge_resists:
         v_r, m_r = v_dead + v_q, m_dead + m_q
     else:
         v_r, m_r = v_dead, m_dead
     with np.errstate(divide="ignore", invalid="ignore"):
         fs_ot = m_r / m_o
         case0 = bearing_pressure(v_r, B / 2.0 - (m_r - m_o) / v_r, B)
-        if inputs.surcharge_resists:
+        if inputs.criteria.surcharge_resists:
             case1 = case0
         else:
             v1, m1 = v_dead + v_q, m_dead + m_q
             case1 = bearing_pressure(v1, B / 2.0 - (m1 - m_o) / v1, B)
         pp = _passive_lb(geom, inputs, p)
         h_drive = th.horizontal_lb
-        h_res = inputs.friction_coefficient * v_r + pp
+        h_res = inputs.soil.friction_coefficient * v_r + pp
         fs_sl = h_res / h_drive
     in_base, q_max, q_min, e, pick1 = _governing_bearing(case0, case1)
-    with_q = np.asarray(pick1 | inputs.surcharge_resists)
-    ok_ot = (fs_ot >= inputs.fs_overturning) & in_base
-    ok_sl = fs_sl >= inputs.fs_sliding
-    ok_b = q_max <= inputs.allowable_bearing_psf
+    with_q = np.asarray(pick1 | inputs.criteria.surcharge_resists)
+    ok_ot = (fs_ot >= inputs.criteria.fs_overturning) & in_base
+    ok_sl = fs_sl >= inputs.criteria.fs_sliding
+    ok_b = q_max <= inputs.soil.allowable_bearing_psf
     sz = None
     passes = ok_ot & ok_sl & ok_b & geom.valid
-    if inputs.seismic is not None:
+    if inputs.loads.seismic is not None:
         sz = seismic_stability(geom, inputs, p, w, pp)
         passes = passes & sz.passes_overturning & sz.passes_sliding & sz.passes_bearing
     return StabilityResult(
@@ -232,7 +232,7 @@ def seismic_stability(geom: SectionGeometry, inputs: DesignInputs, pressure: Ear
     2021 1807.2.3 permits one variable load at zero); vertical components of the thrust act on
     the heel plane (x = B); passive resistance as in the static case.
     """
-    sz = inputs.seismic
+    sz = inputs.loads.seismic
     th = seismic_thrust(geom, inputs, pressure)
     B = geom.footing_width_ft
     v, m = weights.dead()
@@ -243,7 +243,7 @@ def seismic_stability(geom: SectionGeometry, inputs: DesignInputs, pressure: Ear
     with np.errstate(divide="ignore", invalid="ignore"):
         fs_ot = m / m_o
         case = bearing_pressure(v, B / 2.0 - (m - m_o) / v, B)
-        h_r = inputs.friction_coefficient * v + passive_lb
+        h_r = inputs.soil.friction_coefficient * v + passive_lb
         fs_sl = h_r / h_d
     return SeismicStability(
         delta_pae_lb=np.asarray(seismic_increment_lb(geom, inputs, pressure)), thrust=th,
@@ -253,4 +253,4 @@ def seismic_stability(geom: SectionGeometry, inputs: DesignInputs, pressure: Ear
         resultant_in_base=case.in_base,
         passes_overturning=(fs_ot >= sz.fs_overturning) & case.in_base,
         passes_sliding=fs_sl >= sz.fs_sliding,
-        passes_bearing=case.q_max_psf <= inputs.allowable_bearing_psf, case=case)
+        passes_bearing=case.q_max_psf <= inputs.soil.allowable_bearing_psf, case=case)

@@ -153,7 +153,7 @@ def stem_factored(geom, inputs, p, z):
     the larger of 1.6 (H + L) and, with [seismic], 1.6 H + 1.0 E (live loads left out)."""
     v, m = stem_shear_moment(geom, inputs, p, z)
     vu, mu = LF_LATERAL * v, LF_LATERAL * m
-    if inputs.seismic is not None:
+    if inputs.loads.seismic is not None:
         v0, m0 = stem_shear_moment(geom, inputs, p, z, live=False)
         ve, me = stem_seismic_shear_moment(geom, inputs, p, z)
         vu = np.maximum(vu, LF_LATERAL * v0 + LF_SEISMIC * ve)
@@ -166,7 +166,7 @@ def _up_the_stem(geom, inputs, p, As, d, cover_db, fractions) -> dict:
     above the top of footing; d there = the stem's thickness - cover - db/2, ``cover_db`` =
     (cover, db))."""
     cov, db = cover_db
-    fc, fy = inputs.fc_psi, inputs.fy_psi
+    fc, fy = inputs.materials.fc_psi, inputs.materials.fy_psi
     hs = geom.soil_height_ft
     nd = len(np.broadcast_shapes(np.shape(hs), np.shape(d), np.shape(As), geom.shape))
     fr = np.asarray(fractions, dtype=float).reshape((-1,) + (1,) * nd)
@@ -204,10 +204,10 @@ def stem_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays, 
     the stem (bars run full height).
     """
     p = pressure or earth_pressure(inputs)
-    fc, fy = inputs.fc_psi, inputs.fy_psi
+    fc, fy = inputs.materials.fc_psi, inputs.materials.fy_psi
     hs = geom.soil_height_ft
     tb = geom.stem_base_in
-    cov = cover_in(bars.size, inputs.cover_stem_in)
+    cov = cover_in(bars.size, inputs.criteria.cover_stem_in)
     db = bars.diameter_in
     d = tb - cov - db / 2.0
     As = bars.area_in2_per_ft
@@ -217,7 +217,7 @@ def stem_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays, 
     fl = flexural_strength(As, d, fc, fy)
     pvn = one_way_shear_strength(As, d, fc, size_effect=True)
     s_max = max_flexural_spacing_in(tb)
-    if inputs.crack_control:
+    if inputs.criteria.crack_control:
         fs = service_steel_stress_psi(ms, As, d, fc)
         s_cr = crack_control_spacing_in(fs, cov)
     else:
@@ -225,7 +225,7 @@ def stem_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays, 
         s_cr = np.full(np.shape(ms), np.inf)
     ldh = hooked_development_in(bars.size, fc, fy, psi_e=1.0,
                                 psi_r=hook_psi_r(bars.size, bars.spacing_in),
-                                psi_o=inputs.hook_psi_o)
+                                psi_o=inputs.criteria.hook_psi_o)
     up = _up_the_stem(geom, inputs, p, As, d, (cov, db), fractions)
     return StemResult(
         mu_lbft=mu_base, phi_mn_lbft=fl.phi_mn_lbft, vu_lb=vu_d,
@@ -233,16 +233,17 @@ def stem_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays, 
         as_min_in2=min_flexural_steel_in2(tb), spacing_in=bars.spacing_in,
         s_max_in=np.minimum(s_max, s_cr), cover_in=cov, phi=fl.phi, eps_t=fl.eps_t,
         a_in=fl.a_in, ms_lbft=ms, fs_service_psi=fs, s_crack_in=s_cr, ldh_in=ldh,
-        ldh_available_in=geom.footing_thickness_in - inputs.cover_toe_in - _a(bottom_mat_in),
+        ldh_available_in=(geom.footing_thickness_in - inputs.criteria.cover_toe_in
+                          - _a(bottom_mat_in)),
         **up,
     )
 
 
 def heel_loads_psf(geom: SectionGeometry, inputs: DesignInputs):
     """Factored downward load on the heel, psf: 1.2 (soil + footing) + 1.6 surcharge."""
-    dead = inputs.unit_weight_pcf * geom.soil_height_ft \
-        + inputs.concrete_unit_weight_pcf * geom.footing_thickness_ft
-    return LF_DEAD_ADDS * dead + LF_LATERAL * inputs.surcharge_psf
+    dead = inputs.soil.unit_weight_pcf * geom.soil_height_ft \
+        + inputs.materials.concrete_unit_weight_pcf * geom.footing_thickness_ft
+    return LF_DEAD_ADDS * dead + LF_LATERAL * inputs.loads.surcharge_psf
 
 
 # the factored load combinations of the footing (ASCE 7-22 2.3.1 with H; DESIGN.md section 7)
@@ -287,12 +288,12 @@ class FootingResult(MemberResult):
 
 
 def footing_member(geom, inputs, bars, mu, vu, cov):
-    fc, fy = inputs.fc_psi, inputs.fy_psi
+    fc, fy = inputs.materials.fc_psi, inputs.materials.fy_psi
     T = geom.footing_thickness_in
     d = T - cov - bars.diameter_in / 2.0
     As = bars.area_in2_per_ft
     fl = flexural_strength(As, d, fc, fy)
-    pvn = one_way_shear_strength(As, d, fc, size_effect=inputs.footing_shear_size_effect)
+    pvn = one_way_shear_strength(As, d, fc, size_effect=inputs.criteria.footing_shear_size_effect)
     return MemberResult(
         mu_lbft=mu, phi_mn_lbft=fl.phi_mn_lbft, vu_lb=vu, phi_vn_lb=pvn, d_in=d,
         thickness_in=T, as_in2=As, as_min_in2=min_flexural_steel_in2(T),
@@ -365,16 +366,17 @@ def heel_down_loads(geom: SectionGeometry, inputs: DesignInputs, thrust):
 
     L = geom.heel_ft
     T = geom.footing_thickness_ft
-    g, gc, q = inputs.unit_weight_pcf, inputs.concrete_unit_weight_pcf, inputs.surcharge_psf
+    g, gc, q = (inputs.soil.unit_weight_pcf, inputs.materials.concrete_unit_weight_pcf,
+                inputs.loads.surcharge_psf)
     if inputs.extended:
         x_back = geom.toe_ft + geom.stem_base_in / 12.0
-        tanb = np.tan(np.radians(inputs.backslope_deg or 0.0))
+        tanb = np.tan(np.radians(inputs.soil.backslope_deg or 0.0))
         H = geom.design_height_ft
         d0 = np.maximum(H + (x_back - stem_face_x_at_grade(geom, inputs)) * tanb - T, 0.0)
         d1 = np.maximum(virtual_back_height_ft(geom, inputs) - T, 0.0)
         fd = g * (d0 + d1) * L / 2.0 + gc * T * L
         md = g * (d0 * L * L / 2.0 + (d1 - d0) * L * L / 3.0) + gc * T * L * L / 2.0
-        if inputs.water is not None:  # saturated below the level (total weight, no buoyancy)
+        if inputs.loads.water is not None:  # saturated below the level (total weight, no buoyancy)
             from .pressure import water_height_ft
 
             sub = np.clip(water_height_ft(geom, inputs) - T, 0.0, np.minimum(d0, d1))
@@ -416,13 +418,13 @@ def heel_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays, 
     from .section import section_weights
 
     p = pressure or earth_pressure(inputs)
-    cov = cover_in(bars.size, inputs.cover_heel_in)
+    cov = cover_in(bars.size, inputs.criteria.cover_heel_in)
     th = design_thrust(geom, inputs, p)
     loads = heel_down_loads(geom, inputs, th)
     (fd, md), (fl, ml) = loads["dead"], loads["live"]
     (fh, mh), (flv, mlv) = loads["pv_h"], loads["pv_l"]
     shape = np.broadcast_shapes(np.shape(fd), np.shape(fh), geom.shape)
-    if not inputs.heel_upward_pressure:
+    if not inputs.criteria.heel_upward_pressure:
         mu = LF_DEAD_ADDS * md + LF_LATERAL * (ml + mh + mlv)
         vu = LF_DEAD_ADDS * fd + LF_LATERAL * (fl + fh + flv)
         mu_c = vu_c = np.full(shape, HEEL_TEXTBOOK)
@@ -433,7 +435,7 @@ def heel_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays, 
         mu_c = np.zeros(shape, int)
         vu_c = np.zeros(shape, int)
         cases = [(i, f_d, f_h, f_l, None) for i, f_d, f_h, f_l in STATIC_COMBINATIONS]
-        if inputs.seismic is not None:
+        if inputs.loads.seismic is not None:
             cases.append(seismic_combination(geom, inputs, p, w))
         for i, f_d, f_h, f_l, extra in cases:
             q0, s, _ = factored_pressure_line(geom, inputs, w, th if extra is None
@@ -547,7 +549,7 @@ def toe_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays,
 
         stab = stability(geom, inputs)
     L, B = geom.toe_ft, geom.footing_width_ft
-    cov = cover_in(bars.size, inputs.cover_toe_in)
+    cov = cover_in(bars.size, inputs.criteria.cover_toe_in)
     d = geom.footing_thickness_in - cov - bars.diameter_in / 2.0
     Lv = np.maximum(L - d / 12.0, 0.0)  # the shear's critical section, from the toe edge
     # the pressure diagram of the governing bearing case (the one reported with q_max)
@@ -557,10 +559,10 @@ def toe_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays,
     q0, s = np.where(pick, q0s, q0d), np.where(pick, ss, sd)
     _, m_up = clipped_line_load(q0, s, L)
     f_up, _ = clipped_line_load(q0, s, Lv)
-    w = inputs.concrete_unit_weight_pcf * geom.footing_thickness_ft
-    if inputs.count_toe_soil:
-        w = w + inputs.unit_weight_pcf * geom.toe_soil_depth_ft
-    if inputs.water is not None:
+    w = inputs.materials.concrete_unit_weight_pcf * geom.footing_thickness_ft
+    if inputs.criteria.count_toe_soil:
+        w = w + inputs.soil.unit_weight_pcf * geom.toe_soil_depth_ft
+    if inputs.loads.water is not None:
         # uplift under the toe (the triangle of the stability case: 0 at the toe edge to the
         # full head at the heel edge), water pressure: 1.6 as H
         from .pressure import WATER_PCF, water_height_ft
@@ -573,7 +575,7 @@ def toe_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays,
     shape = np.broadcast_shapes(np.shape(mu), np.shape(vu))
     mu_c = np.full(shape, TOE_SERVICE)
     vu_c = np.full(shape, TOE_SERVICE)
-    if inputs.seismic is not None:
+    if inputs.loads.seismic is not None:
         i, m_e, f_e = _toe_seismic(geom, inputs, pressure, weights, w, Lv)
         mu_c = np.where(m_e > mu, i, mu_c)
         vu_c = np.where(f_e > vu, i, vu_c)

@@ -242,13 +242,13 @@ def _governing_station(wr, case) -> None:
             + (", ".join(seg.detailing_at_limit.split()) or "none") + ".", size=8.5)
     p = case.checks.pressure
     inp = case.inputs
-    wr.para(f"γ = {inp.unit_weight_pcf:g} pcf, active {p.basis}: EFP = "
+    wr.para(f"γ = {inp.soil.unit_weight_pcf:g} pcf, active {p.basis}: EFP = "
             f"{p.active_efp_pcf:.1f} pcf, Ka = {p.ka:.3f}; passive EFP = "
-            f"{p.passive_efp_pcf:g} pcf from {inp.passive_neglect_ft:g} ft below front "
-            f"grade; μ = {inp.friction_coefficient:g}; q = {inp.surcharge_psf:g} psf; "
-            f"allowable bearing {inp.allowable_bearing_psf:,.0f} psf; f'c = "
-            f"{inp.fc_psi:,.0f} psi, fy = {inp.fy_psi:,.0f} psi, γc = "
-            f"{inp.concrete_unit_weight_pcf:g} pcf.", size=8.5)
+            f"{p.passive_efp_pcf:g} pcf from {inp.criteria.passive_neglect_ft:g} ft below front "
+            f"grade; μ = {inp.soil.friction_coefficient:g}; q = {inp.loads.surcharge_psf:g} psf; "
+            f"allowable bearing {inp.soil.allowable_bearing_psf:,.0f} psf; f'c = "
+            f"{inp.materials.fc_psi:,.0f} psi, fy = {inp.materials.fy_psi:,.0f} psi, γc = "
+            f"{inp.materials.concrete_unit_weight_pcf:g} pcf.", size=8.5)
 
 
 def _loads_table(wr, case) -> None:
@@ -269,7 +269,7 @@ def _loads_table(wr, case) -> None:
         lb_, arm = float(wgt.lb), float(wgt.arm_ft)
         if lb_ == 0:
             continue
-        resists = k != "surcharge" or inp.surcharge_resists
+        resists = k != "surcharge" or inp.criteria.surcharge_resists
         wrows.append([label, "vertical", f"{lb_:,.0f}", f"{arm:.2f}",
                       f"{lb_ * arm:,.0f}", "resisting" if resists else
                       "bearing case only"])

@@ -42,7 +42,7 @@ def _flex(m, member) -> str:
 def _shear(m, size_effect, inp) -> str:
     lam = "λs·" if size_effect else ""
     return (f"φVc = 0.75·8·{lam}ρw^(1/3)·√f'c·b·d ≤ 0.75·5·√f'c·b·d with d = "
-            f"{_n(m['d_in'], '.2f')} in, f'c = {inp.fc_psi:,.0f} psi, b = 12 in: "
+            f"{_n(m['d_in'], '.2f')} in, f'c = {inp.materials.fc_psi:,.0f} psi, b = 12 in: "
             f"φVc = {_n(m['phi_vn_lb'])} lb/ft")
 
 
@@ -63,7 +63,7 @@ def _stability_texts(case) -> dict[str, tuple[str, str]]:
             f"{'inside' if ot['resultant_in_base'] else 'OUTSIDE'} the base"),
         "sliding": (
             "FS_SL = (μ·ΣV + P_p) / ΣH ≥ FS required",
-            f"(μ = {inp.friction_coefficient:g} × ΣV = {_n(sl['sum_v_lb'])} lb/ft + P_p = "
+            f"(μ = {inp.soil.friction_coefficient:g} × ΣV = {_n(sl['sum_v_lb'])} lb/ft + P_p = "
             f"{_n(sl['passive_lb'])} lb/ft) / ΣH = {_n(sl['h_driving_lb'])} lb/ft: "
             f"FS_SL = {_n(sl['fs'], '.2f')} (required {_n(sl['fs_required'], '.2f')})"),
         "bearing": (
@@ -106,7 +106,7 @@ def _stem_texts(case) -> dict[str, tuple[str, str]]:
                            f"h = {_n(stem['thickness_in'], '.1f')} in"),
         "stem_spacing": (
             "s ≤ min(3h, 18 in" + (", crack control 15(40,000/fs) − 2.5cc ≤ 12(40,000/fs))"
-                                   if inp.crack_control else ")"),
+                                   if inp.criteria.crack_control else ")"),
             f"service bar stress fs = {_n(stem['fs_service_psi'])} psi, clear cover "
             f"{_n(stem['cover_in'], '.2f')} in"),
         "stem_hook": ("ℓdh ≤ footing thickness − bottom cover − bottom mat (toe + longitudinal "
@@ -125,20 +125,21 @@ def _footing_texts(case) -> dict[str, tuple[str, str]]:
         "heel_flexure": ((
             "Mu at the back face of the stem = the combination's load on the heel less its "
             "factored bearing pressure under the heel, the largest of 1.2D+1.6H+1.6L, "
-            "1.2D+1.6H, 0.9D+1.6H" + (", 1.2D+1.0E+1.6H" if inp.seismic is not None else ""))
-            if inp.heel_upward_pressure else
+            "1.2D+1.6H, 0.9D+1.6H" + (", 1.2D+1.0E+1.6H" if inp.loads.seismic is not None else ""))
+            if inp.criteria.heel_upward_pressure else
             "wu = 1.2·(γ·h_s + γc·T) + 1.6·q; Mu = wu·L²/2 at the back face of the stem",
-            (f"governing {heel['mu_combination']}, " if inp.heel_upward_pressure
+            (f"governing {heel['mu_combination']}, " if inp.criteria.heel_upward_pressure
              else f"wu = {wu_heel:,.0f} psf, ")
             + f"L = {f(g.heel_ft):.2f} ft: Mu = "
             f"{_n(heel['mu_lbft'])} lb-ft/ft; " + _flex(heel, case.checks.heel)),
         "heel_shear": (("Vu at the back face of the stem, the largest of the combinations "
                         "(net of the factored bearing pressure)")
-                       if inp.heel_upward_pressure else "Vu = wu·L at the back face of the stem",
+                       if inp.criteria.heel_upward_pressure
+                       else "Vu = wu·L at the back face of the stem",
                        (f"governing {heel['vu_combination']}: "
-                        if inp.heel_upward_pressure else "")
+                        if inp.criteria.heel_upward_pressure else "")
                        + f"Vu = {_n(heel['vu_lb'])} lb/ft; "
-                       + _shear(heel, inp.footing_shear_size_effect, inp)),
+                       + _shear(heel, inp.criteria.footing_shear_size_effect, inp)),
         "heel_development": (
             "top bars beyond the back face of the stem: ℓd (Table 25.4.2.3, ψt = 1.3 top bar) "
             "or ℓdh (25.4.3.1) × As,req/As,prov (25.4.10.1), ≥ 12 in / 8db and 6 in; ≤ stem "
@@ -162,7 +163,7 @@ def _footing_texts(case) -> dict[str, tuple[str, str]]:
         "toe_shear": ("Vu at d from the front face of the stem = 1.6·(bearing force over the "
                       "toe to there) − 0.9·(footing + soil) over the same length",
                       f"Vu = {_n(toe['vu_lb'])} lb/ft; "
-                      + _shear(toe, inp.footing_shear_size_effect, inp)),
+                      + _shear(toe, inp.criteria.footing_shear_size_effect, inp)),
         "toe_min_steel": ("As ≥ 0.0018·b·T", f"T = {f(g.footing_thickness_in):g} in"),
         "toe_spacing": ("s ≤ min(3T, 18 in)", f"T = {f(g.footing_thickness_in):g} in"),
         "toe_depth": ("d of the bottom bars ≥ 6 in", f"d = {_n(toe['d_in'], '.2f')} in"),

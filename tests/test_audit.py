@@ -61,7 +61,7 @@ def random_inputs(rng, batter, resists, toe_soil, passive):
         kw["active_efp_pcf"] = rng.uniform(25, 65)
         if passive:
             kw["passive_efp_pcf"] = rng.uniform(150, 450)
-    return DesignInputs(**kw)
+    return DesignInputs.of(**kw)
 
 
 def random_batch(rng, n):
@@ -186,7 +186,7 @@ def test_engine_agrees_with_audit_hypothesis(case):
 
 
 def test_audit_section_shape():
-    inp = DesignInputs(unit_weight_pcf=120, friction_coefficient=0.4, allowable_bearing_psf=2500,
+    inp = DesignInputs.of(unit_weight_pcf=120, friction_coefficient=0.4, allowable_bearing_psf=2500,
                        active_efp_pcf=35, passive_efp_pcf=300, surcharge_psf=250)
     geo = dict(retained_height_ft=6.0, embedment_ft=2.0, footing_thickness_in=14.0,
                stem_top_in=10.0, stem_base_in=10.0, toe_ft=2.0, heel_ft=4.0)
@@ -205,7 +205,7 @@ def test_audit_section_shape():
 
 @pytest.mark.parametrize("field", ["retained_height_ft", "heel_ft", "stem_spacing"])
 def test_nan_never_passes(field):
-    inp = DesignInputs(unit_weight_pcf=120, friction_coefficient=0.4, allowable_bearing_psf=2500,
+    inp = DesignInputs.of(unit_weight_pcf=120, friction_coefficient=0.4, allowable_bearing_psf=2500,
                        active_efp_pcf=35, passive_efp_pcf=300, surcharge_psf=250)
     geo = dict(retained_height_ft=np.array([6.0, 6.0]), embedment_ft=2.0,
                footing_thickness_in=14.0, stem_top_in=10.0, stem_base_in=10.0, toe_ft=2.0,

@@ -94,7 +94,7 @@ def geom(**kw):
 
 
 def test_virtual_back_and_thrust_by_hand():
-    inp = DesignInputs(**SOIL, backslope_deg=20.0)
+    inp = DesignInputs.of(**SOIL, backslope_deg=20.0)
     g = geom()
     # grade meets the back face at x = 2.5 + 1.0 - (2/12)(8.75/9.25); H' = H + run tan(beta)
     x_gf = 3.5 - (2.0 / 12.0) * 8.75 / 9.25
@@ -113,7 +113,7 @@ def test_virtual_back_and_thrust_by_hand():
 def test_polygon_equals_closed_form_level_and_battered():
     # level ground: the polygon over the heel and the battered face equals the rectangle and
     # triangle of the closed forms (engine/section.py section_weights, closed form)
-    inp = DesignInputs(**SOIL)
+    inp = DesignInputs.of(**SOIL)
     for top, base in ((10.0, 10.0), (8.0, 14.0)):
         g = geom(stem_top_in=top, stem_base_in=base)
         w = section_weights(g, inp)
@@ -130,7 +130,7 @@ def test_polygon_equals_closed_form_level_and_battered():
 
 
 def test_polygon_with_slope_by_hand():
-    inp = DesignInputs(**SOIL, backslope_deg=20.0)
+    inp = DesignInputs.of(**SOIL, backslope_deg=20.0)
     g = geom(stem_top_in=12.0)  # vertical back face: the grade meets it at x = 3.5
     w = section_weights(g, inp)
     t = math.tan(math.radians(20.0))
@@ -146,8 +146,8 @@ def test_polygon_with_slope_by_hand():
 def test_beta_to_zero_gives_level():
     g = geom(retained_height_ft=np.array([4.0, 9.0, 14.0]))
     bars = Reinforcement(BarArrays(6, 8.0), BarArrays(6, 10.0), BarArrays(5, 12.0))
-    level = check_section(g, DesignInputs(**SOIL), bars)
-    tiny = check_section(g, DesignInputs(**SOIL, backslope_deg=1e-7), bars)
+    level = check_section(g, DesignInputs.of(**SOIL), bars)
+    tiny = check_section(g, DesignInputs.of(**SOIL, backslope_deg=1e-7), bars)
     for a, b in zip(level.rows, tiny.rows, strict=True):
         assert np.allclose(a.demand, b.demand, rtol=1e-6) and np.allclose(
             a.capacity, b.capacity, rtol=1e-6), a.name
@@ -155,7 +155,7 @@ def test_beta_to_zero_gives_level():
 
 def test_steeper_slope_more_thrust():
     g = geom()
-    hs = [float(design_thrust(g, DesignInputs(**SOIL, backslope_deg=b)).horizontal_lb)
+    hs = [float(design_thrust(g, DesignInputs.of(**SOIL, backslope_deg=b)).horizontal_lb)
           for b in (0.0, 10.0, 20.0, 30.0)]
     assert all(b > a for a, b in zip(hs, hs[1:], strict=False))
 
@@ -165,13 +165,13 @@ def test_steeper_slope_more_thrust():
                                 dict(backslope_deg=12.0, surcharge_resists=True,
                                      count_toe_soil=False)])
 def test_engine_agrees_with_audit_backslope(kw):
-    assert agree_with_audit(DesignInputs(**{**SOIL, **kw})) == 120
+    assert agree_with_audit(DesignInputs.of(**{**SOIL, **kw})) == 120
 
 
 def test_efp_with_backslope_acts_horizontally():
     soil = dict(SOIL, friction_angle_deg=None, passive_from_friction_angle=False,
                 passive_efp_pcf=300.0, active_efp_pcf=45.0)
-    inp = DesignInputs(**soil, backslope_deg=18.0)
+    inp = DesignInputs.of(**soil, backslope_deg=18.0)
     g = geom()
     hv = float(virtual_back_height_ft(g, inp))
     th = design_thrust(g, inp)
@@ -184,9 +184,9 @@ def test_efp_with_backslope_acts_horizontally():
 def test_section_file_backslope(tmp_path):
     sf = load_section(DATA / "backslope_seismic.toml")
     inp = sf.design_inputs()
-    assert inp.backslope_deg == pytest.approx(math.degrees(math.atan(0.5)))
+    assert inp.soil.backslope_deg == pytest.approx(math.degrees(math.atan(0.5)))
     p = earth_pressure(inp)
-    assert p.inclination_deg == pytest.approx(inp.backslope_deg)
+    assert p.inclination_deg == pytest.approx(inp.soil.backslope_deg)
     text = (DATA / "backslope_seismic.toml").read_text()
     bad = tmp_path / "bad.toml"
     bad.write_text(text.replace('backslope = "2:1"', 'backslope = "2-1"'))
@@ -201,14 +201,14 @@ def test_section_file_backslope(tmp_path):
 
 
 def test_sizing_equals_exhaustive_with_backslope():
-    inputs = DesignInputs(unit_weight_pcf=115.0, friction_coefficient=0.5,
+    inputs = DesignInputs.of(unit_weight_pcf=115.0, friction_coefficient=0.5,
                           allowable_bearing_psf=3500.0, friction_angle_deg=32.0,
                           passive_efp_pcf=300.0, surcharge_psf=100.0, backslope_deg=18.0)
     assert_matches_exhaustive(inputs, small_grid(False))
 
 
 def test_sizing_equals_exhaustive_with_backslope_and_battered_stem():
-    inputs = DesignInputs(unit_weight_pcf=115.0, friction_coefficient=0.5,
+    inputs = DesignInputs.of(unit_weight_pcf=115.0, friction_coefficient=0.5,
                           allowable_bearing_psf=3500.0, friction_angle_deg=32.0,
                           passive_efp_pcf=300.0, surcharge_psf=100.0, backslope_deg=18.0)
     # back face battered: the heel's load depends on the stem

@@ -126,7 +126,7 @@ def test_a_failing_station_gets_the_next_larger_section():
     from wallsched.engine.sizing import Choice, DesignTable
     from wallsched.engine.wall_design import reinforcement, section_for, station_geometry
 
-    inputs = DesignInputs(unit_weight_pcf=120, active_efp_pcf=35, passive_efp_pcf=300,
+    inputs = DesignInputs.of(unit_weight_pcf=120, active_efp_pcf=35, passive_efp_pcf=300,
                           friction_coefficient=0.4, allowable_bearing_psf=2500)
     bars = dict(stem_bars=BarSpec(5, 12.0), heel_bars=BarSpec(5, 12.0),
                 toe_bars=BarSpec(5, 12.0), horizontal_bars=BarSpec(4, 12.0),

@@ -49,7 +49,7 @@ def test_coulomb_delta_equal_beta_is_rankine():
 
 def test_thrust_inclined_at_wall_friction():
     # the report's wall friction applies only on concrete: the stem's back face
-    inp = DesignInputs(**SOIL, active_method="coulomb", wall_friction_deg=20.0,
+    inp = DesignInputs.of(**SOIL, active_method="coulomb", wall_friction_deg=20.0,
                        coulomb_plane="stem")
     p = earth_pressure(inp)
     assert p.inclination_deg == 20.0
@@ -67,9 +67,9 @@ def test_heel_plane_is_soil_against_soil():
     # angle, never a wall friction; Coulomb with delta = beta on a vertical plane is Rankine
     # (level: Ka = tan^2(45 - phi/2), no vertical component, no relief)
     for beta in (0.0, 15.0):
-        coul = DesignInputs(**SOIL, active_method="coulomb", wall_friction_deg=20.0,
+        coul = DesignInputs.of(**SOIL, active_method="coulomb", wall_friction_deg=20.0,
                             backslope_deg=beta)
-        rank = DesignInputs(**SOIL, backslope_deg=beta)
+        rank = DesignInputs.of(**SOIL, backslope_deg=beta)
         g = geom()
         a, b = design_thrust(g, coul), design_thrust(g, rank)
         for k in ("horizontal_lb", "moment_lbft", "vertical_lb"):
@@ -88,7 +88,7 @@ def test_stem_plane_takes_the_soil_over_the_heel_as_retained():
     from wallsched.engine.stability import stability
 
     g = geom()
-    inp = DesignInputs(**SOIL, active_method="coulomb", wall_friction_deg=20.0,
+    inp = DesignInputs.of(**SOIL, active_method="coulomb", wall_friction_deg=20.0,
                        coulomb_plane="stem")
     w = section_weights(g, inp)
     assert float(w.soil_heel.lb) == 0.0 and float(w.surcharge.lb) == 0.0
@@ -111,7 +111,7 @@ def test_stem_plane_takes_the_soil_over_the_heel_as_retained():
                                 dict(wall_friction_deg=18.0, coulomb_plane="stem",
                                      batter_face="front")])
 def test_engine_agrees_with_audit_coulomb(kw):
-    assert agree_with_audit(DesignInputs(**{**SOIL, "active_method": "coulomb", **kw})) == 120
+    assert agree_with_audit(DesignInputs.of(**{**SOIL, "active_method": "coulomb", **kw})) == 120
 
 
 def test_coulomb_needs_its_inputs(tmp_path):
@@ -128,4 +128,4 @@ def test_coulomb_needs_its_inputs(tmp_path):
     f.write_text(text.replace('backslope = "2:1"',
                               'active_method = "coulomb"\nwall_friction_deg = 22'))
     sf = load_section(f)
-    assert sf.design_inputs().wall_friction_deg == 22.0
+    assert sf.design_inputs().soil.wall_friction_deg == 22.0

@@ -5,13 +5,14 @@ from dataclasses import MISSING, fields
 
 import numpy as np
 from wallsched.engine import defaults
-from wallsched.engine.inputs import DesignInputs, SeismicLoad
+from wallsched.engine.inputs import Criteria, Loads, Materials, SeismicLoad, Soil
 from wallsched.engine.sizing import CostRates, SizingGrid
 
 from wallsched import keys
 from wallsched.schema import REQUIRED
 
 TABLES = {  # site-file table -> its defaults in the engine
+    "SOIL_KEYS": defaults.SOIL_OPTIONS,
     "LOADS_KEYS": defaults.LOADS, "MATERIALS_KEYS": defaults.MATERIALS,
     "CRITERIA_KEYS": defaults.CRITERIA, "SEISMIC_KEYS": defaults.SEISMIC,
     "COSTS_KEYS": defaults.COSTS, "SIZING_KEYS": defaults.SIZING,
@@ -41,20 +42,26 @@ def test_a_declared_key_with_a_default_has_it_from_the_engine():
             assert name in engine_defaults, (table, name)
 
 
-def test_soil_keys_have_no_default():
-    # never default a soil parameter silently (DESIGN.md section 8)
-    engine_defaults = set().union(*(set(t) for t in TABLES.values()))
-    assert not set(keys.SOIL_KEYS) & engine_defaults
-    for f in fields(DesignInputs):
+def test_soil_values_have_no_default():
+    # never default a soil parameter silently (DESIGN.md section 8): of the soil table only
+    # the choices of method have defaults
+    for name, spec in keys.SOIL_KEYS.items():
+        if spec.kind is float:
+            assert spec.default is REQUIRED or spec.default is None, name
+    assert all(not isinstance(v, float) for v in defaults.SOIL_OPTIONS.values())
+    for f in fields(Soil):
         if f.name in ("unit_weight_pcf", "friction_coefficient", "allowable_bearing_psf"):
             assert f.default is MISSING
 
 
 def test_the_engine_dataclasses_read_the_declared_defaults():
-    merged = {**defaults.LOADS, **defaults.MATERIALS, **defaults.CRITERIA}
-    for f in fields(DesignInputs):
-        if f.name in merged:
-            assert _same(f.default, merged[f.name]), f.name
+    for group, table in ((Soil, defaults.SOIL_OPTIONS), (Loads, defaults.LOADS),
+                         (Materials, defaults.MATERIALS), (Criteria, defaults.CRITERIA)):
+        for f in fields(group):
+            if f.name in table:
+                assert _same(f.default, table[f.name]), f.name
+            else:  # a soil value, or a table (seismic, water) that is absent by default
+                assert f.default is MISSING or f.default is None, f.name
     for f in fields(SeismicLoad):
         if f.name != "kh":
             assert _same(f.default, defaults.SEISMIC[f.name]), f.name

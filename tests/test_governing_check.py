@@ -18,7 +18,7 @@ from wallsched.site import load_site
 
 
 def inputs():
-    return DesignInputs(unit_weight_pcf=120, active_efp_pcf=35, passive_efp_pcf=300,
+    return DesignInputs.of(unit_weight_pcf=120, active_efp_pcf=35, passive_efp_pcf=300,
                         friction_coefficient=0.4, allowable_bearing_psf=2500,
                         surcharge_psf=100)
 

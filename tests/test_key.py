@@ -19,7 +19,7 @@ def _inputs(**kw):
     base = dict(unit_weight_pcf=120.0, friction_angle_deg=30.0, passive_from_friction_angle=True,
                 friction_coefficient=0.4, allowable_bearing_psf=4000.0, fc_psi=4000.0,
                 passive_neglect_ft=1.0)
-    return DesignInputs(**(base | kw))
+    return DesignInputs.of(**(base | kw))
 
 
 def _geom(key_width_in=12.0, key_depth_in=18.0, **kw):

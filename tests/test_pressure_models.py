@@ -42,9 +42,9 @@ def test_every_model_module_is_a_member_of_the_enum():
 def test_exactly_one_active_model_applies(efp, method, beta):
     if efp and method == "coulomb":
         with pytest.raises(ValueError, match="needs friction_angle_deg"):
-            DesignInputs(**EFP_SOIL, active_method=method, backslope_deg=beta)
+            DesignInputs.of(**EFP_SOIL, active_method=method, backslope_deg=beta)
         return
-    inp = DesignInputs(**(EFP_SOIL if efp else SOIL), active_method=method, backslope_deg=beta)
+    inp = DesignInputs.of(**(EFP_SOIL if efp else SOIL), active_method=method, backslope_deg=beta)
     active = [m for m in MODELS if m.active and m.applies(inp)]
     assert len(active) == 1
     expect = "efp" if efp else "coulomb" if method == "coulomb" else (
@@ -57,7 +57,7 @@ def test_exactly_one_active_model_applies(efp, method, beta):
 
 def test_level_formula_and_loads():
     # McCormac & Brown 9th ed. 13.5: V = EFP z^2/2 + Ka q z, M = EFP z^3/6 + Ka q z^2/2
-    inp = DesignInputs(**SOIL)
+    inp = DesignInputs.of(**SOIL)
     p = earth_pressure(inp)
     assert p.stem_moment_formula == "Mu = 1.6·(EFP·h_s³/6 + Ka·q·h_s²/2)"
     assert p.stem_shear_formula.startswith("Vu = 1.6·(EFP·z²/2 + Ka·q·z)")
@@ -71,7 +71,7 @@ def test_level_formula_and_loads():
 def test_backslope_formula_names_the_horizontal_part():
     # McCormac & Brown 9th ed. 13.5: the Rankine pressure parallel to the slope; on the stem
     # its horizontal part Ka cos(beta) gamma z^3/6 (+ Ka q cos(beta) z^2/2)
-    inp = DesignInputs(**SOIL, backslope_deg=18.0)
+    inp = DesignInputs.of(**SOIL, backslope_deg=18.0)
     p = earth_pressure(inp)
     assert p.stem_moment_formula == "Mu = 1.6·(Ka·cos β·γ·h_s³/6 + Ka·q·cos i·h_s²/2)"
     z = 5.0
@@ -81,7 +81,7 @@ def test_backslope_formula_names_the_horizontal_part():
 
 
 def test_water_and_seismic_terms_are_printed_where_they_load_the_stem():
-    inp = DesignInputs(**SOIL, water=WaterTable(level_ft=3.0))
+    inp = DesignInputs.of(**SOIL, water=WaterTable(level_ft=3.0))
     p = earth_pressure(inp)
     assert "γw·hw³/6" in p.stem_moment_formula and "γw·hw²/2" in p.stem_shear_formula
     # hydrostatic below the level (common practice): at the stem's base, with the water 3 ft
@@ -89,12 +89,13 @@ def test_water_and_seismic_terms_are_printed_where_they_load_the_stem():
     g = geom()
     z = float(g.soil_height_ft)
     _, m_wet = stem_shear_moment(g, inp, p, z)
-    _, m_dry = stem_shear_moment(g, DesignInputs(**SOIL), earth_pressure(DesignInputs(**SOIL)), z)
+    dry = DesignInputs.of(**SOIL)
+    _, m_dry = stem_shear_moment(g, dry, earth_pressure(dry), z)
     hw = 3.0 - float(g.footing_thickness_ft)
     ka = float(rankine_ka(32.0))
     # the effective-stress soil term loses Ka gw hw^3/6; the water adds gw hw^3/6
     assert float(m_wet - m_dry) == pytest.approx((1 - ka) * 62.4 * hw ** 3 / 6, rel=1e-9)
-    sz = DesignInputs(**SOIL, seismic=SeismicLoad(kh=0.2))
+    sz = DesignInputs.of(**SOIL, seismic=SeismicLoad(kh=0.2))
     ps = earth_pressure(sz)
     assert "1.0·E" in ps.stem_moment_formula and "0.375·kh·γ·h_s²" in ps.stem_moment_formula
     assert "1.0·E" in ps.stem_shear_formula

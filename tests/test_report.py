@@ -159,7 +159,7 @@ def test_section_check_fails_when_forced(made):
 
     from wallsched.engine.wall_design import reinforcement
 
-    weak = replace(case.inputs, allowable_bearing_psf=100.0)  # far below any q_max
+    weak = case.inputs.but(allowable_bearing_psf=100.0)  # far below any q_max
     checks = check_section(case.geometry, weak, reinforcement(case.segment.section))
     forced = replace(case, inputs=weak, checks=checks)
     texts = {t.name: t for t in rp.check_texts(forced)}
@@ -176,7 +176,7 @@ def test_stem_formula_is_the_engines_for_the_models_in_use(made):
     from wallsched.engine.section import WaterTable
     from wallsched.engine.wall_design import reinforcement
 
-    wet = replace(case.inputs, water=WaterTable(level_ft=2.0))
+    wet = case.inputs.but(water=WaterTable(level_ft=2.0))
     checks = check_section(case.geometry, wet, reinforcement(case.segment.section))
     texts = {t.name: t for t in rp.check_texts(replace(case, inputs=wet, checks=checks))}
     assert texts["stem_flexure"].formula.startswith(checks.pressure.stem_moment_formula)

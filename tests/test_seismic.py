@@ -47,7 +47,7 @@ def test_mononobe_okabe_at_kh_zero_is_coulomb():
 
 
 def test_seed_whitman_increment_by_hand():
-    inp = DesignInputs(**SOIL, seismic=SeismicLoad(0.2))
+    inp = DesignInputs.of(**SOIL, seismic=SeismicLoad(0.2))
     # UFC 3-220-20 Eq. 4-17 form: 3/8 kh gamma H^2 at 0.6 H
     assert float(seismic_increment_lb(geom(), inp)) == pytest.approx(0.375 * 0.2 * 120 * 100)
 
@@ -56,7 +56,7 @@ def test_kh_zero_gives_static():
     for kw in (dict(), dict(backslope_deg=15.0), dict(active_method="coulomb",
                                                       wall_friction_deg=20.0)):
         for method in ("seed-whitman", "mononobe-okabe"):
-            inp = DesignInputs(**SOIL, **kw, seismic=SeismicLoad(0.0, method))
+            inp = DesignInputs.of(**SOIL, **kw, seismic=SeismicLoad(0.0, method))
             g = geom()
             se = seismic_thrust(g, inp)
             st = design_thrust(g, inp, live=False)
@@ -107,12 +107,11 @@ def test_section_json_seismic_by_hand():
 
 
 def test_soil_inertia_off_keeps_the_concrete_only():
-    from dataclasses import replace
 
     from wallsched.engine.stability import stability
 
     sf = load_section(DATA / "seismic_level.toml")
-    off = replace(sf.design_inputs(), seismic=SeismicLoad(0.2, soil_inertia=False))
+    off = sf.design_inputs().but(seismic=SeismicLoad(0.2, soil_inertia=False))
     st = stability(sf.section_geometry(), off).seismic
     hand = hand_case(soil_inertia=False)
     assert float(st.fs_overturning) == pytest.approx(hand["fs_overturning"], rel=1e-9)
@@ -130,8 +129,8 @@ def test_no_seismic_table_no_seismic_rows():
 
 def test_surcharge_left_out_of_seismic_case():
     g = geom()
-    a = seismic_thrust(g, DesignInputs(**SOIL, seismic=SeismicLoad(0.2)))
-    b = seismic_thrust(g, DesignInputs(**dict(SOIL, surcharge_psf=0.0),
+    a = seismic_thrust(g, DesignInputs.of(**SOIL, seismic=SeismicLoad(0.2)))
+    b = seismic_thrust(g, DesignInputs.of(**dict(SOIL, surcharge_psf=0.0),
                                        seismic=SeismicLoad(0.2)))
     assert float(a.horizontal_lb) == pytest.approx(float(b.horizontal_lb), rel=1e-12)
 
@@ -139,7 +138,7 @@ def test_surcharge_left_out_of_seismic_case():
 def test_stem_seismic_demand_by_hand():
     # stem 12 in, hs = 9 ft, stem height 9.5 ft, EFP 35, no surcharge; E at 1.0 (ASCE 7 2.3.6):
     # Mu = 1.6 EFP hs^3/6 + 0.225 kh gamma hs^3 + kh gc t L^2/2 (resultant at 0.6 hs)
-    inp = DesignInputs(**dict(SOIL, friction_angle_deg=None, passive_from_friction_angle=False,
+    inp = DesignInputs.of(**dict(SOIL, friction_angle_deg=None, passive_from_friction_angle=False,
                               passive_efp_pcf=300.0, active_efp_pcf=35.0, surcharge_psf=0.0),
                        seismic=SeismicLoad(0.2))
     g = geom(retained_height_ft=8.0, embedment_ft=2.0, footing_thickness_in=12.0,
@@ -159,7 +158,7 @@ def test_stem_seismic_demand_by_hand():
                                 dict(active_method="coulomb", wall_friction_deg=18.0,
                                      seismic=SeismicLoad(0.2, "seed-whitman", 1.0, 1.2, 1.05))])
 def test_engine_agrees_with_audit_seismic(kw):
-    assert agree_with_audit(DesignInputs(**{**SOIL, **kw})) == 120
+    assert agree_with_audit(DesignInputs.of(**{**SOIL, **kw})) == 120
 
 
 def test_seismic_table_errors(tmp_path):
@@ -180,7 +179,7 @@ def test_seismic_table_errors(tmp_path):
 
 
 def test_sizing_equals_exhaustive_with_seismic():
-    inputs = DesignInputs(unit_weight_pcf=115.0, friction_coefficient=0.5,
+    inputs = DesignInputs.of(unit_weight_pcf=115.0, friction_coefficient=0.5,
                           allowable_bearing_psf=3500.0, active_efp_pcf=38.0,
                           passive_efp_pcf=300.0, surcharge_psf=100.0,
                           seismic=SeismicLoad(0.3))
@@ -188,7 +187,7 @@ def test_sizing_equals_exhaustive_with_seismic():
     rates = CostRates()
     table = assert_matches_exhaustive(inputs, grid)
     # the seismic case costs at least as much as the static one at every height
-    static = design_table(DesignInputs(**{**inputs.__dict__, "seismic": None}), grid, rates,
+    static = design_table(inputs.but(seismic=None), grid, rates,
                           max_height_ft=6.0, increment_ft=1.0, embedment_ft=1.0,
                           freeboard_ft=0.5)
     for a, b in zip(static.choices, table.choices, strict=True):

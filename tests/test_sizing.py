@@ -62,7 +62,7 @@ KEYED = ((0.0,), (0.0, 12.0, 24.0))  # no key; keys under the stem as wide as it
 @settings(max_examples=30, deadline=None)
 @given(soils, st.booleans(), st.sampled_from(KEYED))
 def test_fast_search_equals_exhaustive_search(soil, batter, keys):
-    inputs = DesignInputs(**soil)
+    inputs = DesignInputs.of(**soil)
     grid = small_grid(batter, keys)
     rates = CostRates()
     emb = soil["min_embedment_ft"]
@@ -86,7 +86,7 @@ def test_fast_search_equals_exhaustive_search(soil, batter, keys):
 
 
 def test_taller_never_cheaper_default_grid():
-    inputs = DesignInputs(unit_weight_pcf=120, friction_coefficient=0.4,
+    inputs = DesignInputs.of(unit_weight_pcf=120, friction_coefficient=0.4,
                           allowable_bearing_psf=3000, active_efp_pcf=40, passive_efp_pcf=250,
                           surcharge_psf=100, min_embedment_ft=1.5)
     grid = SizingGrid.from_table({"toe_max_ft": 4.0, "heel_max_ft": 8.0,
@@ -111,7 +111,7 @@ def test_bar_size_lists():
 
 
 def test_footing_width_limit_is_honoured_and_exact():
-    inputs = DesignInputs(unit_weight_pcf=120, friction_coefficient=0.4,
+    inputs = DesignInputs.of(unit_weight_pcf=120, friction_coefficient=0.4,
                           allowable_bearing_psf=3000, active_efp_pcf=40, passive_efp_pcf=250,
                           surcharge_psf=100, min_embedment_ft=1.5)
     grid = small_grid()
@@ -157,7 +157,7 @@ def test_column_search_equals_the_whole_grid_search(soil, resists, width, model,
     kw = dict(soil, surcharge_resists=resists, **MODELS[model])
     if "friction_angle_deg" in kw:
         del kw["active_efp_pcf"]
-    inputs = DesignInputs(**kw)
+    inputs = DesignInputs.of(**kw)
     args = dict(max_height_ft=11.0, increment_ft=1.0, embedment_ft=soil["min_embedment_ft"],
                 freeboard_ft=0.5, footing_width_max_ft=width)
     original, answered = ColumnSearch.search, []
@@ -186,7 +186,7 @@ def test_water_above_the_retained_grade_keeps_the_exact_optimum():
     weight is not linear in the height, so no linear screen may discard a section there: the
     least cost equals the exhaustive search's. A regression case: such a screen once
     discarded the optimum at 0.5 and 1.0 ft (invented soil)."""
-    inputs = DesignInputs(unit_weight_pcf=124.0, friction_coefficient=0.35,
+    inputs = DesignInputs.of(unit_weight_pcf=124.0, friction_coefficient=0.35,
                           allowable_bearing_psf=4400, active_efp_pcf=31.5, passive_efp_pcf=356,
                           surcharge_psf=100.0, min_embedment_ft=1.5, water=WaterTable(3.0))
     grid = SizingGrid(
@@ -215,7 +215,7 @@ def test_keyed_grids_equal_the_exhaustive_search(soil, width, seismic):
     kw = dict(soil, friction_coefficient=min(soil["friction_coefficient"], 0.35))
     if seismic:
         kw["seismic"] = SeismicLoad(kh=0.15)
-    inputs = DesignInputs(**kw)
+    inputs = DesignInputs.of(**kw)
     grid = small_grid(False, (0.0, 12.0, 24.0), key_width_in=width)
     table = assert_matches_exhaustive(inputs, grid, max_height_ft=7.0,
                                       emb=soil["min_embedment_ft"], at_least=1)
@@ -229,7 +229,7 @@ def test_a_key_is_chosen_where_sliding_governs_and_never_costs_more():
     """Low base friction with good passive (invented soil): sliding governs, and a key under
     the stem is cheaper than the wider footing; the grid with keys is never dearer than the
     same grid without them (it holds every unkeyed candidate too)."""
-    inputs = DesignInputs(unit_weight_pcf=120, friction_coefficient=0.3,
+    inputs = DesignInputs.of(unit_weight_pcf=120, friction_coefficient=0.3,
                           allowable_bearing_psf=4000, active_efp_pcf=45, passive_efp_pcf=350,
                           surcharge_psf=100, min_embedment_ft=2.0)
     args = dict(max_height_ft=8.0, increment_ft=1.0, embedment_ft=2.0, freeboard_ft=0.5)

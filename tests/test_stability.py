@@ -14,7 +14,7 @@ def inputs(**kw):
     base = dict(unit_weight_pcf=120.0, friction_coefficient=0.4, allowable_bearing_psf=2500.0,
                 active_efp_pcf=35.0, passive_efp_pcf=300.0, surcharge_psf=250.0)
     base.update(kw)
-    return DesignInputs(**base)
+    return DesignInputs.of(**base)
 
 
 def geom(**kw):

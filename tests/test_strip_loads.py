@@ -63,15 +63,15 @@ def test_superposition():
 
 def test_strip_in_thrust_and_seismic_case():
     g = geom()
-    base = design_thrust(g, DesignInputs(**SOIL))
-    inp = DesignInputs(**SOIL, strip=((2.0, 3.0, 600.0),))
+    base = design_thrust(g, DesignInputs.of(**SOIL))
+    inp = DesignInputs.of(**SOIL, strip=((2.0, 3.0, 600.0),))
     th = design_thrust(g, inp)
     f, m = strip_profile(600.0, 2.0, 3.0, 10.0)
     assert float(th.horizontal_lb - base.horizontal_lb) == pytest.approx(float(f), rel=1e-12)
     assert float(th.moment_lbft - base.moment_lbft) == pytest.approx(float(m), rel=1e-12)
     # live: left out of the seismic case like the surcharge
     assert float(design_thrust(g, inp, live=False).horizontal_lb) == pytest.approx(
-        float(design_thrust(g, DesignInputs(**SOIL), live=False).horizontal_lb))
+        float(design_thrust(g, DesignInputs.of(**SOIL), live=False).horizontal_lb))
 
 
 @pytest.mark.parametrize("kw", [dict(strip=((0.0, 3.0, 500.0),)),
@@ -79,7 +79,7 @@ def test_strip_in_thrust_and_seismic_case():
                                      backslope_deg=10.0),
                                 dict(strip=((1.0, 8.0, 250.0),), seismic=SeismicLoad(0.2))])
 def test_engine_agrees_with_audit_strip(kw):
-    assert agree_with_audit(DesignInputs(**{**SOIL, **kw})) == 120
+    assert agree_with_audit(DesignInputs.of(**{**SOIL, **kw})) == 120
 
 
 def test_strip_in_section_file(tmp_path):
@@ -87,7 +87,7 @@ def test_strip_in_section_file(tmp_path):
     f = tmp_path / "s.toml"
     f.write_text(text.replace("[materials]", "[[loads.strip]]\noffset_ft = 2\nwidth_ft = 4\n"
                               "pressure_psf = 500\nname = \"driveway\"\n\n[materials]"))
-    assert load_section(f).design_inputs().strip == ((2.0, 4.0, 500.0),)
+    assert load_section(f).design_inputs().loads.strip == ((2.0, 4.0, 500.0),)
     f.write_text(text.replace("[materials]", "[[loads.strip]]\noffset_ft = 2\n"
                               "pressure_psf = 500\n\n[materials]"))
     with pytest.raises(InputError, match="width_ft"):
@@ -101,8 +101,8 @@ def test_site_file_strip_seismic_water_per_wall(tmp_path):
                                wall_extra="[walls.seismic]\nmethod = \"seed-whitman\"\n"
                                           "load_factor = 0.75\n"))
     inp = wall_inputs(site, site.walls[0])
-    assert inp.strip == ((3.0, 10.0, 250.0),)
-    assert inp.seismic == SeismicLoad(0.15, "seed-whitman", 0.75)
+    assert inp.loads.strip == ((3.0, 10.0, 250.0),)
+    assert inp.loads.seismic == SeismicLoad(0.15, "seed-whitman", 0.75)
     assert inp.water_level_ft == 2.0
     site2 = load_site(make_site(tmp_path / "b", soil="""
 [soil]
@@ -114,8 +114,8 @@ allowable_bearing_psf = 2500
 backslope = "3:1"
 """))
     inp2 = wall_inputs(site2, site2.walls[0])
-    assert inp2.backslope_deg == pytest.approx(math.degrees(math.atan(1 / 3)))
-    assert inp2.seismic is None and inp2.water is None and inp2.strip == ()
+    assert inp2.soil.backslope_deg == pytest.approx(math.degrees(math.atan(1 / 3)))
+    assert inp2.loads.seismic is None and inp2.loads.water is None and inp2.loads.strip == ()
     with pytest.raises(InputError, match="own table"):
         load_site(make_site(tmp_path / "c", extra="\n[loads.seismic]\nkh = 0.1\n"))
     with pytest.raises(InputError, match="kh"):

@@ -22,7 +22,7 @@ PHI30 = dict(SOIL, friction_angle_deg=30.0, unit_weight_pcf=125.0, surcharge_psf
 
 def test_hydrostatic_by_hand():
     # H = 10 ft, water 4 ft above the bottom of footing; Ka = 1/3 (Rankine); buoyant 125 - 62.4
-    inp = DesignInputs(**PHI30, water=WaterTable(4.0))
+    inp = DesignInputs.of(**PHI30, water=WaterTable(4.0))
     th = design_thrust(geom(stem_top_in=12.0), inp)
     ka, g, gb, gw = 1 / 3, 125.0, 125.0 - 62.4, 62.4
     soil = ka * (g * 6 ** 2 / 2 + g * 6 * 4 + gb * 4 ** 2 / 2)  # trapezoid + triangle, by hand
@@ -41,11 +41,11 @@ def test_one_free_body_total_soil_and_uplift_by_hand():
     # DESIGN.md 7 (water): the soil over the heel at its total unit weight with the full
     # uplift under it, never a buoyant weight as well (that counts the water twice)
     g = geom(stem_top_in=12.0)  # heel 5.5 ft, T = 1.25 ft, B = 9 ft, hs = 8.75 ft
-    dry = section_weights(g, DesignInputs(**PHI30))
-    wet = section_weights(g, DesignInputs(**PHI30, water=WaterTable(4.0)))
+    dry = section_weights(g, DesignInputs.of(**PHI30))
+    wet = section_weights(g, DesignInputs.of(**PHI30, water=WaterTable(4.0)))
     assert float(wet.soil_heel.lb) == pytest.approx(float(dry.soil_heel.lb), rel=1e-12)
     # a saturated unit weight below the level: + (135 - 125) x the submerged soil
-    sat = section_weights(g, DesignInputs(**PHI30, water=WaterTable(4.0, 135.0)))
+    sat = section_weights(g, DesignInputs.of(**PHI30, water=WaterTable(4.0, 135.0)))
     assert float(sat.soil_heel.lb) == pytest.approx(
         float(dry.soil_heel.lb) + 10.0 * 5.5 * (4.0 - 1.25), rel=1e-12)
     # uplift: 62.4 x 4 ft head at the heel edge falling to 0 at the toe: 62.4*4*9/2 at 6 ft
@@ -59,9 +59,9 @@ def test_water_counted_once_the_issue_case():
     # (6 - 1.5) = 1,825 lb per ft (the issue: 10,497 -> 12,322 lb of Sum V)
     g = geom(retained_height_ft=9.0, embedment_ft=2.0, footing_thickness_in=18.0,
              stem_top_in=12.0, stem_base_in=12.0, toe_ft=2.0, heel_ft=6.5)
-    inp = DesignInputs(**PHI30, water=WaterTable(6.0))
+    inp = DesignInputs.of(**PHI30, water=WaterTable(6.0))
     v, _ = section_weights(g, inp).dead()
-    dry_v, _ = section_weights(g, DesignInputs(**PHI30)).dead()
+    dry_v, _ = section_weights(g, DesignInputs.of(**PHI30)).dead()
     uplift = 62.4 * 6.0 * float(g.footing_width_ft) / 2
     assert float(v) == pytest.approx(float(dry_v) - uplift, rel=1e-12)
     buoyant_once = float(dry_v) - uplift - 62.4 * 6.5 * (6.0 - 1.5)
@@ -73,7 +73,7 @@ def test_water_counted_once_the_issue_case():
     soil = ka * (125 * 5 ** 2 / 2 + 125 * 5 * 6 + gb * 6 ** 2 / 2)
     assert float(th.horizontal_lb) == pytest.approx(soil + 62.4 * 36 / 2, rel=1e-12)
     # and with a saturated unit weight the effective stress below the level is 135 - 62.4
-    th_sat = design_thrust(g, DesignInputs(**PHI30, water=WaterTable(6.0, 135.0)))
+    th_sat = design_thrust(g, DesignInputs.of(**PHI30, water=WaterTable(6.0, 135.0)))
     soil_sat = ka * (125 * 5 ** 2 / 2 + 125 * 5 * 6 + (135 - 62.4) * 6 ** 2 / 2)
     assert float(th_sat.horizontal_lb) == pytest.approx(soil_sat + 62.4 * 36 / 2, rel=1e-12)
 
@@ -82,8 +82,8 @@ def test_water_counted_once_the_issue_case():
 def test_level_below_footing_is_drained(level):
     g = geom(retained_height_ft=np.array([4.0, 9.0, 13.0]))
     bars = Reinforcement(BarArrays(6, 8.0), BarArrays(6, 10.0), BarArrays(5, 12.0))
-    dry = check_section(g, DesignInputs(**SOIL), bars)
-    wet = check_section(g, DesignInputs(**SOIL, water=WaterTable(level)), bars)
+    dry = check_section(g, DesignInputs.of(**SOIL), bars)
+    wet = check_section(g, DesignInputs.of(**SOIL, water=WaterTable(level)), bars)
     for a, b in zip(dry.rows, wet.rows, strict=True):
         assert np.allclose(a.demand, b.demand, rtol=1e-12) and np.allclose(
             a.capacity, b.capacity, rtol=1e-12), a.name
@@ -92,8 +92,8 @@ def test_level_below_footing_is_drained(level):
 def test_water_lowers_the_factors_of_safety():
     g = geom()
     bars = Reinforcement(BarArrays(6, 8.0), BarArrays(6, 10.0), BarArrays(5, 12.0))
-    dry = check_section(g, DesignInputs(**SOIL), bars).stability
-    wet = check_section(g, DesignInputs(**SOIL, water=WaterTable(6.0)), bars).stability
+    dry = check_section(g, DesignInputs.of(**SOIL), bars).stability
+    wet = check_section(g, DesignInputs.of(**SOIL, water=WaterTable(6.0)), bars).stability
     assert float(wet.fs_overturning) < float(dry.fs_overturning)
     assert float(wet.fs_sliding) < float(dry.fs_sliding)
 
@@ -105,7 +105,7 @@ def test_water_lowers_the_factors_of_safety():
                                 dict(water=WaterTable(6.0, 132.0)),
                                 dict(water=WaterTable(4.0, 128.0), backslope_deg=10.0)])
 def test_engine_agrees_with_audit_water(kw):
-    assert agree_with_audit(DesignInputs(**{**SOIL, **kw})) == 120
+    assert agree_with_audit(DesignInputs.of(**{**SOIL, **kw})) == 120
 
 
 def test_water_table_in_section_file(tmp_path):

@@ -74,7 +74,7 @@ def build_report(sf, result) -> dict:
         "surcharge_psf": p.surcharge_psf,
         "surcharge_lateral_psf": p.surcharge_lateral_psf,
     }
-    if inputs.extended or inputs.seismic is not None:
+    if inputs.extended or inputs.loads.seismic is not None:
         from .engine.pressure import design_thrust, virtual_back_height_ft
 
         geom = sf.section_geometry()
@@ -83,7 +83,7 @@ def build_report(sf, result) -> dict:
             inclination_deg=p.inclination_deg, backslope_deg=p.backslope_deg,
             horizontal_efp_pcf=p.horizontal_efp_pcf,
             virtual_back_height_ft=float(virtual_back_height_ft(geom, inputs)),
-            drained=inputs.water is None,
+            drained=inputs.loads.water is None,
             water_level_ft=inputs.water_level_ft,
             thrust=[{"name": c.name, "horizontal_lb": float(c.horizontal_lb),
                      "arm_ft": float(c.arm_ft), "vertical_lb": float(c.vertical_lb)}

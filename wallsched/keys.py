@@ -8,7 +8,15 @@ never defaulted silently.
 
 from __future__ import annotations
 
-from .engine.defaults import COSTS, CRITERIA, LOADS, MATERIALS, SEISMIC, SIZING
+from .engine.defaults import (
+    COSTS,
+    CRITERIA,
+    LOADS,
+    MATERIALS,
+    SEISMIC,
+    SIZING,
+    SOIL_OPTIONS,
+)
 from .schema import REQUIRED, Key
 
 SITE_KEYS = {
@@ -26,7 +34,7 @@ SOIL_KEYS = {
                               doc="backfill friction angle, degrees (or active_efp_pcf)"),
     "passive_efp_pcf": Key(float, None, lo=0, hi=1000,
                            doc="passive equivalent fluid pressure, pcf"),
-    "passive_from_friction_angle": Key(bool, False,
+    "passive_from_friction_angle": Key(bool, SOIL_OPTIONS["passive_from_friction_angle"],
                                        doc="take passive as Rankine Kp from friction_angle_deg"),
     "friction_coefficient": Key(float, REQUIRED, lo=0, hi=1.0, lo_open=True,
                                 doc="base sliding friction coefficient"),
@@ -39,10 +47,10 @@ SOIL_KEYS = {
     "backslope_deg": Key(float, None, lo=0, hi=60, hi_open=True,
                          doc="slope of the retained ground above the wall, degrees (or "
                              "backslope); it rises from where the grade meets the stem"),
-    "active_method": Key(str, "rankine", choices=("rankine", "coulomb"),
+    "active_method": Key(str, SOIL_OPTIONS["active_method"], choices=("rankine", "coulomb"),
                          doc="active coefficient from friction_angle_deg: Rankine on the "
                              "virtual back, or Coulomb with wall_friction_deg"),
-    "coulomb_plane": Key(str, "heel", choices=("heel", "stem"),
+    "coulomb_plane": Key(str, SOIL_OPTIONS["coulomb_plane"], choices=("heel", "stem"),
                          doc="Coulomb: \"heel\" - on the plane through the heel edge, "
                              "interface friction = backslope; \"stem\" - on the stem's back "
                              "face with wall_friction_deg, the soil over the heel retained"),

@@ -32,13 +32,13 @@ class ActiveSoil(ModelBase):
 
     def applies(self, inputs) -> bool:
         """A coefficient from the friction angle by the model's ``active_method``."""
-        return inputs.active_efp_pcf is None and inputs.active_method == self.method
+        return inputs.soil.active_efp_pcf is None and inputs.soil.active_method == self.method
 
     def components(self, geom, inputs, p, plane, *, live):
         if plane.level:
             return [level_soil_component(p.active_efp_pcf, geom.design_height_ft)]
         c, s = p.cos_inclination, p.sin_inclination
-        f, m = soil_profile(p.ka, inputs.unit_weight_pcf, plane.height_ft, plane.water_ft,
+        f, m = soil_profile(p.ka, inputs.soil.unit_weight_pcf, plane.height_ft, plane.water_ft,
                             gamma_sat_pcf=inputs.gamma_below_water_pcf)
         return [ThrustComponent("active soil", f * c, arm(f, m), f * s)]
 
@@ -46,7 +46,7 @@ class ActiveSoil(ModelBase):
         if plane_level:
             return [triangle_cut(p.active_efp_pcf, z)]
         hw_cut = water_height_ft(geom, inputs) - (geom.design_height_ft - z)  # above the cut
-        return [soil_profile(p.ka * p.cos_inclination, inputs.unit_weight_pcf, z, hw_cut,
+        return [soil_profile(p.ka * p.cos_inclination, inputs.soil.unit_weight_pcf, z, hw_cut,
                              gamma_sat_pcf=inputs.gamma_below_water_pcf)]
 
     def conventions(self, inputs, p, plain):

@@ -22,7 +22,7 @@ def water_height_ft(geom, inputs):
 
 def stem_face_x_at_grade(geom, inputs):
     tb, tt = geom.stem_base_in / 12.0, geom.stem_top_in / 12.0
-    if inputs.batter_face == "back":
+    if inputs.criteria.batter_face == "back":
         with np.errstate(divide="ignore", invalid="ignore"):
             w = np.where(geom.stem_height_ft > 0,
                          (tb - tt) * geom.soil_height_ft / geom.stem_height_ft, 0.0)
@@ -33,7 +33,7 @@ def stem_face_x_at_grade(geom, inputs):
 def virtual_back_height_ft(geom, inputs):
     """H' = bottom of footing to the ground at the heel edge: H + (B - x_grade) tan(beta),
     x_grade where the retained grade meets the stem's back face."""
-    beta = float(inputs.backslope_deg or 0.0)
+    beta = float(inputs.soil.backslope_deg or 0.0)
     H = geom.design_height_ft
     if beta <= 0.0:
         return H
@@ -54,7 +54,7 @@ def thrust_plane_height_ft(geom, inputs):
     it (H' at the heel edge; at the stem's back face with ``coulomb_plane = "stem"``)."""
     if not inputs.stem_plane:
         return virtual_back_height_ft(geom, inputs)
-    beta = float(inputs.backslope_deg or 0.0)
+    beta = float(inputs.soil.backslope_deg or 0.0)
     H = geom.design_height_ft
     if beta <= 0.0:
         return H + 0.0 * geom.toe_ft

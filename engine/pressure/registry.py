@@ -60,8 +60,8 @@ def is_level(inputs) -> bool:
 
 def check_inputs(inputs, has_phi: bool) -> None:
     """The cross-key rules of every model, in order (ValueError with one clear sentence)."""
-    if inputs.active_method not in ACTIVE_METHODS:
+    if inputs.soil.active_method not in ACTIVE_METHODS:
         raise ValueError("active_method must be " + " or ".join(
-            repr(x) for x in ACTIVE_METHODS) + f", got {inputs.active_method!r}")
+            repr(x) for x in ACTIVE_METHODS) + f", got {inputs.soil.active_method!r}")
     for m in MODELS:
         m.check(inputs, has_phi)

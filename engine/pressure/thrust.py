@@ -52,15 +52,15 @@ def stem_formulas(inputs, p: EarthPressure) -> tuple[str, str]:
 def earth_pressure(inputs) -> EarthPressure:
     """The active/passive pressures of a :class:`~.inputs.DesignInputs`."""
     ka, efp, incl, basis = active_model(inputs).pressure(inputs)
-    gamma = inputs.unit_weight_pcf
-    if not inputs.use_passive:
+    gamma = inputs.soil.unit_weight_pcf
+    if not inputs.criteria.use_passive:
         kp_efp = 0.0
-    elif inputs.passive_from_friction_angle:
-        kp_efp = float(rankine_kp(inputs.friction_angle_deg)) * gamma
+    elif inputs.soil.passive_from_friction_angle:
+        kp_efp = float(rankine_kp(inputs.soil.friction_angle_deg)) * gamma
     else:
-        kp_efp = float(inputs.passive_efp_pcf)
-    p = EarthPressure(efp, ka, kp_efp, float(inputs.surcharge_psf), basis, incl,
-                      float(inputs.backslope_deg or 0.0))
+        kp_efp = float(inputs.soil.passive_efp_pcf)
+    p = EarthPressure(efp, ka, kp_efp, float(inputs.loads.surcharge_psf), basis, incl,
+                      float(inputs.soil.backslope_deg or 0.0))
     mu, vu = stem_formulas(inputs, p)
     return dataclasses.replace(p, stem_moment_formula=mu, stem_shear_formula=vu)
 
@@ -132,7 +132,7 @@ def seismic_increment_lb(geom, inputs, pressure: EarthPressure | None = None):
 def conventions(inputs, pressure: EarthPressure) -> list[str]:
     """The stated conventions of the models in use (short for level backfill without
     [seismic]), the lines ``wallsched section`` prints."""
-    plain = is_level(inputs) and inputs.seismic is None
+    plain = is_level(inputs) and inputs.loads.seismic is None
     lines = []
     used = in_use(inputs) + in_use(inputs, "seismic")
     for m in sorted(used, key=lambda m: m.order if m.text_order is None else m.text_order):

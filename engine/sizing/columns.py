@@ -140,7 +140,8 @@ class ColumnSearch:
         geometry; the candidates are checked exactly in :func:`evaluate_candidates`)."""
         ti = self.heel_T_of
         ok = _rows(self.heel_fixed, ti)
-        if not self.inputs.heel_upward_pressure:  # the demand of the pair holds for its toes
+        # the demand of the pair holds for its toes
+        if not self.inputs.criteria.heel_upward_pressure:
             one = BarArrays(self.bars.size[:1], self.bars.spacing_in[:1])
             r = heel_strength(self._pair_geoms(self.codes["heel_first"], h), self.inputs, one)
             ok = ok & (at_most(r.mu_lbft, _rows(self.heel_phi_mn, ti))
@@ -177,11 +178,11 @@ class ColumnSearch:
         if self._thrust_has_v:
             v = v + v_th[e]
             m = m + v_th[e] * s.B[idx]
-        if i.surcharge_resists:
+        if i.criteria.surcharge_resists:
             v, m = v + s.vq[idx], m + s.mq[idx]
         k = 1.0 - s.SLACK
-        return (m >= i.fs_overturning * m_o[e] * k) & (
-            i.friction_coefficient * v + pp[e] >= i.fs_sliding * h_d[e] * k)
+        return (m >= i.criteria.fs_overturning * m_o[e] * k) & (
+            i.soil.friction_coefficient * v + pp[e] >= i.criteria.fs_sliding * h_d[e] * k)
 
     def _least_toes(self, h, forces, hint=None):
         """Per column, the least toe index passing overturning and sliding (``toe_hi`` where
@@ -225,14 +226,14 @@ class ColumnSearch:
         th = design_thrust(geo, i, p)
         v = v + th.vertical_lb
         m = m + th.vertical_lb * thrust_plane_x_ft(geo, i)
-        if i.surcharge_resists:
+        if i.criteria.surcharge_resists:
             v, m = v + w.surcharge.lb, m + w.surcharge.moment_lbft
         # passive to the bottom of the footing or key (as in the engine's stability)
         key_ft = np.where(geo.has_key, geo.key_depth_in / 12.0, 0.0)
-        pp = (passive_resistance_lb(p.passive_efp_pcf, i.passive_neglect_ft,
-                                    geo.embedment_ft + key_ft) if i.use_passive else 0.0)
-        ok = (m >= i.fs_overturning * th.moment_lbft * k) & (
-            i.friction_coefficient * v + pp >= i.fs_sliding * th.horizontal_lb * k)
+        pp = (passive_resistance_lb(p.passive_efp_pcf, i.criteria.passive_neglect_ft,
+                                    geo.embedment_ft + key_ft) if i.criteria.use_passive else 0.0)
+        ok = (m >= i.criteria.fs_overturning * th.moment_lbft * k) & (
+            i.soil.friction_coefficient * v + pp >= i.criteria.fs_sliding * th.horizontal_lb * k)
         return np.broadcast_to(ok, (n, *g.shape[1:])).reshape(n, self.ncol)
 
     def _first_passing_toes(self, passing):

@@ -75,11 +75,11 @@ def fixed_bars(geom: SectionGeometry, inputs: DesignInputs, spacings_in=None):
     """Stem horizontal (2 faces) and footing longitudinal (2 mats) bars of each geometry, at
     the standard spacings ``spacings_in`` where given."""
     t_avg = (geom.stem_top_in + geom.stem_base_in) / 2.0
-    h_size, h_sp = minimum_bars(wall_horizontal_min_in2(t_avg, 4, inputs.fy_psi), 2,
+    h_size, h_sp = minimum_bars(wall_horizontal_min_in2(t_avg, 4, inputs.materials.fy_psi), 2,
                                 max_flexural_spacing_in(geom.stem_top_in), sizes=(4, 5),
                                 spacings_in=spacings_in)
     # a #5 or larger needs the 0.0025 ratio of Table 11.6.1: recheck with the size found
-    h_req = wall_horizontal_min_in2(t_avg, h_size, inputs.fy_psi)
+    h_req = wall_horizontal_min_in2(t_avg, h_size, inputs.materials.fy_psi)
     h_size, h_sp = minimum_bars(h_req, 2, max_flexural_spacing_in(geom.stem_top_in),
                                 sizes=(4, 5), spacings_in=spacings_in)
     T = geom.footing_thickness_in
@@ -139,7 +139,7 @@ def candidate_cost(geom, inputs, rates, stem, heel, toe, horiz, longi, checks=No
 def stem_steel_lb(geom: SectionGeometry, bars: BarArrays, inputs: DesignInputs):
     """Stem vertical bars per ft of wall: full stem height, into the footing to the bottom
     mat, plus a 90-degree hook extension of 12 db (ACI 318-19 Table 25.3.1)."""
-    L = (geom.stem_height_ft + (geom.footing_thickness_in - inputs.cover_toe_in) / 12.0
+    L = (geom.stem_height_ft + (geom.footing_thickness_in - inputs.criteria.cover_toe_in) / 12.0
          + 12.0 * bars.diameter_in / 12.0)
     return 12.0 / bars.spacing_in * bar_weight_plf(bars.size) * L
 
@@ -183,7 +183,7 @@ def precompute(g: Geometries, inputs: DesignInputs, rates: CostRates, emb: float
     geo, T, _, _, per_hst = parts(slice(0, 1))
     _, longi = fixed_bars(geo, inputs)
     out = {"T_ft": T, "cost_per_hst": per_hst, "emb_ft": geo.embedment_ft,
-           "stem_anchor_ft": (geo.footing_thickness_in - inputs.cover_toe_in) / 12.0,
+           "stem_anchor_ft": (geo.footing_thickness_in - inputs.criteria.cover_toe_in) / 12.0,
            "long_db_in": longi.diameter_in + 0.0 * T,
            # the key's own strength (the passive on it does not depend on the height)
            "key_ok": key_passes(geo, inputs, earth_pressure(inputs))}

@@ -82,7 +82,7 @@ def pair_table(ctx, first, h, member: str) -> np.ndarray:
         # the rows that hold for every toe of the pair: with the net pressure the heel's demand
         # depends on the whole geometry, and the development on the toe (a lower bound then)
         ok = footing_member_passes(heel_strength(geo, inputs, bb),
-                                   demand=not inputs.heel_upward_pressure)
+                                   demand=not inputs.criteria.heel_upward_pressure)
         lb = np.broadcast_to(12.0 / bb.spacing_in * bar_weight_plf(bb.size), ok.shape)
     cost = np.where(ok, lb, np.inf)
     best = np.argmin(cost, axis=1)
@@ -134,10 +134,11 @@ class FootingTables:
                               stem_base_in=8.0, toe_ft=1.0, heel_ft=1.0)
         bb = BarArrays(bars.size[None, :], bars.spacing_in[None, :])
         shape = (T_vals.size, bars.size.size)
-        fc, fy = inputs.fc_psi, inputs.fy_psi
+        fc, fy = inputs.materials.fc_psi, inputs.materials.fy_psi
         db = bar_diameter_in(bars.size)[None, :]
         self.tab = {}
-        for name, cov_opt in (("heel", inputs.cover_heel_in), ("toe", inputs.cover_toe_in)):
+        crit = inputs.criteria
+        for name, cov_opt in (("heel", crit.cover_heel_in), ("toe", crit.cover_toe_in)):
             cov = cover_in(bb.size, cov_opt)
             r = footing_member(geo, inputs, bb, 0.0, 0.0, cov)
             top = name == "heel"
@@ -147,9 +148,9 @@ class FootingTables:
                                                 spacing_in=bb.spacing_in, cover_in=cov)
             ldh = hooked_development_equation_in(
                 bb.size, fc, fy, psi_r=hook_psi_r(bb.size, bb.spacing_in),
-                psi_o=inputs.hook_psi_o)
-            other = inputs.cover_toe_in if top else (
-                2.0 if inputs.cover_heel_in is None else inputs.cover_heel_in)
+                psi_o=inputs.criteria.hook_psi_o)
+            other = inputs.criteria.cover_toe_in if top else (
+                2.0 if inputs.criteria.cover_heel_in is None else inputs.criteria.cover_heel_in)
             depth = T_vals[:, None] - cov - other
             angle = np.where(hook_vertical_in(bb.size, 90) <= depth + 1e-9, 90, 180)
             extra_ft = footing_hook_extra_ft(bb.size, angle)
@@ -172,7 +173,8 @@ class FootingTables:
         vu = np.asarray(vu, float).reshape(-1, 1)
         ok = at_most(mu, rows("phi_mn")) & at_most(vu, rows("phi_vn")) & rows("fixed_ok")
         d = rows("d")
-        req = required_steel_in2(np.maximum(mu, 0.0), d, self.inputs.fc_psi, self.inputs.fy_psi)
+        mat = self.inputs.materials
+        req = required_steel_in2(np.maximum(mu, 0.0), d, mat.fc_psi, mat.fy_psi)
         f = excess_reinforcement_factor(req, rows("as"))
         ld_s = reduced_straight_in(rows("ld"), f)
         ld_h = reduced_hooked_in(self.bars.size[None, :], rows("ldh"), f)

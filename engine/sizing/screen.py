@@ -54,8 +54,8 @@ class StabilityScreen:
         # below a water level the soil is buoyant: its weight is linear in the height only
         # where the level lies at or below the retained grade of every geometry (the design
         # height plus the least embedment reaches the level), the fitting heights included
-        self.h_min = (-math.inf if inputs.water is None
-                      else float(inputs.water.level_ft) - float(np.min(self.e_vals)))
+        self.h_min = (-math.inf if inputs.loads.water is None
+                      else float(inputs.loads.water.level_ft) - float(np.min(self.e_vals)))
         # (the screen puts a vertical thrust at the heel edge: not with the stem plane)
         self.linear = bool(lin and same and hs[0] >= self.h_min and not inputs.stem_plane)
         self._probe, self._valid = probe, {}
@@ -92,7 +92,8 @@ class StabilityScreen:
             B = flat_of(geo_a.footing_width_ft, sh)
             self.B[flat] = B
             rows = [x.reshape(sh[0], -1) for x in (
-                (v0, v1, m0, m1, B, qa, qma) if inputs.surcharge_resists else (v0, v1, m0, m1, B))]
+                (v0, v1, m0, m1, B, qa, qma) if inputs.criteria.surcharge_resists
+                else (v0, v1, m0, m1, B))]
             self.toe_monotone = self.toe_monotone and rows_nondecreasing(rows, last_rows)
             last_rows = [r[-1:] for r in rows]
         return lin
@@ -139,9 +140,9 @@ class StabilityScreen:
                               toe_ft=1.0, heel_ft=1.0, freeboard_ft=self.fb)
         th = design_thrust(one, i, self.p)  # one thrust per embedment (design height)
         shape = self.e_vals.shape
-        pp = (passive_resistance_lb(self.p.passive_efp_pcf, i.passive_neglect_ft,
+        pp = (passive_resistance_lb(self.p.passive_efp_pcf, i.criteria.passive_neglect_ft,
                                     self.passive_depth)
-              if i.use_passive else np.zeros(shape))
+              if i.criteria.use_passive else np.zeros(shape))
         return (np.broadcast_to(th.moment_lbft, shape), np.broadcast_to(th.horizontal_lb, shape),
                 np.broadcast_to(th.vertical_lb, shape), np.broadcast_to(pp, shape))
 
@@ -173,18 +174,18 @@ class StabilityScreen:
         v = self.v0[idx] + self.v1[idx] * h + v_th
         m = self.m0[idx] + self.m1[idx] * h + v_th * B
         vq, mq = self.vq[idx], self.mq[idx]
-        if i.surcharge_resists:
+        if i.criteria.surcharge_resists:
             v, m = v + vq, m + mq
         k = 1.0 - self.SLACK
-        ok = (m >= i.fs_overturning * m_o * k) & (
-            i.friction_coefficient * v + pp >= i.fs_sliding * h_d * k)
-        cases = [(v, m)] if i.surcharge_resists else [(v, m), (v + vq, m + mq)]
+        ok = (m >= i.criteria.fs_overturning * m_o * k) & (
+            i.soil.friction_coefficient * v + pp >= i.criteria.fs_sliding * h_d * k)
+        cases = [(v, m)] if i.criteria.surcharge_resists else [(v, m), (v + vq, m + mq)]
         for vv, mm in cases:
             with np.errstate(divide="ignore", invalid="ignore"):
                 e = np.abs(B / 2.0 - (mm - m_o) / vv)
                 a = B / 2.0 - e
                 q = np.where(e <= B / 6.0, vv / B * (1.0 + 6.0 * e / B), 2.0 * vv / (3.0 * a))
-            ok &= (a > 0) & (vv > 0) & (q * k <= i.allowable_bearing_psf)
+            ok &= (a > 0) & (vv > 0) & (q * k <= i.soil.allowable_bearing_psf)
         return ok
 
     def doomed(self, h: float, idx) -> np.ndarray:
@@ -205,9 +206,11 @@ class StabilityScreen:
         v = self.v0[idx] + self.v1[idx] * h
         m = self.m0[idx] + self.m1[idx] * h
         v1, m1 = self.v1[idx], self.m1[idx]
-        if i.surcharge_resists:
+        if i.criteria.surcharge_resists:
             v, m = v + self.vq[idx], m + self.mq[idx]
-        ot = (m < i.fs_overturning * m_o[e_ix] * (1 - 1e-6)) & (m1 <= i.fs_overturning * sm)
-        sl = ((i.friction_coefficient * v + pp[e_ix] < i.fs_sliding * h_d[e_ix] * (1 - 1e-6))
-              & (i.friction_coefficient * v1 <= i.fs_sliding * sh))
+        fs_o, fs_s, mu_b = (i.criteria.fs_overturning, i.criteria.fs_sliding,
+                            i.soil.friction_coefficient)
+        ot = (m < fs_o * m_o[e_ix] * (1 - 1e-6)) & (m1 <= fs_o * sm)
+        sl = ((mu_b * v + pp[e_ix] < fs_s * h_d[e_ix] * (1 - 1e-6))
+              & (mu_b * v1 <= fs_s * sh))
         return ot | sl

@@ -164,7 +164,7 @@ def section_from(ctx: SearchContext, found, h: float) -> SectionDims:
         stem_base_in=float(g.take("stem_base_in", gi)),
         footing_thickness_in=float(g.take("footing_thickness_in", gi)),
         toe_ft=float(g.take("toe_ft", gi)), heel_ft=float(g.take("heel_ft", gi)),
-        batter_face=inputs.batter_face, **key_dims(g, gi),
+        batter_face=inputs.criteria.batter_face, **key_dims(g, gi),
         stem_bars=spec(bars, si), heel_bars=spec(bars, hi), toe_bars=spec(bars, ti),
         horizontal_bars=BarSpec(int(horiz.size[0]), float(horiz.spacing_in[0])),
         footing_long_bars=BarSpec(int(longi.size[0]), float(longi.spacing_in[0])),
@@ -188,7 +188,7 @@ def pair_codes(g: Geometries, grid: SizingGrid, inputs: DesignInputs):
     each pair. On a slope with a battered stem the heel is paired with the stem too (the
     ground over the heel starts where the battered back face meets the retained grade, so the
     heel's load depends on the stem), on a copy of ``g``."""
-    if (inputs.backslope_deg or 0.0) != 0.0 and grid.stem_batter:
+    if (inputs.soil.backslope_deg or 0.0) != 0.0 and grid.stem_batter:
         n_s = grid.stem_base_in.size
         g = g.copy()
         g.col["heel_code"] = g.col["heel_code"] * n_s + np.searchsorted(grid.stem_base_in,

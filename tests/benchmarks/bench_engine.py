@@ -55,7 +55,7 @@ def main(argv=None) -> int:
 
     crit = {k: v.default for k, v in CRITERIA_KEYS.items()}
     crit["min_embedment_ft"] = 2.0
-    inputs = DesignInputs(unit_weight_pcf=120, friction_coefficient=0.40,
+    inputs = DesignInputs.of(unit_weight_pcf=120, friction_coefficient=0.40,
                           allowable_bearing_psf=3000, active_efp_pcf=35, passive_efp_pcf=300,
                           surcharge_psf=250, min_embedment_ft=2.0)
     walls = invented_site(args.stations, args.seed)

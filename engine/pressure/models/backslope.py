@@ -15,11 +15,11 @@ class Backslope(ActiveSoil):
     symbol = "cos β"
 
     def applies(self, inputs) -> bool:
-        return super().applies(inputs) and bool(inputs.backslope_deg)
+        return super().applies(inputs) and bool(inputs.soil.backslope_deg)
 
     def check(self, inputs, has_phi: bool) -> None:
-        beta = inputs.backslope_deg or 0.0
-        phi = inputs.friction_angle_deg
+        beta = inputs.soil.backslope_deg or 0.0
+        phi = inputs.soil.friction_angle_deg
         if not (0.0 <= beta < 90.0):
             raise ValueError(f"backslope must be between 0 and 90 deg, got {beta:g}")
         if has_phi and beta > phi:
@@ -28,10 +28,10 @@ class Backslope(ActiveSoil):
                              "active_efp_pcf from the geotechnical report)")
 
     def pressure(self, inputs):
-        beta = float(inputs.backslope_deg)
-        ka = float(rankine_ka_sloping(inputs.friction_angle_deg, beta))
-        return ka, ka * inputs.unit_weight_pcf, beta, (
-            f"Rankine, phi = {inputs.friction_angle_deg:g} deg, backslope {beta:.4g} deg "
+        beta = float(inputs.soil.backslope_deg)
+        ka = float(rankine_ka_sloping(inputs.soil.friction_angle_deg, beta))
+        return ka, ka * inputs.soil.unit_weight_pcf, beta, (
+            f"Rankine, phi = {inputs.soil.friction_angle_deg:g} deg, backslope {beta:.4g} deg "
             "(thrust parallel to the slope)")
 
 

@@ -16,32 +16,33 @@ class Coulomb(ActiveSoil):
     symbol = "cos δ"
 
     def check(self, inputs, has_phi: bool) -> None:
-        phi = inputs.friction_angle_deg
-        if inputs.active_method != "coulomb":
-            if inputs.wall_friction_deg is not None:
+        phi = inputs.soil.friction_angle_deg
+        if inputs.soil.active_method != "coulomb":
+            if inputs.soil.wall_friction_deg is not None:
                 raise ValueError("wall_friction_deg is used only with active_method = "
                                  "'coulomb'")
-            if inputs.coulomb_plane != "heel":
+            if inputs.soil.coulomb_plane != "heel":
                 raise ValueError("coulomb_plane is used only with active_method = 'coulomb'")
             return
         if not has_phi:
             raise ValueError("active_method = 'coulomb' needs friction_angle_deg (not "
                              "active_efp_pcf)")
-        if inputs.coulomb_plane not in ("heel", "stem"):
+        if inputs.soil.coulomb_plane not in ("heel", "stem"):
             raise ValueError("coulomb_plane must be 'heel' or 'stem', got "
-                             f"{inputs.coulomb_plane!r}")
-        if inputs.wall_friction_deg is None and inputs.coulomb_plane == "stem":
+                             f"{inputs.soil.coulomb_plane!r}")
+        if inputs.soil.wall_friction_deg is None and inputs.soil.coulomb_plane == "stem":
             raise ValueError("coulomb_plane = 'stem' needs wall_friction_deg (the "
                              "wall friction angle from the geotechnical report)")
-        if inputs.wall_friction_deg is not None and not (0.0 <= inputs.wall_friction_deg <= phi):
-            raise ValueError(f"wall_friction_deg {inputs.wall_friction_deg:g} must be "
+        delta = inputs.soil.wall_friction_deg
+        if delta is not None and not (0.0 <= delta <= phi):
+            raise ValueError(f"wall_friction_deg {delta:g} must be "
                              f"between 0 and friction_angle_deg {phi:g}")
 
     def pressure(self, inputs):
-        beta = float(inputs.backslope_deg or 0.0)
-        if inputs.coulomb_plane == "stem":
+        beta = float(inputs.soil.backslope_deg or 0.0)
+        if inputs.soil.coulomb_plane == "stem":
             # the thrust on concrete: the report's wall friction applies (DESIGN.md 7)
-            delta = float(inputs.wall_friction_deg)
+            delta = float(inputs.soil.wall_friction_deg)
             plane = (f"wall friction {delta:g} deg on the stem's back face (the soil over the "
                      "heel counted as retained soil, not as resisting weight)")
         else:
@@ -50,12 +51,12 @@ class Coulomb(ActiveSoil):
             delta = beta
             plane = (f"interface friction = backslope {beta:.4g} deg on the plane through the "
                      "heel edge (soil against soil)")
-            if inputs.wall_friction_deg is not None:
-                plane += (f"; the report's wall friction {inputs.wall_friction_deg:g} deg "
+            if inputs.soil.wall_friction_deg is not None:
+                plane += (f"; the report's wall friction {inputs.soil.wall_friction_deg:g} deg "
                           "applies only with coulomb_plane = \"stem\"")
-        ka = float(coulomb_ka(inputs.friction_angle_deg, delta, beta))
-        return ka, ka * inputs.unit_weight_pcf, delta, (
-            f"Coulomb, phi = {inputs.friction_angle_deg:g} deg, backslope {beta:.4g} deg, "
+        ka = float(coulomb_ka(inputs.soil.friction_angle_deg, delta, beta))
+        return ka, ka * inputs.soil.unit_weight_pcf, delta, (
+            f"Coulomb, phi = {inputs.soil.friction_angle_deg:g} deg, backslope {beta:.4g} deg, "
             f"{plane}")
 
 

@@ -11,14 +11,14 @@ class EquivalentFluid(ActiveSoil):
     order = 0
 
     def applies(self, inputs) -> bool:
-        return inputs.active_efp_pcf is not None
+        return inputs.soil.active_efp_pcf is not None
 
     def level(self, inputs) -> bool:
-        return not inputs.backslope_deg
+        return not inputs.soil.backslope_deg
 
     def pressure(self, inputs):
-        efp = float(inputs.active_efp_pcf)
-        return efp / inputs.unit_weight_pcf, efp, 0.0, "equivalent fluid pressure"
+        efp = float(inputs.soil.active_efp_pcf)
+        return efp / inputs.soil.unit_weight_pcf, efp, 0.0, "equivalent fluid pressure"
 
 
 MODEL = EquivalentFluid()

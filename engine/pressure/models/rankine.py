@@ -13,15 +13,15 @@ class Rankine(ActiveSoil):
     method = "rankine"
 
     def applies(self, inputs) -> bool:
-        return super().applies(inputs) and not inputs.backslope_deg
+        return super().applies(inputs) and not inputs.soil.backslope_deg
 
     def level(self, inputs) -> bool:
         return True
 
     def pressure(self, inputs):
-        ka = float(rankine_ka(inputs.friction_angle_deg))
-        return ka, ka * inputs.unit_weight_pcf, 0.0, \
-            f"Rankine, phi = {inputs.friction_angle_deg:g} deg"
+        ka = float(rankine_ka(inputs.soil.friction_angle_deg))
+        return ka, ka * inputs.soil.unit_weight_pcf, 0.0, \
+            f"Rankine, phi = {inputs.soil.friction_angle_deg:g} deg"
 
 
 MODEL = Rankine()

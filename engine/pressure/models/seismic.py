@@ -27,13 +27,13 @@ def increment_lb(geom, inputs, pressure: EarthPressure):
     (KAE - Ka) gamma H'^2 / 2 with kv = 0 and KAE for the same wall friction (beta for
     Rankine, the wall friction for Coulomb) so that kh -> 0 gives 0.
     """
-    sz = inputs.seismic
+    sz = inputs.loads.seismic
     Hv = thrust_plane_height_ft(geom, inputs)
-    g = inputs.unit_weight_pcf
+    g = inputs.soil.unit_weight_pcf
     if sz.method == "seed-whitman":
         return 0.375 * sz.kh * g * Hv * Hv
     p = pressure
-    kae = float(mononobe_okabe_kae(inputs.friction_angle_deg, p.inclination_deg, sz.kh,
+    kae = float(mononobe_okabe_kae(inputs.soil.friction_angle_deg, p.inclination_deg, sz.kh,
                                    p.backslope_deg))
     return 0.5 * (kae - p.ka) * g * Hv * Hv
 
@@ -41,7 +41,7 @@ def increment_lb(geom, inputs, pressure: EarthPressure):
 def direction(inputs, pressure: EarthPressure):
     """(cos, sin) of the increment's direction: horizontal for Seed-Whitman, the static
     thrust direction for Mononobe-Okabe."""
-    if inputs.seismic.method == "seed-whitman":
+    if inputs.loads.seismic.method == "seed-whitman":
         return 1.0, 0.0
     return pressure.cos_inclination, pressure.sin_inclination
 
@@ -49,7 +49,7 @@ def direction(inputs, pressure: EarthPressure):
 def concrete_parts(geom, inputs):
     """Weights (lb) and centroid heights above the bottom of footing (ft) of the stem
     rectangle, stem batter triangle, footing and key (for the seismic inertia)."""
-    gc = inputs.concrete_unit_weight_pcf
+    gc = inputs.materials.concrete_unit_weight_pcf
     T = geom.footing_thickness_ft
     tt, tb = geom.stem_top_in / 12.0, geom.stem_base_in / 12.0
     hst = geom.stem_height_ft
@@ -82,14 +82,14 @@ def soil_inertia_parts(geom, inputs):
     has = (H > T) & (np.abs(a2) > 1e-14)
     with np.errstate(divide="ignore", invalid="ignore"):
         y = np.where(has, cy / (3.0 * np.where(has, a2, 1.0)), 0.0)
-    w = np.where(has, inputs.unit_weight_pcf * np.abs(a2) / 2.0, 0.0)
+    w = np.where(has, inputs.soil.unit_weight_pcf * np.abs(a2) / 2.0, 0.0)
     return (("soil over heel", w, y),)
 
 
 def inertia_components(geom, inputs, factor):
     """``factor`` x kh W of each concrete part and, with ``soil_inertia``, of the soil over
     the heel and the battered face, at their centroids (horizontal, toward the front)."""
-    sz = inputs.seismic
+    sz = inputs.loads.seismic
     parts = list(concrete_parts(geom, inputs))
     if sz.soil_inertia and not inputs.stem_plane:  # (stem plane: the soil is retained)
         parts += list(soil_inertia_parts(geom, inputs))
@@ -121,14 +121,14 @@ def stem_shear_moment(geom, inputs, pressure: EarthPressure, depth_ft):
     the increment on the stem's own height h_s (Seed-Whitman 0.375 kh gamma h_s^2 or
     (KAE - Ka) gamma h_s^2/2 horizontal part, as the same linear diagram, resultant at 0.6 h_s)
     plus the inertia kh W of the stem above the cut at its centroid (E at 1.0)."""
-    sz = inputs.seismic
+    sz = inputs.loads.seismic
     p = pressure
     hs = geom.soil_height_ft
-    g = inputs.unit_weight_pcf
+    g = inputs.soil.unit_weight_pcf
     if sz.method == "seed-whitman":
         tot = 0.375 * sz.kh * g * hs * hs
     else:
-        kae = float(mononobe_okabe_kae(inputs.friction_angle_deg, p.inclination_deg, sz.kh,
+        kae = float(mononobe_okabe_kae(inputs.soil.friction_angle_deg, p.inclination_deg, sz.kh,
                                        p.backslope_deg))
         tot = 0.5 * (kae - p.ka) * g * hs * hs * p.cos_inclination
     z = np.clip(_a(depth_ft), 0.0, hs)
@@ -139,7 +139,7 @@ def stem_shear_moment(geom, inputs, pressure: EarthPressure, depth_ft):
     L = np.maximum(hst - y, 0.0)
     t_y = geom.stem_thickness_in(y) / 12.0
     t_t = geom.stem_top_in / 12.0
-    w = inputs.concrete_unit_weight_pcf * sz.kh
+    w = inputs.materials.concrete_unit_weight_pcf * sz.kh
     v = v + w * (t_y + t_t) / 2.0 * L
     m = m + w * L * L * (t_y / 6.0 + t_t / 3.0)
     return v, m
@@ -151,25 +151,26 @@ class Seismic(ModelBase):
     case = "seismic"
 
     def applies(self, inputs) -> bool:
-        return inputs.seismic is not None
+        return inputs.loads.seismic is not None
 
     def check(self, inputs, has_phi: bool) -> None:
-        sz = inputs.seismic
+        sz = inputs.loads.seismic
         if sz is None or sz.method != "mononobe-okabe":
             return
         if not has_phi:
             raise ValueError("seismic method 'mononobe-okabe' needs friction_angle_deg; "
                              "use 'seed-whitman' with active_efp_pcf")
-        beta = inputs.backslope_deg or 0.0
+        beta = inputs.soil.backslope_deg or 0.0
         psi = math.degrees(math.atan(sz.kh))
-        if inputs.friction_angle_deg - beta - psi < 0:
+        if inputs.soil.friction_angle_deg - beta - psi < 0:
             raise ValueError(f"Mononobe-Okabe has no solution: phi - backslope - "
-                             f"atan(kh) = {inputs.friction_angle_deg - beta - psi:.3g} deg < 0 "
+                             f"atan(kh) = "
+                             f"{inputs.soil.friction_angle_deg - beta - psi:.3g} deg < 0 "
                              "(lower kh or the slope)")
 
     def components(self, geom, inputs, p, plane, *, live):
         """load_factor x (Delta P_AE at 0.6 H', and kh W of each part at its centroid)."""
-        lf = inputs.seismic.load_factor
+        lf = inputs.loads.seismic.load_factor
         Hv = thrust_plane_height_ft(geom, inputs)
         dp = lf * increment_lb(geom, inputs, p)
         c, s = direction(inputs, p)
@@ -180,7 +181,7 @@ class Seismic(ModelBase):
         return [stem_shear_moment(geom, inputs, p, z)]
 
     def conventions(self, inputs, p, plain):
-        sz, i = inputs.seismic, inputs
+        sz, i = inputs.loads.seismic, inputs
         inc = ("Seed-Whitman 0.375 kh gamma H'^2 (limited by its authors to level backfill, a "
                "vertical wall and no wall friction)" if sz.method == "seed-whitman" else
                "Mononobe-Okabe (KAE - Ka) gamma H'^2/2, kv = 0, along the static thrust")
@@ -195,7 +196,7 @@ class Seismic(ModelBase):
                 "also for 1.2D + 1.0E + 1.6H with its own factored bearing pressure"]
 
     def formula(self, inputs, p, level):
-        inc = ("0.375·kh·γ·h_s²" if inputs.seismic.method == "seed-whitman"
+        inc = ("0.375·kh·γ·h_s²" if inputs.loads.seismic.method == "seed-whitman"
                else "(KAE − Ka)·γ·h_s²/2·cos i")
         e = (f"E = {inc} at 0.6 h_s (the part above the section) + kh·(stem weight above the "
              "section)")

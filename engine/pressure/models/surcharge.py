@@ -56,7 +56,8 @@ class Surcharge(ModelBase):
             "soil polygon (total unit weight) and footing, the surcharge and the "
             "thrust's vertical component at the heel edge, by the combination's factors"
             + (", less its factored bearing pressure under the heel"
-               if inputs.heel_upward_pressure else " (1.2 D, 1.6 L and H, no upward pressure)"),
+               if inputs.criteria.heel_upward_pressure
+               else " (1.2 D, 1.6 L and H, no upward pressure)"),
         ]
 
     def formula(self, inputs, p, level):

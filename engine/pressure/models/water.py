@@ -21,7 +21,7 @@ class Water(ModelBase):
         return inputs.water_level_ft is None
 
     def check(self, inputs, has_phi: bool) -> None:
-        if inputs.water is not None and inputs.gamma_below_water_pcf <= WATER_PCF:
+        if inputs.loads.water is not None and inputs.gamma_below_water_pcf <= WATER_PCF:
             raise ValueError("with [water] the unit weight must exceed 62.4 pcf (the buoyant "
                              "unit weight is gamma - 62.4)")
 
@@ -41,9 +41,9 @@ class Water(ModelBase):
         if plain:
             return []
         i = inputs
-        if i.water is None:
+        if i.loads.water is None:
             return ["backfill drained (no water pressure, no uplift)"]
-        return [f"water level {i.water.level_ft:g} ft above the bottom of footing (at "
+        return [f"water level {i.loads.water.level_ft:g} ft above the bottom of footing (at "
                 "most the retained grade), one free body: the soil over the heel at its "
                 f"total unit weight ({i.gamma_below_water_pcf:g} pcf below the level), "
                 "the earth pressure from effective stress (buoyant below the level), "
