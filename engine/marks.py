@@ -66,21 +66,8 @@ def choose_marks(cost: np.ndarray, weight: np.ndarray, le: np.ndarray, marks_max
     n = hi - lo + 1
     c_w = cost[:, lo: hi + 1]
     w = weight[lo: hi + 1]
-    weighted = w > 0
-    held = np.isfinite(c_w)
-    term = np.where(weighted & held, w * np.where(held, c_w, 0.0), 0.0)  # [C, n]
-    bad = (weighted & ~held).astype(int)
-    p_term = np.concatenate([np.zeros((C, 1)), np.cumsum(term, axis=1)], axis=1)
-    p_bad = np.concatenate([np.zeros((C, 1), int), np.cumsum(bad, axis=1)], axis=1)
-    a_idx = np.arange(n)[:, None]
-    b_idx = np.arange(n)[None, :]
-    # I[c, a, b]: rows a..b held by c
-    I_ = p_term[:, None, 1:] - p_term[:, :n, None]
-    I_ = np.where((p_bad[:, None, 1:] - p_bad[:, :n, None] > 0) | (a_idx > b_idx)[None],
-                  np.inf, I_)
+    I_ = _interval_costs(c_w, w, mark_usd)  # [c, a, b]
     pen = np.where(le, 0.0, np.inf)  # [c', c]
-    mark = np.broadcast_to(np.asarray(mark_usd, float), (C,))
-    I_ = I_ + mark[:, None, None]  # an interval pays for its mark (marks are distinct)
     M = max(1, int(marks_max))
     F = [I_[:, 0, :].T]  # F_1[b, c]
     arg_a: list = [None]
@@ -102,8 +89,34 @@ def choose_marks(cost: np.ndarray, weight: np.ndarray, le: np.ndarray, marks_max
     total = float(finals[m, c])
     if not np.isfinite(total):
         return None
+    return _assignment(c_w, lo, R, m, c, arg_a, arg_c), total
+
+
+def _interval_costs(c_w: np.ndarray, w: np.ndarray, mark_usd) -> np.ndarray:
+    """I[c, a, b]: $ of rows a..b held by candidate c with its mark; inf where c does
+    not hold a weighted row among them or a > b."""
+    C, n = c_w.shape
+    weighted = w > 0
+    held = np.isfinite(c_w)
+    term = np.where(weighted & held, w * np.where(held, c_w, 0.0), 0.0)  # [C, n]
+    bad = (weighted & ~held).astype(int)
+    p_term = np.concatenate([np.zeros((C, 1)), np.cumsum(term, axis=1)], axis=1)
+    p_bad = np.concatenate([np.zeros((C, 1), int), np.cumsum(bad, axis=1)], axis=1)
+    a_idx = np.arange(n)[:, None]
+    b_idx = np.arange(n)[None, :]
+    # I[c, a, b]: rows a..b held by c
+    I_ = p_term[:, None, 1:] - p_term[:, :n, None]
+    I_ = np.where((p_bad[:, None, 1:] - p_bad[:, :n, None] > 0) | (a_idx > b_idx)[None],
+                  np.inf, I_)
+    mark = np.broadcast_to(np.asarray(mark_usd, float), (C,))
+    I_ = I_ + mark[:, None, None]  # an interval pays for its mark (marks are distinct)
+    return I_
+
+
+def _assignment(c_w, lo, R, m, c, arg_a, arg_c) -> np.ndarray:
+    """The candidate per row, traced back from the last interval (m, c)."""
     assign = np.full(R, -1, int)
-    b = n - 1
+    b = c_w.shape[1] - 1
     while True:
         a = 0 if m == 0 else int(arg_a[m][b, c])
         for r in range(a, b + 1):
@@ -114,7 +127,7 @@ def choose_marks(cost: np.ndarray, weight: np.ndarray, le: np.ndarray, marks_max
         c = int(arg_c[m][a - 1, c])
         b = a - 1
         m -= 1
-    return assign, total
+    return assign
 
 
 def _pairs_checked(table, inputs, rates, sections):

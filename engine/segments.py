@@ -311,8 +311,6 @@ def _solve(preps, rules, kmax):
     seg_cost = stack("seg_cost", np.inf, (M,))
     tw = stack("tw", np.nan, ())
     stepped_top = rules.top_of_wall == "stepped"
-    step_max = rules.footing_step_max_ft + 1e-9
-    step_min = rules.step_min_ft - 1e-9
     value = np.full((R, n_max, K1, M), np.inf)
     back = np.full((R, n_max, K1, M, 2), -1, dtype=np.int32)
     back_k, back_m = back[..., 0], back[..., 1]  # views
@@ -334,19 +332,9 @@ def _solve(preps, rules, kmax):
             continue
         rows = (run_row + np.maximum(ii, 0)[None]).reshape(-1)
         shape = (R, jb.size, K1 - 1)
-        bf_j = bf[:, jb, 1:]  # [R, b, k, m]
-        bf_i = np.take(bf_rows, rows, axis=0).reshape(shape + (1, K1, M))  # [R,b,k,1,k',m']
-        diff = np.abs(bf_j[..., :, None, None] - bf_i)  # [R, b, k, m, k', m']
-        stepped = diff > 1e-9
-        allowed = (diff <= step_max) & ~(stepped & (diff < step_min))
-        if stepped_top:
-            tw_i = np.take(tw_rows, rows, axis=0).reshape(shape + (K1,))
-            t_diff = np.abs(tw[:, jb, 1:][..., None] - tw_i)  # [R, b, k, k']
-            t_step = t_diff > 1e-9
-            stepped = stepped | t_step[..., None, :, None]
-            allowed &= ~(t_step & (t_diff < step_min))[..., None, :, None]
-        with np.errstate(invalid="ignore"):
-            pen = np.where(allowed, rules.step_cost_usd * stepped, np.inf)
+        pen = _step_penalty(bf[:, jb, 1:], np.take(bf_rows, rows, axis=0).reshape(
+            shape + (1, K1, M)), tw[:, jb, 1:], np.take(tw_rows, rows, axis=0).reshape(
+            shape + (K1,)) if stepped_top else None, rules)
         prev = np.take(value_rows, rows, axis=0).reshape(shape + (1, K1 * M))
         flat = prev + pen.reshape(shape + (M, K1 * M))  # [R, b, k, m, (k', m')]
         best = np.argmin(flat, axis=-1)  # [R, b, k, m]
@@ -356,6 +344,24 @@ def _solve(preps, rules, kmax):
         back_k[:, jb, 1:] = best // M
         back_m[:, jb, 1:] = best % M
     return [(value[r, p["n"] - 1], back[r]) for r, p in enumerate(preps)]
+
+
+def _step_penalty(bf_j, bf_i, tw_j, tw_i, rules):
+    """The cost of the step between a segment [R, b, k, m] and its predecessor [.., 1, k', m']:
+    0 without a step, the step cost with one, inf where the step is too tall or too small.
+    ``tw_i`` is None unless the top of wall steps."""
+    step_max = rules.footing_step_max_ft + 1e-9
+    step_min = rules.step_min_ft - 1e-9
+    diff = np.abs(bf_j[..., :, None, None] - bf_i)  # [R, b, k, m, k', m']
+    stepped = diff > 1e-9
+    allowed = (diff <= step_max) & ~(stepped & (diff < step_min))
+    if tw_i is not None:
+        t_diff = np.abs(tw_j[..., None] - tw_i)  # [R, b, k, k']
+        t_step = t_diff > 1e-9
+        stepped = stepped | t_step[..., None, :, None]
+        allowed &= ~(t_step & (t_diff < step_min))[..., None, :, None]
+    with np.errstate(invalid="ignore"):
+        return np.where(allowed, rules.step_cost_usd * stepped, np.inf)
 
 
 def _trace(prep, final, back) -> SegmentPlan:

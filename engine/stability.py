@@ -179,12 +179,7 @@ def stability(geom: SectionGeometry, inputs: DesignInputs, *,
     th = thrust or design_thrust(geom, inputs, p)
     w = weights or section_weights(geom, inputs)
     B = geom.footing_width_ft
-    v_dead, m_dead = w.dead()
-    v_q, m_q = w.surcharge.lb, w.surcharge.moment_lbft
-    # vertical component of the thrust (0 for level backfill) acts on the heel plane, x = B
-    v_th = th.vertical_lb
-    v_dead = v_dead + v_th
-    m_dead = m_dead + v_th * thrust_plane_x_ft(geom, inputs)
+    v_dead, m_dead, v_q, m_q = _vertical_loads(geom, inputs, th, w)
     m_o = th.moment_lbft
     if inputs.criteria.surcharge_resists:
         v_r, m_r = v_dead + v_q, m_dead + m_q
@@ -222,6 +217,17 @@ def stability(geom: SectionGeometry, inputs: DesignInputs, *,
         passes_bearing=ok_b, passes=passes,
         case_dead=case0, case_surcharge=case1, seismic=sz,
     )
+
+
+def _vertical_loads(geom: SectionGeometry, inputs: DesignInputs, th: Thrust, w: Weights):
+    """(V, M about the toe) of the dead load with the thrust's vertical part; of the surcharge."""
+    v_dead, m_dead = w.dead()
+    v_q, m_q = w.surcharge.lb, w.surcharge.moment_lbft
+    # vertical component of the thrust (0 for level backfill) acts on the heel plane, x = B
+    v_th = th.vertical_lb
+    v_dead = v_dead + v_th
+    m_dead = m_dead + v_th * thrust_plane_x_ft(geom, inputs)
+    return v_dead, m_dead, v_q, m_q
 
 
 def seismic_stability(geom: SectionGeometry, inputs: DesignInputs, pressure: EarthPressure,

@@ -301,7 +301,13 @@ def footing_member(geom, inputs, bars, mu, vu, cov):
         phi=fl.phi, eps_t=fl.eps_t, a_in=fl.a_in)
 
 
-def _footing_result(member: MemberResult, mu_c, vu_c, dev) -> FootingResult:
+def _footing_result(geom, inputs, bars, mu, vu, cov, mu_c, vu_c, *, room_in, top,
+                    hooked) -> FootingResult:
+    """The footing member for the governing (Mu, Vu) with the development of its bars."""
+    member = footing_member(geom, inputs, bars, mu, vu, cov)
+    dev = footing_development(bars.size, bars.spacing_in, member.as_in2, member.d_in,
+                              member.mu_lbft, member.thickness_in, cov, room_in, inputs, top=top,
+                              hooked=hooked)
     kw = {f.name: getattr(member, f.name) for f in fields(MemberResult)}
     return FootingResult(**kw, mu_combination=np.asarray(mu_c), vu_combination=np.asarray(vu_c),
                          **dev)
@@ -449,11 +455,8 @@ def heel_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays, 
             mu_c = np.where(m_i > mu, i, mu_c)
             vu_c = np.where(v_i > vu, i, vu_c)
             mu, vu = np.maximum(mu, m_i), np.maximum(vu, v_i)
-    m = footing_member(geom, inputs, bars, mu, vu, cov)
-    dev = footing_development(bars.size, bars.spacing_in, m.as_in2, m.d_in, m.mu_lbft,
-                              m.thickness_in, cov, heel_room_in(geom), inputs, top=True,
-                              hooked=hooked)
-    return _footing_result(m, mu_c, vu_c, dev)
+    return _footing_result(geom, inputs, bars, mu, vu, cov, mu_c, vu_c,
+                           room_in=heel_room_in(geom), top=True, hooked=hooked)
 
 
 def heel_demand(geom: SectionGeometry, inputs: DesignInputs, pressure=None):
@@ -580,8 +583,5 @@ def toe_strength(geom: SectionGeometry, inputs: DesignInputs, bars: BarArrays,
         mu_c = np.where(m_e > mu, i, mu_c)
         vu_c = np.where(f_e > vu, i, vu_c)
         mu, vu = np.maximum(mu, m_e), np.maximum(vu, f_e)
-    m = footing_member(geom, inputs, bars, mu, vu, cov)
-    dev = footing_development(bars.size, bars.spacing_in, m.as_in2, m.d_in, m.mu_lbft,
-                              m.thickness_in, cov, toe_room_in(geom), inputs, top=False,
-                              hooked=hooked)
-    return _footing_result(m, mu_c, vu_c, dev)
+    return _footing_result(geom, inputs, bars, mu, vu, cov, mu_c, vu_c,
+                           room_in=toe_room_in(geom), top=False, hooked=hooked)

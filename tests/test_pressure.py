@@ -11,6 +11,7 @@ import math
 
 import numpy as np
 import pytest
+from inputkit import efp_inputs
 from wallsched.engine.pressure import (
     cantilever_shear_moment,
     earth_pressure,
@@ -19,7 +20,6 @@ from wallsched.engine.pressure import (
     rankine_ka,
     rankine_kp,
 )
-from wallsched.engine.section import DesignInputs
 
 HANDBOOK_KA = {  # phi (deg): Rankine Ka, level backfill
     20: 0.4903, 25: 0.4059, 28: 0.3610, 30: 0.3333, 32: 0.3073, 34: 0.2827, 35: 0.2710,
@@ -61,10 +61,7 @@ def test_mccormac_problem_answers(h, ha, m):
 
 
 def _inputs(**kw):
-    base = dict(unit_weight_pcf=120.0, friction_coefficient=0.4, allowable_bearing_psf=2500.0,
-                active_efp_pcf=36.0, passive_efp_pcf=300.0, surcharge_psf=250.0)
-    base.update(kw)
-    return DesignInputs.of(**base)
+    return efp_inputs(**({"active_efp_pcf": 36.0} | kw))
 
 
 def test_efp_basis_gives_ka_as_efp_over_gamma():

@@ -6,15 +6,11 @@ Reference: McCormac & Brown, Design of Reinforced Concrete, 9th ed., Ex. 13.2 we
 
 import numpy as np
 import pytest
-from wallsched.engine.section import DesignInputs, SectionGeometry, section_weights
+from inputkit import efp_inputs
+from wallsched.engine.section import SectionGeometry, section_weights
 from wallsched.engine.stability import bearing_pressure, stability
 
-
-def inputs(**kw):
-    base = dict(unit_weight_pcf=120.0, friction_coefficient=0.4, allowable_bearing_psf=2500.0,
-                active_efp_pcf=35.0, passive_efp_pcf=300.0, surcharge_psf=250.0)
-    base.update(kw)
-    return DesignInputs.of(**base)
+inputs = efp_inputs
 
 
 def geom(**kw):

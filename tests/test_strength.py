@@ -11,6 +11,7 @@ import math
 
 import numpy as np
 import pytest
+from inputkit import efp_inputs
 from wallsched.engine.concrete import (
     beta1,
     cover_in,
@@ -27,7 +28,7 @@ from wallsched.engine.concrete import (
     size_effect_factor,
     wall_horizontal_min_in2,
 )
-from wallsched.engine.section import BarArrays, DesignInputs, SectionGeometry
+from wallsched.engine.section import BarArrays, SectionGeometry
 from wallsched.engine.strength import heel_strength, stem_strength, toe_strength
 
 
@@ -168,11 +169,7 @@ def test_service_stress_cracked_section():
         ms * 12 / (As * d * (1 - k / 3)))
 
 
-def _inp(**kw):
-    base = dict(unit_weight_pcf=120.0, friction_coefficient=0.4, allowable_bearing_psf=2500.0,
-                active_efp_pcf=35.0, passive_efp_pcf=300.0, surcharge_psf=250.0)
-    base.update(kw)
-    return DesignInputs.of(**base)
+_inp = efp_inputs
 
 
 def test_effective_depth_from_bar_and_cover():

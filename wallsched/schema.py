@@ -186,37 +186,9 @@ def check_value(value: Any, spec: Key, *, file, where: str) -> Any:
                              where=where)
         return value
     elif kind is str:
-        if not isinstance(value, str):
-            raise InputError(f"must be a text string, got {short_value(value)}", file=file,
-                             where=where)
-        if len(value) > MAX_TEXT:
-            raise InputError(f"is {len(value):,} characters long; the limit is {MAX_TEXT:,} "
-                             "(a name or a note, not a document)", file=file, where=where)
-        bad = sorted({c for c in value if unicodedata.category(c) == "Cc"} - set("\t\n\r"))
-        if bad:
-            raise InputError("holds a control character ("
-                             + ", ".join(f"U+{ord(c):04X}" for c in bad)
-                             + "); remove it (tables and spreadsheets cannot hold it)",
-                             file=file, where=where)
-        if spec.choices and value not in spec.choices:
-            hint = difflib.get_close_matches(value, spec.choices, n=1)
-            extra = f" (did you mean {hint[0]!r}?)" if hint else ""
-            raise InputError(
-                f"{short_value(value)} is not allowed; use {spec.range_text()}{extra}",
-                file=file, where=where,
-            )
-        return value
+        return _check_text(value, spec, file=file, where=where)
     elif kind is list:
-        if not isinstance(value, list):
-            raise InputError(f"must be a list, got {short_value(value)}", file=file,
-                             where=where)
-        if spec.lo is not None or spec.hi is not None:  # a list of numbers in range
-            if not value:
-                raise InputError("must list at least one number", file=file, where=where)
-            num = Key(float, lo=spec.lo, hi=spec.hi, lo_open=spec.lo_open,
-                      hi_open=spec.hi_open)
-            return [check_value(v, num, file=file, where=where) for v in value]
-        return value
+        return _check_list(value, spec, file=file, where=where)
     if kind in (float, int):
         bad = (
             (spec.lo is not None and (value < spec.lo or (spec.lo_open and value == spec.lo)))
@@ -226,6 +198,44 @@ def check_value(value: Any, spec: Key, *, file, where: str) -> Any:
             raise InputError(
                 f"{value:g} is out of range; allowed: {spec.range_text()}", file=file, where=where
             )
+    return value
+
+
+def _check_text(value: Any, spec: Key, *, file, where: str) -> str:
+    """A text value: a string, not too long, no control characters, one of the choices."""
+    if not isinstance(value, str):
+        raise InputError(f"must be a text string, got {short_value(value)}", file=file,
+                         where=where)
+    if len(value) > MAX_TEXT:
+        raise InputError(f"is {len(value):,} characters long; the limit is {MAX_TEXT:,} "
+                         "(a name or a note, not a document)", file=file, where=where)
+    bad = sorted({c for c in value if unicodedata.category(c) == "Cc"} - set("\t\n\r"))
+    if bad:
+        raise InputError("holds a control character ("
+                         + ", ".join(f"U+{ord(c):04X}" for c in bad)
+                         + "); remove it (tables and spreadsheets cannot hold it)",
+                         file=file, where=where)
+    if spec.choices and value not in spec.choices:
+        hint = difflib.get_close_matches(value, spec.choices, n=1)
+        extra = f" (did you mean {hint[0]!r}?)" if hint else ""
+        raise InputError(
+            f"{short_value(value)} is not allowed; use {spec.range_text()}{extra}",
+            file=file, where=where,
+        )
+    return value
+
+
+def _check_list(value: Any, spec: Key, *, file, where: str) -> list:
+    """A list value; with a range, a non-empty list of numbers in it."""
+    if not isinstance(value, list):
+        raise InputError(f"must be a list, got {short_value(value)}", file=file,
+                         where=where)
+    if spec.lo is not None or spec.hi is not None:  # a list of numbers in range
+        if not value:
+            raise InputError("must list at least one number", file=file, where=where)
+        num = Key(float, lo=spec.lo, hi=spec.hi, lo_open=spec.lo_open,
+                  hi_open=spec.hi_open)
+        return [check_value(v, num, file=file, where=where) for v in value]
     return value
 
 

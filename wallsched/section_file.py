@@ -75,11 +75,27 @@ def _fail(msg, file, src, table, key):
 
 def load_section(path: str | Path) -> SectionFile:
     """Read and validate a section file; raises InputError with one clear line."""
-    from .engine.bars import parse_bars
-
     path = Path(path)
     data, src = load_toml(path)
     file = str(path)
+    tables = _read_tables(data, src, file)
+    _check_geometry(data, tables["geometry"], tables["criteria"], file, src)
+    _check_bars(tables["reinforcement"], file, src)
+    try:
+        from .engine.section import DesignInputs
+
+        DesignInputs.from_tables(tables["soil"], tables["loads"], tables["materials"],
+                                 tables["criteria"])
+    except ValueError as exc:  # cross-key rules not caught above
+        raise InputError(str(exc), file=file, where="[soil]") from None
+    frz = {t: MappingProxyType(v) for t, v in tables.items()}
+    return SectionFile(path=path, name=tables["section"].get("name"), geometry=frz["geometry"],
+                       soil=frz["soil"], loads=frz["loads"], materials=frz["materials"],
+                       criteria=frz["criteria"], reinforcement=frz["reinforcement"])
+
+
+def _read_tables(data: dict, src, file: str) -> dict[str, dict]:
+    """Each table checked against its keys; the soil resolved; the load tables nested."""
     known = list(TABLES) + list(OPTIONAL_TABLES)
     for k in data:
         if k not in known:
@@ -98,14 +114,17 @@ def load_section(path: str | Path) -> SectionFile:
             raise InputError(f"missing the [{t}] table{extra}", file=file)
     tables = {t: check_table(data.get(t, {}), keys, table=t, file=file, src=src)
               for t, keys in TABLES.items()}
-    g, c, r = tables["geometry"], tables["criteria"], tables["reinforcement"]
-    resolve_soil(tables["soil"], c, file=file, table="soil")
+    resolve_soil(tables["soil"], tables["criteria"], file=file, table="soil")
     tables["loads"]["strip"] = check_strips(loads_raw.get("strip") if isinstance(
         loads_raw, dict) else None, file=file, where="[loads] strip")
     for t, keys in OPTIONAL_TABLES.items():
         tables["loads"][t] = (check_table(data[t], keys, table=t, file=file, src=src)
                               if t in data else None)
+    return tables
 
+
+def _check_geometry(data: dict, g: dict, c: dict, file: str, src) -> None:
+    """The rules between the geometry's keys; fills freeboard_ft and key_offset_ft."""
     # freeboard: [geometry] (the section's own) or [criteria] (the site-file default), not both
     if "freeboard_ft" in data.get("geometry", {}) and "freeboard_ft" in data.get("criteria", {}):
         _fail("freeboard_ft is given in both [geometry] and [criteria]; give it once",
@@ -135,6 +154,12 @@ def load_section(path: str | Path) -> SectionFile:
               file, src, "geometry", "key_offset_ft")
     if B <= 0:
         _fail("toe_ft + stem + heel_ft must be positive", file, src, "geometry", "toe_ft")
+
+
+def _check_bars(r: dict, file: str, src) -> None:
+    """Every bar key given reads as "#N@S"."""
+    from .engine.bars import parse_bars
+
     for k in BAR_KEYS:
         if r.get(k) is None:
             continue
@@ -143,13 +168,3 @@ def load_section(path: str | Path) -> SectionFile:
         except ValueError as exc:
             _fail(f"{exc}; allowed: bar notation \"#N@S\" with an ASTM A615 size and a spacing "
                   "of 2 to 48 in", file, src, "reinforcement", k)
-    try:
-        from .engine.section import DesignInputs
-
-        DesignInputs.from_tables(tables["soil"], tables["loads"], tables["materials"], c)
-    except ValueError as exc:  # cross-key rules not caught above
-        raise InputError(str(exc), file=file, where="[soil]") from None
-    frz = {t: MappingProxyType(v) for t, v in tables.items()}
-    return SectionFile(path=path, name=tables["section"].get("name"), geometry=frz["geometry"],
-                       soil=frz["soil"], loads=frz["loads"], materials=frz["materials"],
-                       criteria=frz["criteria"], reinforcement=frz["reinforcement"])

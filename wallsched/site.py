@@ -461,6 +461,26 @@ def load_site(path: str | Path) -> Site:
     if "soil" not in data:
         raise InputError("missing the [soil] table; soil parameters must come from the "
                          "geotechnical report and are never assumed", file=file)
+    tables = _site_tables(data, file, src)
+    walls = _walls(data, tables, path.parent, file, src)
+    folder = path.parent
+    site_only = {t: MappingProxyType(check_table(data.get(t, {}), keys, table=t, file=file,
+                                                 src=src))
+                 for t, keys in SITE_ONLY.items()}
+    check_sizing_sets(site_only["sizing"], file=file, src=src)
+    # the site-level soil, for the record (validated per wall above)
+    return Site(costs=site_only["costs"], sizing=site_only["sizing"],
+        drawing=site_only["drawing"],
+        path=path.resolve(), folder=folder.resolve(), name=meta["name"],
+        meta=MappingProxyType(meta), soil=MappingProxyType(tables["soil"]),
+        loads=MappingProxyType(tables["loads"]), materials=MappingProxyType(tables["materials"]),
+        criteria=MappingProxyType(tables["criteria"]), walls=tuple(walls),
+        raw=MappingProxyType(data),
+    )
+
+
+def _site_tables(data: dict, file: str, src) -> dict:
+    """The site-wide tables, checked; [soil] completed per wall later."""
     # Soil keys may be completed per wall, so a site-level [soil] may leave some out only
     # when every wall gives them; the per-wall check below enforces presence.
     tables = {}
@@ -484,13 +504,17 @@ def load_site(path: str | Path) -> Site:
                        fill_defaults=False)
     tables["soil"] = {k: soil.get(k, None if SOIL_KEYS[k].default is REQUIRED
                                   else SOIL_KEYS[k].default) for k in SOIL_KEYS}
+    return tables
+
+
+def _walls(data: dict, tables: dict, folder: Path, file: str, src) -> list:
+    """Every [[walls]] entry checked, ids unique, each with its required soil keys."""
     walls_raw = data.get("walls")
     if not walls_raw:
         raise InputError("no [[walls]] entries; add at least one wall", file=file)
     if not isinstance(walls_raw, list):
         raise InputError("'walls' must be an array of tables ([[walls]])", file=file,
                          where="walls")
-    folder = path.parent
     walls = []
     seen: dict[str, int] = {}
     for i, w in enumerate(walls_raw):
@@ -507,16 +531,4 @@ def load_site(path: str | Path) -> Site:
                     "soil parameters are never defaulted - give it in [soil] or in the wall",
                     file=file, where="[soil]")
         walls.append(spec)
-    site_only = {t: MappingProxyType(check_table(data.get(t, {}), keys, table=t, file=file,
-                                                 src=src))
-                 for t, keys in SITE_ONLY.items()}
-    check_sizing_sets(site_only["sizing"], file=file, src=src)
-    # the site-level soil, for the record (validated per wall above)
-    return Site(costs=site_only["costs"], sizing=site_only["sizing"],
-        drawing=site_only["drawing"],
-        path=path.resolve(), folder=folder.resolve(), name=meta["name"],
-        meta=MappingProxyType(meta), soil=MappingProxyType(tables["soil"]),
-        loads=MappingProxyType(tables["loads"]), materials=MappingProxyType(tables["materials"]),
-        criteria=MappingProxyType(tables["criteria"]), walls=tuple(walls),
-        raw=MappingProxyType(data),
-    )
+    return walls
