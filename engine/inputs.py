@@ -1,7 +1,8 @@
 """The site-wide inputs every section is checked with: soil, loads (surcharge, strip loads,
 the seismic case, water), materials and criteria, as plain values (``DesignInputs``), with
-the ``[seismic]`` and ``[water]`` tables (``SeismicLoad``, ``WaterTable``). The geometry, bars
-and weights of a section are ``engine/section.py``.
+the ``[seismic]`` and ``[water]`` tables (``SeismicLoad``, ``WaterTable``). Every field is
+also the file key of the same name, declared with it (``engine/keyspec.key``). The geometry,
+bars and weights of a section are ``engine/section.py``.
 """
 
 from __future__ import annotations
@@ -11,7 +12,7 @@ from dataclasses import dataclass, fields
 
 import numpy as np
 
-from .defaults import CRITERIA, LOADS, MATERIALS, SEISMIC, SOIL_OPTIONS
+from .keyspec import REQUIRED, key
 
 SEISMIC_METHODS = ("seed-whitman", "mononobe-okabe")
 
@@ -20,12 +21,22 @@ SEISMIC_METHODS = ("seed-whitman", "mononobe-okabe")
 class SeismicLoad:
     """The ``[seismic]`` table: horizontal coefficient, method, load factor, required FS."""
 
-    kh: float
-    method: str = SEISMIC["method"]
-    load_factor: float = SEISMIC["load_factor"]
-    fs_overturning: float = SEISMIC["fs_overturning"]
-    fs_sliding: float = SEISMIC["fs_sliding"]
-    soil_inertia: bool = SEISMIC["soil_inertia"]
+    kh: float = key(float, REQUIRED, lo=0, hi=0.8, doc="horizontal seismic coefficient kh")
+    method: str = key(str, "seed-whitman", choices=SEISMIC_METHODS,
+                      doc="dynamic increment: Seed-Whitman 0.375 kh gamma H^2 or "
+                          "Mononobe-Okabe")
+    # IBC 2021 1807.2.3: 0.7 on nominal earthquake loads
+    load_factor: float = key(float, 0.7, lo=0, hi=1.0, lo_open=True,
+                             doc="factor on the nominal earthquake loads in the stability "
+                                 "case (IBC 2021 1807.2.3: 0.7)")
+    fs_overturning: float = key(float, 1.1, lo=1.0, hi=5.0,  # IBC 2021 1807.2.3
+                                doc="required FS, overturning with seismic (IBC 2021 "
+                                    "1807.2.3)")
+    fs_sliding: float = key(float, 1.1, lo=1.0, hi=5.0,  # IBC 2021 1807.2.3
+                            doc="required FS, sliding with seismic (IBC 2021 1807.2.3)")
+    # the soil over the heel moves with the wall (DESIGN.md 7)
+    soil_inertia: bool = key(bool, True, doc="the soil over the heel moves with the wall: its "
+                                             "inertia kh W acts with the concrete's")
 
     def __post_init__(self):
         if self.method not in SEISMIC_METHODS:
@@ -40,8 +51,12 @@ class WaterTable:
     """The ``[water]`` table: water level behind the wall above the bottom of footing, ft, and
     the saturated unit weight of the soil below it (None: ``unit_weight_pcf``)."""
 
-    level_ft: float
-    saturated_unit_weight_pcf: float | None = None
+    level_ft: float = key(float, REQUIRED, lo=-100, hi=100,
+                          doc="water level behind the wall above the bottom of footing, ft "
+                              "(at or below 0: drained)")
+    saturated_unit_weight_pcf: float | None = key(
+        float, None, lo=63, hi=170,
+        doc="total unit weight of the soil below the level, pcf (default unit_weight_pcf)")
 
 
 def _strip_tuple(items) -> tuple:
@@ -56,33 +71,63 @@ def _strip_tuple(items) -> tuple:
     return tuple(out)
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, kw_only=True)
 class Soil:
-    """The ``[soil]`` table (from the geotechnical report): no soil value has a default."""
+    """The ``[soil]`` table (from the geotechnical report): no soil value has a default, only
+    the choices of method do."""
 
-    unit_weight_pcf: float
-    friction_coefficient: float
-    allowable_bearing_psf: float
-    active_efp_pcf: float | None = None
-    friction_angle_deg: float | None = None
-    passive_efp_pcf: float | None = None
-    passive_from_friction_angle: bool = SOIL_OPTIONS["passive_from_friction_angle"]
-    backslope_deg: float | None = None  # None or 0: level retained grade
-    active_method: str = SOIL_OPTIONS["active_method"]
-    wall_friction_deg: float | None = None
+    unit_weight_pcf: float = key(float, REQUIRED, lo=50, hi=160, doc="backfill unit weight, pcf")
+    active_efp_pcf: float | None = key(
+        float, None, lo=0, hi=150, lo_open=True,
+        doc="active equivalent fluid pressure, pcf (or friction_angle_deg)")
+    friction_angle_deg: float | None = key(
+        float, None, lo=0, hi=50, lo_open=True,
+        doc="backfill friction angle, degrees (or active_efp_pcf)")
+    passive_efp_pcf: float | None = key(float, None, lo=0, hi=1000,
+                                        doc="passive equivalent fluid pressure, pcf")
+    passive_from_friction_angle: bool = key(
+        bool, False, doc="take passive as Rankine Kp from friction_angle_deg")
+    friction_coefficient: float = key(float, REQUIRED, lo=0, hi=1.0, lo_open=True,
+                                      doc="base sliding friction coefficient")
+    allowable_bearing_psf: float = key(float, REQUIRED, lo=0, hi=50000, lo_open=True,
+                                       doc="allowable bearing pressure, psf")
+    # (the file's "source" and "backslope" = "H:V" keys follow here: wallsched/keys.py)
+    # sloping backfill and the active-pressure method (engine/pressure)
+    backslope_deg: float | None = key(  # None or 0: level retained grade
+        float, None, lo=0, hi=60, hi_open=True,
+        doc="slope of the retained ground above the wall, degrees (or backslope); it rises "
+            "from where the grade meets the stem")
+    active_method: str = key(str, "rankine", choices=("rankine", "coulomb"),
+                             doc="active coefficient from friction_angle_deg: Rankine on the "
+                                 "virtual back, or Coulomb with wall_friction_deg")
     # "heel": soil on soil, friction = backslope; "stem": delta on the stem's back face
-    coulomb_plane: str = SOIL_OPTIONS["coulomb_plane"]
+    coulomb_plane: str = key(str, "heel", choices=("heel", "stem"),
+                             doc="Coulomb: \"heel\" - on the plane through the heel edge, "
+                                 "interface friction = backslope; \"stem\" - on the stem's "
+                                 "back face with wall_friction_deg, the soil over the heel "
+                                 "retained")
+    wall_friction_deg: float | None = key(
+        float, None, lo=0, hi=45,
+        doc="wall friction angle delta for active_method = \"coulomb\", degrees (from the "
+            "geotechnical report)")
 
 
 @dataclass(frozen=True)
 class Loads:
     """The ``[loads]`` table with the ``[seismic]`` and ``[water]`` tables."""
 
-    surcharge_psf: float = LOADS["surcharge_psf"]
-    # ((offset_ft, width_ft, pressure_psf), ...) from [[loads.strip]]
-    strip: tuple = LOADS["strip"]
-    seismic: SeismicLoad | None = None  # from the [seismic] table; None: no seismic case
-    water: WaterTable | None = None  # from the [water] table; None: drained
+    surcharge_psf: float = key(float, 0.0, lo=0, hi=5000,
+                               doc="uniform live surcharge on the retained grade, psf")
+    # table-valued: written as [[loads.strip]] entries, and the top-level [seismic] and
+    # [water] tables (the files' loaders fill these three; STRIP_KEYS in wallsched/keys.py)
+    # ((offset_ft, width_ft, pressure_psf), ...) from [[loads.strip]]; () no strip loads
+    strip: tuple = key(list, (), doc="strip surcharges near the wall, [[loads.strip]] entries")
+    # from the [seismic] table; None: no seismic case
+    seismic: SeismicLoad | None = key(dict, None,
+                                      doc="the seismic case, from the [seismic] table")
+    # from the [water] table; None: drained
+    water: WaterTable | None = key(dict, None, doc="water behind the wall, from the [water] "
+                                   "table (default drained)")
 
     def __post_init__(self):
         object.__setattr__(self, "strip", _strip_tuple(self.strip))
@@ -92,32 +137,65 @@ class Loads:
 class Materials:
     """The ``[materials]`` table."""
 
-    fc_psi: float = MATERIALS["fc_psi"]
-    fy_psi: float = MATERIALS["fy_psi"]
-    concrete_unit_weight_pcf: float = MATERIALS["concrete_unit_weight_pcf"]
+    fc_psi: float = key(float, 4000.0, lo=2500, hi=10000,
+                        doc="concrete strength f'c, psi (ACI 318-19 Table 19.2.1.1 minimum "
+                            "2500)")
+    fy_psi: float = key(float, 60000.0, lo=40000, hi=80000,
+                        doc="reinforcement yield fy, psi (A615)")
+    concrete_unit_weight_pcf: float = key(float, 150.0, lo=90, hi=160,  # common practice
+                                          doc="concrete unit weight, pcf (common practice "
+                                              "150)")
 
 
 @dataclass(frozen=True)
 class Criteria:
     """The design rules of ``[criteria]`` a section is checked by: the stability conventions
-    (DESIGN.md section 7) and the strength options (ACI 318-19)."""
+    (DESIGN.md section 7) and the strength options (ACI 318-19). The table's keys for the
+    stations, segments and quantities along a wall follow ``frost_depth_ft`` in the file
+    (wallsched/keys.py); the engine reads them from the wall's table."""
 
-    fs_overturning: float = CRITERIA["fs_overturning"]
-    fs_sliding: float = CRITERIA["fs_sliding"]
-    count_toe_soil: bool = CRITERIA["count_toe_soil"]
-    use_passive: bool = CRITERIA["use_passive"]
-    passive_neglect_ft: float = CRITERIA["passive_neglect_ft"]
-    surcharge_resists: bool = CRITERIA["surcharge_resists"]
-    batter_face: str = CRITERIA["batter_face"]
-    min_embedment_ft: float = CRITERIA["min_embedment_ft"]
-    frost_depth_ft: float | None = CRITERIA["frost_depth_ft"]
-    cover_stem_in: float | None = CRITERIA["cover_stem_in"]
-    cover_heel_in: float | None = CRITERIA["cover_heel_in"]
-    cover_toe_in: float = CRITERIA["cover_toe_in"]
-    footing_shear_size_effect: bool = CRITERIA["footing_shear_size_effect"]
-    crack_control: bool = CRITERIA["crack_control"]
-    hook_psi_o: float = CRITERIA["hook_psi_o"]
-    heel_upward_pressure: bool = CRITERIA["heel_upward_pressure"]
+    # stability, IBC 2021 section 1807.2.3
+    fs_overturning: float = key(float, 1.5, lo=1.0, hi=5.0, doc="FS overturning (IBC 1807.2.3)")
+    fs_sliding: float = key(float, 1.5, lo=1.0, hi=5.0, doc="required FS, sliding (IBC 1807.2.3)")
+    count_toe_soil: bool = key(bool, True, doc="soil over the toe resists")
+    use_passive: bool = key(bool, True, doc="passive pressure on the front resists sliding")
+    passive_neglect_ft: float = key(float, 1.0, lo=0, hi=10,  # common practice
+                                    doc="depth below front grade with no passive (common "
+                                        "practice)")
+    surcharge_resists: bool = key(bool, False, doc="live surcharge weight on the heel resists")
+    batter_face: str = key(str, "back", choices=("back", "front"),
+                           doc="which stem face is battered")
+    # geometry along the wall (the site pipeline)
+    min_embedment_ft: float = key(float, 1.0, lo=0, hi=20,  # IBC 2021 1809.4 (12 in)
+                                  doc="front grade to bottom of footing, ft (IBC 2021 1809.4: "
+                                      "12 in)")
+    frost_depth_ft: float | None = key(float, None, lo=0, hi=15,
+                                       doc="frost depth below front grade, ft")
+    # strength options, ACI 318-19 (the section check; DESIGN.md section 7)
+    # None: Table 20.5.1.3.1 by bar size (2 / 1.5 in)
+    cover_stem_in: float | None = key(
+        float, None, lo=0.75, hi=6,
+        doc="clear cover to the stem bars, in (default ACI 318-19 Table 20.5.1.3.1: 2 in for "
+            "#6 and larger, 1.5 in for #5 and smaller)")
+    cover_heel_in: float | None = key(
+        float, None, lo=0.75, hi=6,
+        doc="clear cover to the heel top bars, in (default as cover_stem_in)")
+    cover_toe_in: float = key(float, 3.0, lo=0.75, hi=6,  # Table 20.5.1.3.1: against earth
+                              doc="clear cover to the toe bottom bars, in (ACI 318-19 Table "
+                                  "20.5.1.3.1: 3 in cast against earth)")
+    footing_shear_size_effect: bool = key(  # 13.2.6.2 permits neglecting lambda_s
+        bool, False, doc="apply lambda_s to footing one-way shear (ACI 318-19 13.2.6.2 "
+                         "permits neglecting it)")
+    crack_control: bool = key(bool, True,  # 24.3.2 on the stem
+                              doc="limit the stem bar spacing for crack control (ACI 318-19 "
+                                  "24.3.2, service bar stress)")
+    hook_psi_o: float = key(float, 1.0, lo=1.0, hi=1.25,  # see development.py
+                            doc="hook location factor psi_o (ACI 318-19 Table 25.4.3.2): 1.0 "
+                                "for a continuous wall, 1.25 where side cover < 6 db")
+    heel_upward_pressure: bool = key(  # heel by the net factored pressure (DESIGN.md 7)
+        bool, True, doc="design the heel for the net factored pressure of 1.2D+1.6H+1.6L, "
+                        "1.2D+1.6H and 0.9D+1.6H (false: the textbook method, upward pressure "
+                        "neglected)")
 
 
 GROUPS = (("soil", Soil), ("loads", Loads), ("materials", Materials), ("criteria", Criteria))
@@ -128,10 +206,11 @@ class DesignInputs:
     """Soil, loads, materials and criteria shared by every section of one call, each its own
     object (``inputs.soil.unit_weight_pcf``, ``inputs.criteria.fs_sliding``, ...).
 
-    Field names are the keys of ``wallsched/keys.py`` (the site and section files); the
-    defaults, with their sources, are declared once in ``engine/defaults.py``. Soil values
-    have no defaults (never silently assumed). Build from validated tables with
-    :meth:`from_tables`, or from the keys by name with :meth:`of`.
+    Each group's field is declared with its key of the site and section files
+    (``engine/keyspec.key``: type, default with its source, range, text), which
+    ``wallsched/keys.py`` collects. Soil values have no defaults (never silently assumed).
+    Build from validated tables with :meth:`from_tables`, or from the keys by name with
+    :meth:`of`.
     """
 
     soil: Soil
@@ -209,7 +288,7 @@ class DesignInputs:
         ``kh`` / ``level_ft``: no seismic case, drained).
 
         Keys this class does not know (e.g. ``station_interval_ft``) are ignored; a missing
-        non-soil key takes its default (``engine/defaults.py``). A
+        non-soil key takes its field's default. A
         ``backslope = "H:V"`` soil key gives ``backslope_deg``.
         """
         from .pressure import backslope_from_ratio

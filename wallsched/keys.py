@@ -1,23 +1,17 @@
 """The declared keys of the site file and the section file (DESIGN.md section 4).
 
 One place for every key, its type, range and source, shared by the site file, the section
-file and the starter site; each key's default is taken from the engine's one declaration of
-them (``engine/defaults.py``). Soil keys have no defaults: a soil parameter is
-never defaulted silently.
+file and the starter site. The design inputs' keys ([soil], [loads], [seismic], [water],
+[materials], [criteria]) are declared with the fields of ``engine/inputs.py`` and collected
+here; the cost and sizing keys take their defaults from ``engine/defaults.py``. Soil keys
+have no defaults: a soil parameter is never defaulted silently.
 """
 
 from __future__ import annotations
 
-from .engine.defaults import (
-    COSTS,
-    CRITERIA,
-    LOADS,
-    MATERIALS,
-    SEISMIC,
-    SIZING,
-    SOIL_OPTIONS,
-)
-from .schema import REQUIRED, Key
+from .engine.defaults import COSTS, SIZING
+from .engine.inputs import Criteria, Loads, Materials, SeismicLoad, Soil, WaterTable
+from .engine.keyspec import REQUIRED, Key, keys_of
 
 SITE_KEYS = {
     "name": Key(str, REQUIRED, doc="site or project name"),
@@ -25,51 +19,18 @@ SITE_KEYS = {
     "notes": Key(str, None, doc="free text for the report cover"),
 }
 
-# [soil]: from the geotechnical report; never silently defaulted.
-SOIL_KEYS = {
-    "unit_weight_pcf": Key(float, REQUIRED, lo=50, hi=160, doc="backfill unit weight, pcf"),
-    "active_efp_pcf": Key(float, None, lo=0, hi=150, lo_open=True,
-                          doc="active equivalent fluid pressure, pcf (or friction_angle_deg)"),
-    "friction_angle_deg": Key(float, None, lo=0, hi=50, lo_open=True,
-                              doc="backfill friction angle, degrees (or active_efp_pcf)"),
-    "passive_efp_pcf": Key(float, None, lo=0, hi=1000,
-                           doc="passive equivalent fluid pressure, pcf"),
-    "passive_from_friction_angle": Key(bool, SOIL_OPTIONS["passive_from_friction_angle"],
-                                       doc="take passive as Rankine Kp from friction_angle_deg"),
-    "friction_coefficient": Key(float, REQUIRED, lo=0, hi=1.0, lo_open=True,
-                                doc="base sliding friction coefficient"),
-    "allowable_bearing_psf": Key(float, REQUIRED, lo=0, hi=50000, lo_open=True,
-                                 doc="allowable bearing pressure, psf"),
+# [soil]: from the geotechnical report; never silently defaulted. Declared with the fields
+# of engine/inputs.py's Soil, and two keys of the file that are no field of it.
+SOIL_KEYS = keys_of(Soil, {
     "source": Key(str, None, doc="where these values come from (report, date)"),
-    # sloping backfill and the active-pressure method (engine/pressure.py)
     "backslope": Key(str, None, doc="slope of the retained ground above the wall, \"H:V\" "
                      "(horizontal:vertical), e.g. \"2:1\" (or backslope_deg)"),
-    "backslope_deg": Key(float, None, lo=0, hi=60, hi_open=True,
-                         doc="slope of the retained ground above the wall, degrees (or "
-                             "backslope); it rises from where the grade meets the stem"),
-    "active_method": Key(str, SOIL_OPTIONS["active_method"], choices=("rankine", "coulomb"),
-                         doc="active coefficient from friction_angle_deg: Rankine on the "
-                             "virtual back, or Coulomb with wall_friction_deg"),
-    "coulomb_plane": Key(str, SOIL_OPTIONS["coulomb_plane"], choices=("heel", "stem"),
-                         doc="Coulomb: \"heel\" - on the plane through the heel edge, "
-                             "interface friction = backslope; \"stem\" - on the stem's back "
-                             "face with wall_friction_deg, the soil over the heel retained"),
-    "wall_friction_deg": Key(float, None, lo=0, hi=45,
-                             doc="wall friction angle delta for active_method = \"coulomb\", "
-                                 "degrees (from the geotechnical report)"),
-}
+}, after="allowable_bearing_psf")
 
-LOADS_KEYS = {
-    "surcharge_psf": Key(float, LOADS["surcharge_psf"], lo=0, hi=5000,
-                         doc="uniform live surcharge on the retained grade, psf"),
-    # table-valued: written as [[loads.strip]] entries, and the top-level [seismic] and
-    # [water] tables (the files' loaders fill these three; STRIP_KEYS, SEISMIC_KEYS, WATER_KEYS)
-    "strip": Key(list, LOADS["strip"],
-                 doc="strip surcharges near the wall, [[loads.strip]] entries"),
-    "seismic": Key(dict, None, doc="the seismic case, from the [seismic] table"),
-    "water": Key(dict, None, doc="water behind the wall, from the [water] table (default "
-                 "drained)"),
-}
+# [loads] with its table-valued keys: [[loads.strip]] entries and the top-level [seismic]
+# and [water] tables (the files' loaders fill these three; STRIP_KEYS, SEISMIC_KEYS,
+# WATER_KEYS)
+LOADS_KEYS = keys_of(Loads)
 
 # [[loads.strip]]: a strip load near the wall (a road, a footing), live
 STRIP_KEYS = {
@@ -81,136 +42,72 @@ STRIP_KEYS = {
 }
 
 # [seismic]: present only where the site or section file has the table
-SEISMIC_KEYS = {
-    "kh": Key(float, REQUIRED, lo=0, hi=0.8, doc="horizontal seismic coefficient kh"),
-    "method": Key(str, SEISMIC["method"], choices=("seed-whitman", "mononobe-okabe"),
-                  doc="dynamic increment: Seed-Whitman 0.375 kh gamma H^2 or Mononobe-Okabe"),
-    "load_factor": Key(float, SEISMIC["load_factor"], lo=0, hi=1.0, lo_open=True,
-                       doc="factor on the nominal earthquake loads in the stability case "
-                           "(IBC 2021 1807.2.3: 0.7)"),
-    "fs_overturning": Key(float, SEISMIC["fs_overturning"], lo=1.0, hi=5.0,
-                          doc="required FS, overturning with seismic (IBC 2021 1807.2.3)"),
-    "fs_sliding": Key(float, SEISMIC["fs_sliding"], lo=1.0, hi=5.0,
-                      doc="required FS, sliding with seismic (IBC 2021 1807.2.3)"),
-    "soil_inertia": Key(bool, SEISMIC["soil_inertia"],
-                        doc="the soil over the heel moves with the wall: its inertia kh W "
-                            "acts with the concrete's"),
-}
+SEISMIC_KEYS = keys_of(SeismicLoad)
 
 # [water]: an explicit option; without it the backfill is drained
-WATER_KEYS = {
-    "level_ft": Key(float, REQUIRED, lo=-100, hi=100,
-                    doc="water level behind the wall above the bottom of footing, ft (at or "
-                        "below 0: drained)"),
-    "saturated_unit_weight_pcf": Key(float, None, lo=63, hi=170,
-                                     doc="total unit weight of the soil below the level, pcf "
-                                         "(default unit_weight_pcf)"),
-}
+WATER_KEYS = keys_of(WaterTable)
 
-MATERIALS_KEYS = {
-    "fc_psi": Key(float, MATERIALS["fc_psi"], lo=2500, hi=10000,
-                  doc="concrete strength f'c, psi (ACI 318-19 Table 19.2.1.1 minimum 2500)"),
-    "fy_psi": Key(float, MATERIALS["fy_psi"], lo=40000, hi=80000,
-                  doc="reinforcement yield fy, psi (A615)"),
-    "concrete_unit_weight_pcf": Key(float, MATERIALS["concrete_unit_weight_pcf"], lo=90, hi=160,
-                                    doc="concrete unit weight, pcf (common practice 150)"),
-}
+MATERIALS_KEYS = keys_of(Materials)
 
-CRITERIA_KEYS = {
-    # stability, IBC 2021 section 1807.2.3
-    "fs_overturning": Key(float, CRITERIA["fs_overturning"], lo=1.0, hi=5.0,
-                          doc="FS overturning (IBC 1807.2.3)"),
-    "fs_sliding": Key(float, CRITERIA["fs_sliding"], lo=1.0, hi=5.0,
-                      doc="required FS, sliding (IBC 1807.2.3)"),
-    "count_toe_soil": Key(bool, CRITERIA["count_toe_soil"], doc="soil over the toe resists"),
-    "use_passive": Key(bool, CRITERIA["use_passive"],
-                       doc="passive pressure on the front resists sliding"),
-    "passive_neglect_ft": Key(float, CRITERIA["passive_neglect_ft"], lo=0, hi=10,
-                              doc="depth below front grade with no passive (common practice)"),
-    "surcharge_resists": Key(bool, CRITERIA["surcharge_resists"],
-                             doc="live surcharge weight on the heel resists"),
-    "batter_face": Key(str, CRITERIA["batter_face"], choices=("back", "front"),
-                       doc="which stem face is battered"),
-    # geometry along the wall (the site pipeline)
-    "min_embedment_ft": Key(float, CRITERIA["min_embedment_ft"], lo=0, hi=20,
-                            doc="front grade to bottom of footing, ft (IBC 2021 1809.4: 12 in)"),
-    "frost_depth_ft": Key(float, CRITERIA["frost_depth_ft"], lo=0, hi=15,
-                          doc="frost depth below front grade, ft"),
-    "footing_width_max_ft": Key(float, CRITERIA["footing_width_max_ft"], lo=1, hi=100,
+# [criteria]: the design rules of engine/inputs.py's Criteria (declared with its fields),
+# and after frost_depth_ft the rules for the stations, segments and quantities along a
+# wall, which the site pipeline reads from the wall's table (sources in each text)
+ALONG_WALL_CRITERIA_KEYS = {
+    "footing_width_max_ft": Key(float, None, lo=1, hi=100,
                                 doc="widest footing the site has room for, ft (no limit)"),
-    "footing_cover_ft": Key(float, CRITERIA["footing_cover_ft"], lo=0, hi=5,
+    "footing_cover_ft": Key(float, 0.0, lo=0, hi=5,
                             doc="front grade to top of footing, least, ft (common practice: the "
                                 "footing is buried)"),
-    "station_interval_ft": Key(float, CRITERIA["station_interval_ft"], lo=0.1, hi=500,
+    "station_interval_ft": Key(float, 5.0, lo=0.1, hi=500,
                                doc="station spacing, ft"),
-    "coverage_tolerance_ft": Key(float, CRITERIA["coverage_tolerance_ft"], lo=0, hi=5,
+    "coverage_tolerance_ft": Key(float, 0.01, lo=0, hi=5,
                                  doc="how far a profile may stop short of a wall end, ft"),
-    "freeboard_ft": Key(float, CRITERIA["freeboard_ft"], lo=0, hi=5,
+    "freeboard_ft": Key(float, 0.5, lo=0, hi=5,
                         doc="top of wall above retained grade, ft (common practice)"),
-    "min_retained_height_ft": Key(float, CRITERIA["min_retained_height_ft"], lo=0, hi=5,
+    "min_retained_height_ft": Key(float, 0.5, lo=0, hi=5,
                                   doc="below this no wall is needed, ft (common practice)"),
-    "end_height_warn_ft": Key(float, CRITERIA["end_height_warn_ft"], lo=0, hi=40,
+    "end_height_warn_ft": Key(float, 3.0, lo=0, hi=40,
                               doc="warn where a wall end still retains more than this, ft "
                                   "(common practice: a return wall or a turn-down there)"),
-    "max_retained_height_ft": Key(float, CRITERIA["max_retained_height_ft"], lo=1, hi=40,
+    "max_retained_height_ft": Key(float, 20.0, lo=1, hi=40,
                                   doc="cantilever range limit, ft (common practice)"),
     # constructible segments (engine/segments.py)
-    "footing_step_max_ft": Key(float, CRITERIA["footing_step_max_ft"], lo=0.1, hi=10,
+    "footing_step_max_ft": Key(float, 2.0, lo=0.1, hi=10,
                                doc="largest step between footings, ft (common practice)"),
-    "elevation_step_ft": Key(float, CRITERIA["elevation_step_ft"], lo=0.05, hi=2,
+    "elevation_step_ft": Key(float, 0.5, lo=0.05, hi=2,
                              doc="bottoms of footing (rounded down) and tops of wall (rounded "
                                  "up) on this elevation grid, ft (common practice)"),
-    "step_min_in": Key(float, CRITERIA["step_min_in"], lo=0, hi=48,
+    "step_min_in": Key(float, 6.0, lo=0, hi=48,
                        doc="a step in footing or top is 0 or at least this, in (common "
                            "practice: a step a crew can form)"),
-    "top_of_wall": Key(str, CRITERIA["top_of_wall"], choices=("stepped", "follow_grade"),
+    "top_of_wall": Key(str, "stepped", choices=("stepped", "follow_grade"),
                        doc="top of wall level per segment, or following the grade"),
-    "segment_min_ft": Key(float, CRITERIA["segment_min_ft"], lo=0, hi=500,
+    "segment_min_ft": Key(float, 20.0, lo=0, hi=500,
                           doc="shortest segment inside a wall, ft (common practice: a length "
                               "worth forming)"),
-    "segment_max_ft": Key(float, CRITERIA["segment_max_ft"], lo=5, hi=1000,
+    "segment_max_ft": Key(float, 90.0, lo=5, hi=1000,
                           doc="longest segment, ft (common practice)"),
-    "contraction_joint_max_ft": Key(float, CRITERIA["contraction_joint_max_ft"], lo=5, hi=200,
+    "contraction_joint_max_ft": Key(float, 30.0, lo=5, hi=200,
                                     doc="contraction joint spacing limit, ft (common practice: "
                                         "at most 30 ft, concretenetwork.com, poured retaining "
                                         "walls, provisions)"),
-    "expansion_joint_max_ft": Key(float, CRITERIA["expansion_joint_max_ft"], lo=10, hi=1000,
+    "expansion_joint_max_ft": Key(float, 90.0, lo=10, hi=1000,
                                   doc="expansion joint spacing limit, ft, and one at every "
                                       "footing step (common practice: up to 90 ft, "
                                       "concretenetwork.com, poured retaining walls)"),
-    "design_height_increment_ft": Key(float, CRITERIA["design_height_increment_ft"], lo=0.01, hi=5,
+    "design_height_increment_ft": Key(float, 1.0, lo=0.01, hi=5,
                                       doc="design heights rounded up to this, ft (common "
                                           "practice: walls tabulated by height)"),
     # excavation and backfill quantities (engine/quantities.py), with existing ground given
-    "working_room_ft": Key(float, CRITERIA["working_room_ft"], lo=0, hi=20,
+    "working_room_ft": Key(float, 2.0, lo=0, hi=20,
                            doc="trench floor beyond each footing edge, ft (common practice)"),
-    "trench_side_slope_h_per_v": Key(float, CRITERIA["trench_side_slope_h_per_v"], lo=0, hi=5,
+    "trench_side_slope_h_per_v": Key(float, 1.0, lo=0, hi=5,
                                      doc="trench sides, horizontal per 1 vertical (1.0: OSHA 29 "
                                          "CFR 1926 Subpart P App. B, Type B soil, from memory; "
                                          "0: vertical sides)"),
-    # strength options, ACI 318-19 (the section check; DESIGN.md section 7)
-    "cover_stem_in": Key(float, CRITERIA["cover_stem_in"], lo=0.75, hi=6,
-                         doc="clear cover to the stem bars, in (default ACI 318-19 Table "
-                             "20.5.1.3.1: 2 in for #6 and larger, 1.5 in for #5 and smaller)"),
-    "cover_heel_in": Key(float, CRITERIA["cover_heel_in"], lo=0.75, hi=6,
-                         doc="clear cover to the heel top bars, in (default as cover_stem_in)"),
-    "cover_toe_in": Key(float, CRITERIA["cover_toe_in"], lo=0.75, hi=6,
-                        doc="clear cover to the toe bottom bars, in (ACI 318-19 Table "
-                            "20.5.1.3.1: 3 in cast against earth)"),
-    "footing_shear_size_effect": Key(bool, CRITERIA["footing_shear_size_effect"],
-                                     doc="apply lambda_s to footing one-way shear (ACI 318-19 "
-                                         "13.2.6.2 permits neglecting it)"),
-    "crack_control": Key(bool, CRITERIA["crack_control"],
-                         doc="limit the stem bar spacing for crack control (ACI 318-19 24.3.2, "
-                             "service bar stress)"),
-    "hook_psi_o": Key(float, CRITERIA["hook_psi_o"], lo=1.0, hi=1.25,
-                      doc="hook location factor psi_o (ACI 318-19 Table 25.4.3.2): 1.0 for a "
-                          "continuous wall, 1.25 where side cover < 6 db"),
-    "heel_upward_pressure": Key(bool, CRITERIA["heel_upward_pressure"],
-                                doc="design the heel for the net factored pressure of "
-                                    "1.2D+1.6H+1.6L, 1.2D+1.6H and 0.9D+1.6H (false: the "
-                                    "textbook method, upward pressure neglected)"),
 }
+
+CRITERIA_KEYS = keys_of(Criteria, ALONG_WALL_CRITERIA_KEYS, after="frost_depth_ft")
 
 # [costs]: the least-cost objective. ILLUSTRATIVE defaults, not market prices.
 COSTS_KEYS = {

@@ -13,46 +13,14 @@ import re
 import tomllib
 import unicodedata
 from collections.abc import Mapping
-from dataclasses import dataclass
 from pathlib import Path
 from typing import Any
 
+from .engine.keyspec import REQUIRED, Key
 from .errors import InputError
 
-REQUIRED = object()  # sentinel: the key must be given
 MAX_TOML_BYTES = 1024 * 1024  # a site or section file larger than this is refused unread
 MAX_TEXT = 4000  # characters of one text value (a name, a note, a path)
-
-
-@dataclass(frozen=True)
-class Key:
-    """One allowed key of a table.
-
-    Args:
-        kind: ``float``, ``int``, ``bool`` or ``str`` (``float`` also takes integers).
-        default: the value when absent; ``REQUIRED`` to demand it; ``None`` for optional.
-        lo, hi: inclusive range for numbers (``lo_open``/``hi_open`` to exclude the end).
-        choices: allowed strings.
-        doc: one line for messages and the starter site.
-    """
-
-    kind: type
-    default: Any = None
-    lo: float | None = None
-    hi: float | None = None
-    lo_open: bool = False
-    hi_open: bool = False
-    choices: tuple[str, ...] | None = None
-    doc: str = ""
-
-    def range_text(self) -> str:
-        if self.choices:
-            return "one of " + ", ".join(repr(c) for c in self.choices)
-        if self.lo is None and self.hi is None:
-            return f"a {self.kind.__name__}"
-        lo = "" if self.lo is None else f"{'>' if self.lo_open else '>='} {self.lo:g}"
-        hi = "" if self.hi is None else f"{'<' if self.hi_open else '<='} {self.hi:g}"
-        return "a number " + " and ".join(p for p in (lo, hi) if p)
 
 
 class SourceText:

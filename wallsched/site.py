@@ -15,7 +15,7 @@ from pathlib import Path
 from types import MappingProxyType
 from typing import Any
 
-from .engine.defaults import CRITERIA
+from .engine.inputs import Criteria
 from .errors import InputError
 from .keys import (
     COSTS_KEYS,
@@ -190,7 +190,7 @@ def resolve_soil(soil: dict[str, Any], criteria: Mapping[str, Any], *, file, tab
         if soil.get("passive_efp_pcf") is not None:
             raise InputError("give either passive_efp_pcf or passive_from_friction_angle, "
                              "not both", file=file, where=f"[{table}]")
-    elif criteria.get("use_passive", CRITERIA["use_passive"]) and (
+    elif criteria.get("use_passive", Criteria.use_passive) and (
             soil.get("passive_efp_pcf") is None):
         raise InputError("missing passive_efp_pcf (or set passive_from_friction_angle = true, "
                          "or [criteria] use_passive = false)", file=file, where=f"[{table}]")
