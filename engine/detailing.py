@@ -216,6 +216,14 @@ def _lap(r: _Run, spec: BarSpec, cover_in: float, concrete_below_in: float) -> f
                           psi_t=psi_t, fc_psi=r.fc_psi, fy_psi=r.fy_psi)
 
 
+def _lapped_row(r: _Run, mark: str, spec: BarSpec, run_in: float, cover_in: float,
+                below_in: float, n: int, shape: str = SHAPE_STRAIGHT) -> BarRow:
+    """A bar row of ``n`` bars along ``run_in``, cut into lapped pieces of the stock length
+    (the lap by the bar's cover and the fresh concrete ``below_in`` it)."""
+    pieces, piece_in = lapped_pieces(run_in, _lap(r, spec, cover_in, below_in), r.stock_in)
+    return BarRow(mark, spec.size, spec.spacing_in, n * pieces, round_up_inch(piece_in), shape)
+
+
 def _rows_for_segment(seg: Segment, *, fc_psi: float, fy_psi: float,
                       bar_stock_ft: float) -> list[BarRow]:
     sec: SectionDims = seg.section
@@ -249,10 +257,7 @@ def _stem_rows(r: _Run, sec: SectionDims) -> list[BarRow]:
             upper_in = r.stem_h_in - formed_cover_in(s.size)
             rows.append(BarRow("D1", s.size, s.spacing_in, n, round_up_inch(dowel_in),
                                SHAPE_HOOK90))
-            pieces, piece_in = lapped_pieces(upper_in, _lap(r, s, formed_cover_in(s.size), 0.0),
-                                             r.stock_in)
-            rows.append(BarRow("S2", s.size, s.spacing_in, n * pieces, round_up_inch(piece_in),
-                               SHAPE_STRAIGHT))
+            rows.append(_lapped_row(r, "S2", s, upper_in, formed_cover_in(s.size), 0.0, n))
 
     return rows
 
@@ -279,10 +284,7 @@ def _footing_rows(r: _Run, sec: SectionDims) -> list[BarRow]:
             shape = SHAPE_HOOK90 if angle == 90 else SHAPE_HOOK180
             across_in = (across_in - hook_out_to_out_in(spec.size)
                          + hook_developed_in(spec.size, angle))
-        pieces, piece_in = lapped_pieces(across_in, _lap(r, spec, COVER_EARTH_IN, below_in),
-                                         r.stock_in)
-        rows.append(BarRow(mark, spec.size, spec.spacing_in, n * pieces, round_up_inch(piece_in),
-                           shape))
+        rows.append(_lapped_row(r, mark, spec, across_in, COVER_EARTH_IN, below_in, n, shape))
 
     return rows
 
@@ -297,10 +299,7 @@ def _longitudinal_rows(r: _Run, sec: SectionDims) -> list[BarRow]:
         n = bar_count(across_in, f.spacing_in)
         # L1 is the top mat (fresh concrete below it), L2 the bottom mat (none)
         for mark, below_in in (("L1", r.t_in - top_cover_in - bar_db_in(f.size)), ("L2", 0.0)):
-            pieces, piece_in = lapped_pieces(r.run_along_in, _lap(r, f, COVER_EARTH_IN, below_in),
-                                             r.stock_in)
-            rows.append(BarRow(mark, f.size, f.spacing_in, n * pieces, round_up_inch(piece_in),
-                               SHAPE_STRAIGHT))
+            rows.append(_lapped_row(r, mark, f, r.run_along_in, COVER_EARTH_IN, below_in, n))
 
     return rows
 
@@ -315,11 +314,9 @@ def _horizontal_rows(r: _Run, sec: SectionDims) -> list[BarRow]:
         # stem horizontal bars: the stem is cast in lifts; a bar in the lift with more than
         # 12 in of concrete below it is a top bar (conservative: psi_t = 1.3 above the first
         # foot of the stem, which is nearly all of them)
-        pieces, piece_in = lapped_pieces(r.run_along_in, _lap(r, h, formed_cover_in(h.size),
-                                                           r.stem_h_in), r.stock_in)
         for mark in ("H1", "H2"):
-            rows.append(BarRow(mark, h.size, h.spacing_in, n * pieces, round_up_inch(piece_in),
-                               SHAPE_STRAIGHT))
+            rows.append(_lapped_row(r, mark, h, r.run_along_in, formed_cover_in(h.size),
+                                    r.stem_h_in, n))
     return rows
 
 

@@ -1,6 +1,7 @@
 """What every reader of profile/ shares: the grade profile and alignment types (and their
 drawing variants carrying reading warnings), ``ProfileWarning``, and the projection of points
-onto an alignment (station, offset) used by the DXF, GIS and label readers."""
+onto an alignment (station, offset) used by the DXF, GIS and label readers, and the size
+check of an input file before it is read."""
 
 from __future__ import annotations
 
@@ -10,6 +11,8 @@ from dataclasses import dataclass
 
 import numpy as np
 import shapely
+
+from ..errors import ProfileError
 
 DENSIFY_STEP_FT = 0.25  # a grade chord that leaves the band is cut at this resolution
 EXTENSION_FT = 1000.0  # the alignment is extended straight past both ends for projection
@@ -55,6 +58,20 @@ class DrawingAlignment(Alignment):
     """An alignment read from a drawing or GIS file, with its reading warnings."""
 
     warnings: tuple[str, ...] = ()
+
+
+def checked_stat(path, label: str, limit_bytes: int, what: str, advice: str = ""):
+    """``path.stat()`` of an input file no larger than ``limit_bytes``; else one clear
+    ProfileError naming ``what`` the file is and ``advice`` (what to do)."""
+    try:
+        st = path.stat()
+    except OSError as exc:
+        raise ProfileError(f"cannot be read ({exc.strerror})", file=label) from None
+    if st.st_size > limit_bytes:
+        raise ProfileError(f"is {st.st_size / 2**20:.0f} MiB; the limit for {what} is "
+                           f"{limit_bytes // 2**20} MiB" + (f" - {advice}" if advice else ""),
+                           file=label)
+    return st
 
 
 def warn(messages: list[str], text: str) -> None:

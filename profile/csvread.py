@@ -21,7 +21,7 @@ import numpy as np
 import shapely
 
 from ..errors import ProfileError
-from .core import Alignment, GradeProfile
+from .core import Alignment, GradeProfile, checked_stat
 from .stationing import parse_station
 
 MAX_CSV_BYTES = 20 * 1024 * 1024  # refuse larger files (stated in the README)
@@ -43,13 +43,7 @@ Y_NAMES = ("y", "northing", "y_ft")
 
 
 def _read_rows(path: Path, label: str):
-    try:
-        size = path.stat().st_size
-    except OSError as exc:
-        raise ProfileError(f"cannot be read ({exc.strerror})", file=label) from None
-    if size > MAX_CSV_BYTES:
-        raise ProfileError(f"is {size / 2**20:.0f} MiB; the limit for a CSV is "
-                           f"{MAX_CSV_BYTES // 2**20} MiB", file=label)
+    checked_stat(path, label, MAX_CSV_BYTES, "a CSV")
     try:
         raw = path.read_bytes()
     except OSError as exc:

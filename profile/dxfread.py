@@ -37,6 +37,7 @@ from .core import (
     DrawingAlignment,
     DrawingProfile,
     Projector,
+    checked_stat,
     project_polyline,
     warn,
 )
@@ -111,18 +112,19 @@ _REPAIRED_WARNED: set[tuple[str, int]] = set()
 _CUT_SHORT: weakref.WeakSet = weakref.WeakSet()  # drawings whose file ends before its EOF
 
 
+def open_layer(path: Path, options: Mapping[str, Any], label: str):
+    """(warnings list, document, drawing units to ft, layer name) for a reader of one layer."""
+    messages: list[str] = []
+    doc = open_dxf(path, label, messages)
+    return messages, doc, unit_factor(doc, options, label), options["layer"]
+
+
 def open_dxf(path: Path, label: str, messages: list[str] | None = None):
     """The recovered ezdxf document of ``path`` (cached while the file is unchanged).
 
     A drawing that needed repairs gives one warning per file (into ``messages``)."""
-    try:
-        st = path.stat()
-    except OSError as exc:
-        raise ProfileError(f"cannot be read ({exc.strerror})", file=label) from None
-    if st.st_size > MAX_DXF_BYTES:
-        raise ProfileError(f"is {st.st_size / 2**20:.0f} MiB; the limit for a drawing is "
-                           f"{MAX_DXF_BYTES // 2**20} MiB - export only the layers the walls "
-                           "need (e.g. with a layer filter or a cleaned-up copy)", file=label)
+    st = checked_stat(path, label, MAX_DXF_BYTES, "a drawing", "export only the layers the "
+                      "walls need (e.g. with a layer filter or a cleaned-up copy)")
     try:
         raw = path.read_bytes()
     except OSError as exc:
@@ -394,10 +396,7 @@ def orient(xy: np.ndarray, start: Any, *, label: str, where: str) -> np.ndarray:
 
 def read_alignment_dxf(path: Path, options: Mapping[str, Any], label: str) -> DrawingAlignment:
     """A wall alignment from the LWPOLYLINE/POLYLINE/LINE/ARC entities of one layer."""
-    messages: list[str] = []
-    doc = open_dxf(path, label, messages)
-    scale = unit_factor(doc, options, label)
-    layer = options["layer"]
+    messages, doc, scale, layer = open_layer(path, options, label)
     where = f"layer {layer}"
     found, on_layer = layer_entities(doc, layer, label)
     skipped = len(on_layer) - len(found)
@@ -489,10 +488,7 @@ def check_grade_gaps(spans: list[tuple[float, float, str]], start: float, end: f
 def read_plan_grade(path: Path, options: Mapping[str, Any], label: str, *,
                     alignment: Alignment, start_station_ft: float) -> DrawingProfile:
     """A grade from 3D polylines (or 2D ones with an elevation) drawn in plan on a layer."""
-    messages: list[str] = []
-    doc = open_dxf(path, label, messages)
-    scale = unit_factor(doc, options, label)
-    layer = options["layer"]
+    messages, doc, scale, layer = open_layer(path, options, label)
     lab = f"{label} [layer {layer}]"
     found, on_layer = layer_entities(doc, layer, label)
     max_off = float(options.get("max_offset_ft", MAX_OFFSET_FT))
@@ -531,10 +527,7 @@ def read_profile_view(path: Path, options: Mapping[str, Any], label: str) -> Dra
     ``origin_elevation_ft + (y - y0) / vertical_exaggeration``, with (x0, y0) the
     ``origin_xy`` option (default 0, 0), in drawing units converted to feet.
     """
-    messages: list[str] = []
-    doc = open_dxf(path, label, messages)
-    scale = unit_factor(doc, options, label)
-    layer = options["layer"]
+    messages, doc, scale, layer = open_layer(path, options, label)
     lab = f"{label} [layer {layer}]"
     found, _ = layer_entities(doc, layer, label)
     x0, y0 = (float(v) * scale for v in options.get("origin_xy", (0.0, 0.0)))

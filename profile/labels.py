@@ -29,8 +29,7 @@ from .dxfread import (
     MAX_OFFSET_FT,
     build_profile,
     layer_entities,
-    open_dxf,
-    unit_factor,
+    open_layer,
 )
 
 LABEL_KINDS = ("TW", "BW")
@@ -98,10 +97,7 @@ def _listed(items: list[str]) -> str:
 def read_label_grade(path: Path, options: Mapping[str, Any], label: str, *,
                      alignment: Alignment, start_station_ft: float) -> DrawingProfile:
     """The TW (retained grade) or BW (front grade) profile from spot labels on a layer."""
-    messages: list[str] = []
-    doc = open_dxf(path, label, messages)
-    scale = unit_factor(doc, options, label)
-    layer = options["layer"]
+    messages, doc, scale, layer = open_layer(path, options, label)
     kind = str(options["labels"]).upper()
     lab = f"{label} [layer {layer}, {kind} labels]"
     try:

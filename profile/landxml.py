@@ -34,7 +34,7 @@ from typing import Any
 import numpy as np
 
 from ..errors import ProfileError
-from .core import DrawingAlignment, DrawingProfile, warn
+from .core import DrawingAlignment, DrawingProfile, checked_stat, warn
 from .csvread import alignment_from_xy
 
 MAX_LANDXML_BYTES = 200 * 1024 * 1024  # larger files are refused unread (stated in README)
@@ -185,14 +185,8 @@ def load_document(path: str, mtime_ns: int, size: int, label: str) -> Document:
 
 def open_landxml(path: Path, label: str) -> Document:
     """The parsed file (cached while it is unchanged)."""
-    try:
-        st = path.stat()
-    except OSError as exc:
-        raise ProfileError(f"cannot be read ({exc.strerror})", file=label) from None
-    if st.st_size > MAX_LANDXML_BYTES:
-        raise ProfileError(f"is {st.st_size / 2**20:.0f} MiB; the limit for a LandXML file is "
-                           f"{MAX_LANDXML_BYTES // 2**20} MiB - export only the alignments and "
-                           "surfaces the walls need", file=label)
+    st = checked_stat(path, label, MAX_LANDXML_BYTES, "a LandXML file",
+                      "export only the alignments and surfaces the walls need")
     try:
         return load_document(str(path), st.st_mtime_ns, st.st_size, label)
     except OSError as exc:
