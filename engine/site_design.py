@@ -326,7 +326,7 @@ def _quantity_totals(walls: Sequence[WallDesign]):
     return quantity_totals(pd.concat(frames, ignore_index=True))
 
 
-def _groups(items: Sequence, chunks: int) -> list[list]:
+def work_groups(items: Sequence, chunks: int) -> list[list]:
     """``items`` cut into at most ``chunks`` runs of neighbours of about equal size."""
     chunks = max(1, min(chunks, len(items)))
     edges = np.linspace(0, len(items), chunks + 1).round().astype(int)
@@ -372,7 +372,7 @@ def design_site(walls: Sequence[WallToDesign], grid: SizingGrid, rates: CostRate
         return out
 
     designs: list[WallDesign] = []
-    for got in (map_fn or map)(design_group, _groups(walls, chunks)):
+    for got in (map_fn or map)(design_group, work_groups(walls, chunks)):
         designs.extend(got)
         if progress is not None:
             progress(len(got))
@@ -383,7 +383,7 @@ def design_site(walls: Sequence[WallToDesign], grid: SizingGrid, rates: CostRate
         return [detailed(d, by_wall[d.wall].inputs, rates,
                          by_wall[d.wall].criteria) for d in group]
 
-    out = tuple(d for got in (map_fn or map)(detail_group, _groups(designs, chunks))
+    out = tuple(d for got in (map_fn or map)(detail_group, work_groups(designs, chunks))
                 for d in got)
     out, marked, barlist = _bar_marks(out)
     inputs = {wall.wall: wall.inputs for wall in walls}

@@ -7,7 +7,7 @@ hold; nothing is computed here.
 from __future__ import annotations
 
 import math
-from dataclasses import fields as _fields
+from dataclasses import fields
 
 from ..profile.stationing import format_station
 from .report_checks import check_texts, num_text
@@ -260,7 +260,7 @@ def _loads_table(wr, case) -> None:
              "soil_batter": "soil over battered face", "soil_toe": "soil over toe",
              "surcharge": "surcharge over heel (live)"}
     wt = case.weights
-    for fld in _fields(wt):
+    for fld in fields(wt):
         k = fld.name
         wgt = getattr(wt, k)
         if wgt is None or not hasattr(wgt, "arm_ft"):

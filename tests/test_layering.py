@@ -4,7 +4,8 @@
   errors module (``wallsched/errors.py``);
 - ``exporters/`` import from the engine only its result types (``engine/model.py``) and from the
   hub only ``errors``, ``cautions`` and the version (``wallsched/__init__.py``);
-- no import cycle anywhere, counting the imports inside functions too.
+- no import cycle anywhere, counting the imports inside functions too;
+- no private name imported from another module.
 """
 
 from __future__ import annotations
@@ -177,3 +178,29 @@ def test_a_pressure_model_imports_only_the_pressure_package():
            if not t.startswith(pkg + ".") or t.startswith(pkg + ".models.")
            or t in (pkg + ".registry", pkg + ".thrust")]
     assert not bad, "\n".join(bad)
+
+
+def _private_names_taken() -> list[str]:
+    """``from <a wallsched module> import _name`` anywhere: a private name used across modules."""
+    out = []
+    for module, path in MODULES.items():
+        tree = ast.parse(path.read_text(encoding="utf-8"), filename=str(path))
+        for node in ast.walk(tree):
+            if isinstance(node, ast.ImportFrom) and _resolve(module, node):
+                out += [f"{module} takes {a.name}" for a in node.names
+                        if a.name.startswith("_") and not a.name.startswith("__")]
+    return out
+
+
+def test_no_private_name_is_imported_across_modules(tmp_path):
+    assert not _private_names_taken(), "\n".join(_private_names_taken())
+    # the finder itself: a module that takes a private name is found
+    global MODULES
+    saved = MODULES
+    probe = tmp_path / "probe.py"
+    probe.write_text("from .base import _hidden\n", encoding="utf-8")
+    try:
+        MODULES = {**saved, "wallsched.engine.pressure.probe": probe}
+        assert _private_names_taken() == ["wallsched.engine.pressure.probe takes _hidden"]
+    finally:
+        MODULES = saved

@@ -69,13 +69,13 @@ def parallel_segmenting_bytes(walls: list[tuple[int, int, int]]) -> float:
     """:func:`segmenting_bytes` of the groups of walls the design plans side by side in
     worker processes (``wallsched.design``: up to ``2 x workers`` groups of neighbouring
     walls, ``workers`` at a time): the sum over the largest groups that run together."""
-    from .engine.site_design import _groups  # the design's own grouping
+    from .engine.site_design import work_groups  # the design's own grouping
     from .parallel import worker_count
 
     if not walls:
         return 0.0
     workers = worker_count(len(walls))
-    groups = _groups(walls, 1 if workers <= 1 else 2 * workers)
+    groups = work_groups(walls, 1 if workers <= 1 else 2 * workers)
     each = sorted((segmenting_bytes(g) for g in groups), reverse=True)
     return float(sum(each[:max(1, workers)]))
 

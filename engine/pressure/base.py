@@ -14,7 +14,8 @@ import numpy as np
 WATER_PCF = 62.4  # unit weight of water, common practice
 
 
-def _a(x):
+def floats(x):
+    """``x`` as a float array (the pressure functions broadcast over sections)."""
     return np.asarray(x, dtype=float)
 
 

@@ -7,7 +7,7 @@ from __future__ import annotations
 
 import numpy as np
 
-from .base import _a
+from .base import floats
 
 
 def rankine_ka(phi_deg):
@@ -36,8 +36,8 @@ def rankine_ka_sloping(phi_deg, beta_deg):
     >>> round(float(rankine_ka_sloping(30.0, 20.0)), 4)
     0.4142
     """
-    cb = np.cos(np.radians(_a(beta_deg)))
-    cp = np.cos(np.radians(_a(phi_deg)))
+    cb = np.cos(np.radians(floats(beta_deg)))
+    cp = np.cos(np.radians(floats(phi_deg)))
     with np.errstate(invalid="ignore"):
         r = np.sqrt(cb * cb - cp * cp)
     return cb * (cb - r) / (cb + r)
@@ -53,7 +53,7 @@ def coulomb_ka(phi_deg, delta_deg, beta_deg=0.0, theta_deg=0.0):
     >>> round(float(coulomb_ka(30.0, 20.0)), 4)
     0.2973
     """
-    p, d, b, t = (np.radians(_a(v)) for v in (phi_deg, delta_deg, beta_deg, theta_deg))
+    p, d, b, t = (np.radians(floats(v)) for v in (phi_deg, delta_deg, beta_deg, theta_deg))
     with np.errstate(invalid="ignore"):
         root = np.sqrt(np.sin(p + d) * np.sin(p - b) / (np.cos(t + d) * np.cos(t - b)))
     return np.cos(p - t) ** 2 / (np.cos(t) ** 2 * np.cos(t + d) * (1.0 + root) ** 2)
@@ -69,8 +69,8 @@ def mononobe_okabe_kae(phi_deg, delta_deg, kh, beta_deg=0.0, theta_deg=0.0, kv=0
     >>> round(float(mononobe_okabe_kae(30.0, 0.0, 0.2)), 4)
     0.4733
     """
-    p, d, b, t = (np.radians(_a(v)) for v in (phi_deg, delta_deg, beta_deg, theta_deg))
-    psi = np.arctan(_a(kh) / (1.0 - _a(kv)))
+    p, d, b, t = (np.radians(floats(v)) for v in (phi_deg, delta_deg, beta_deg, theta_deg))
+    psi = np.arctan(floats(kh) / (1.0 - floats(kv)))
     with np.errstate(invalid="ignore"):
         root = np.sqrt(np.sin(p + d) * np.sin(p - b - psi)
                        / (np.cos(d + t + psi) * np.cos(b - t)))

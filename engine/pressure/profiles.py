@@ -10,7 +10,7 @@ from __future__ import annotations
 
 import numpy as np
 
-from .base import WATER_PCF, _a
+from .base import WATER_PCF, floats
 
 
 def soil_profile(k, gamma_pcf, height_ft, water_height_ft=0.0, water_pcf=WATER_PCF,
@@ -22,8 +22,8 @@ def soil_profile(k, gamma_pcf, height_ft, water_height_ft=0.0, water_pcf=WATER_P
     Dry depth a = h - hw, submerged depth hw:
     F = K [g a^2/2 + g a hw + g' hw^2/2];  M = K [g a^2/2 (hw + a/3) + g a hw^2/2 + g' hw^3/6].
     """
-    h = np.maximum(_a(height_ft), 0.0)
-    hw = np.clip(_a(water_height_ft), 0.0, h)
+    h = np.maximum(floats(height_ft), 0.0)
+    hw = np.clip(floats(water_height_ft), 0.0, h)
     a = h - hw
     g = gamma_pcf
     gb = (gamma_pcf if gamma_sat_pcf is None else gamma_sat_pcf) - water_pcf
@@ -34,13 +34,13 @@ def soil_profile(k, gamma_pcf, height_ft, water_height_ft=0.0, water_pcf=WATER_P
 
 def water_profile(height_ft, water_height_ft, water_pcf=WATER_PCF):
     """Hydrostatic water pressure below the level: F = gw hw^2/2 at hw/3."""
-    hw = np.clip(_a(water_height_ft), 0.0, np.maximum(_a(height_ft), 0.0))
+    hw = np.clip(floats(water_height_ft), 0.0, np.maximum(floats(height_ft), 0.0))
     return water_pcf * hw * hw / 2.0, water_pcf * hw ** 3 / 6.0
 
 
 def uniform_profile(p_psf, height_ft):
     """A uniform pressure p over the plane: F = p h at h/2."""
-    h = np.maximum(_a(height_ft), 0.0)
+    h = np.maximum(floats(height_ft), 0.0)
     return p_psf * h, p_psf * h * h / 2.0
 
 
@@ -55,14 +55,14 @@ def strip_pressure_psf(pressure_psf, offset_ft, width_ft, depth_ft):
     chapter 3 Fig. 11; from memory). Written as (2q/pi)[f(a+b) - f(a)] with
     f(x) = atan(x/z) - x z / (x^2 + z^2).
     """
-    z = _a(depth_ft)
+    z = floats(depth_ft)
 
     def f(x):
         with np.errstate(divide="ignore", invalid="ignore"):
             return np.where(z > 0, np.arctan2(x, z) - x * z / (x * x + z * z),
                             np.where(x > 0, np.pi / 2.0, 0.0))
 
-    a, b = _a(offset_ft), _a(width_ft)
+    a, b = floats(offset_ft), floats(width_ft)
     return 2.0 * pressure_psf / np.pi * (f(a + b) - f(a))
 
 
@@ -73,8 +73,8 @@ def strip_profile(pressure_psf, offset_ft, width_ft, height_ft):
     form of Jarquio (1981), from memory) and int_0^h f z dz = h^2/2 atan(x/h) - x h/2
     + x^2/2 atan(h/x), so M = (2q/pi) [h G1(h) - G2(h)] differenced between x = a+b and a.
     """
-    h = np.maximum(_a(height_ft), 0.0)
-    a, b = _a(offset_ft), _a(width_ft)
+    h = np.maximum(floats(height_ft), 0.0)
+    a, b = floats(offset_ft), floats(width_ft)
 
     def g1(x):  # int_0^h f dz
         return h * np.arctan2(x, h)
@@ -94,8 +94,8 @@ def seismic_profile(total_lb, plane_height_ft, cut_depth_ft=None):
     bottom gives the 0.6 Hp arm). Returns the force and moment (about the cut) of the part
     of the diagram above ``cut_depth_ft`` below the top (default: the whole plane).
     """
-    Hp = _a(plane_height_ft)
-    z = Hp if cut_depth_ft is None else np.clip(_a(cut_depth_ft), 0.0, Hp)
+    Hp = floats(plane_height_ft)
+    z = Hp if cut_depth_ft is None else np.clip(floats(cut_depth_ft), 0.0, Hp)
     with np.errstate(divide="ignore", invalid="ignore"):
         p1 = np.where(Hp > 0, 1.6 * total_lb / Hp, 0.0)
         p0 = np.where(Hp > 0, 0.4 * total_lb / Hp, 0.0)

@@ -15,7 +15,7 @@ import dataclasses
 import numpy as np
 
 from .active import level_soil_component
-from .base import EarthPressure, Plane, Thrust, _a
+from .base import EarthPressure, Plane, Thrust, floats
 from .coefficients import rankine_kp
 from .models import seismic
 from .models.surcharge import level_surcharge_component
@@ -107,7 +107,7 @@ def stem_shear_moment(geom, inputs, pressure: EarthPressure, depth_ft, *, live=T
     """Service horizontal shear and moment on the stem ``depth_ft`` below the retained grade
     (the pressure on the stem itself), the static models' parts summed in order (``live`` =
     False leaves out the live surcharge and the strip loads)."""
-    z = np.maximum(_a(depth_ft), 0.0)
+    z = np.maximum(floats(depth_ft), 0.0)
     level = is_level(inputs)
     parts = []
     for m in in_use(inputs):

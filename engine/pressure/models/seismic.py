@@ -11,7 +11,7 @@ import math
 
 import numpy as np
 
-from ..base import EarthPressure, ModelBase, ThrustComponent, _a
+from ..base import EarthPressure, ModelBase, ThrustComponent, floats
 from ..coefficients import mononobe_okabe_kae
 from ..planes import stem_face_x_at_grade, thrust_plane_height_ft, virtual_back_height_ft
 from ..profiles import seismic_profile
@@ -76,9 +76,9 @@ def soil_inertia_parts(geom, inputs):
     a2 = cy = 0.0
     for k in range(4):
         (x1, y1), (x2, y2) = pts[k], pts[(k + 1) % 4]
-        cr = _a(x1) * _a(y2) - _a(x2) * _a(y1)
+        cr = floats(x1) * floats(y2) - floats(x2) * floats(y1)
         a2 = a2 + cr
-        cy = cy + (_a(y1) + _a(y2)) * cr
+        cy = cy + (floats(y1) + floats(y2)) * cr
     has = (H > T) & (np.abs(a2) > 1e-14)
     with np.errstate(divide="ignore", invalid="ignore"):
         y = np.where(has, cy / (3.0 * np.where(has, a2, 1.0)), 0.0)
@@ -131,7 +131,7 @@ def stem_shear_moment(geom, inputs, pressure: EarthPressure, depth_ft):
         kae = float(mononobe_okabe_kae(inputs.soil.friction_angle_deg, p.inclination_deg, sz.kh,
                                        p.backslope_deg))
         tot = 0.5 * (kae - p.ka) * g * hs * hs * p.cos_inclination
-    z = np.clip(_a(depth_ft), 0.0, hs)
+    z = np.clip(floats(depth_ft), 0.0, hs)
     v, m = seismic_profile(tot, hs, z)
     # stem inertia above the cut: a trapezoid of thickness t_y (cut) to t_top over L
     hst = geom.stem_height_ft
