@@ -11,7 +11,7 @@ from pathlib import Path
 
 import click
 
-from . import __version__
+from . import __version__, allocator
 from .cautions import EPILOG
 from .errors import InputError
 from .outdir import Stopped, install_signal_handlers, restore_signal_handlers
@@ -21,6 +21,7 @@ class WallGroup(click.Group):
     """Maps InputError (and a command's usage error) to one line on stderr and exit code 2."""
 
     def invoke(self, ctx):
+        allocator.tune()
         handlers = install_signal_handlers()
         try:
             return super().invoke(ctx)
