@@ -118,8 +118,12 @@ def write_design(site, sd, out: Path, *, drawings: bool = True, compare_dir=None
 
     stages = stages or QUIET
     run = run_info(site)
-    with stages.stage("writing tables"):
+    def write_stations():
         write_csv(stations_frame(sd.walls), out / "stations.csv")
+
+    with stages.stage("writing tables"):
+        if compare_dir is not None:  # the comparison reads the stations back
+            write_stations()
         schedule = write_schedule(sd.walls, out, sd.warnings)
         write_rebar_csv(sd.bars, out / "rebar.csv", float_format=FLOAT_FORMAT)
         if sd.barlist is not None:
@@ -142,6 +146,9 @@ def write_design(site, sd, out: Path, *, drawings: bool = True, compare_dir=None
         lines += d.summary_lines()
     tasks = output_tasks(run, sd, out, diff=d, drawings=drawings,
                          drawing=getattr(site, "drawing", None))
+    if compare_dir is None:  # a long table: written beside the drawings
+        tasks.append(Task("stations table", write_stations,
+                          weight=1.0 + sum(len(w.stations) for w in sd.walls) / 2e3))
     tasks.append(Task("workbook", lambda: write_xlsx(
         schedule, sd.bars, sd.quantity_totals, out / "schedule.xlsx", run.site_name,
         barlist=sd.barlist), weight=1.0 + len(sd.bars) / 1e3))
