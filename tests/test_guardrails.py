@@ -5,6 +5,7 @@ from __future__ import annotations
 from pathlib import Path
 
 import numpy as np
+import pandas as pd
 from sitekit import SOIL, make_site
 
 from wallsched.cli import main
@@ -57,3 +58,23 @@ def test_stations_prints_the_warnings(runner, tmp_path: Path):
     warns = [ln for ln in res.stdout.splitlines() if ln.startswith("warning: ")]
     assert any("friction_coefficient 0.8 is above 0.7" in w for w in warns)
     assert any("retained height changes by" in w and "0+40.00 and 0+45.00" in w for w in warns)
+
+
+def test_plain_key_with_a_seismic_case(runner, tmp_path: Path):
+    # ACI 318-19 14.1.4 (from memory): plain concrete is restricted in Seismic Design
+    # Categories D-F; the engine checks the key as plain concrete (engine/key.py), so a keyed
+    # wall with a [seismic] case is flagged, and the same wall without one is not
+    soil = SOIL.replace("friction_coefficient = 0.40", "friction_coefficient = 0.30")
+    top = ((0, 100.0), (40, 110.0), (100, 108.0))  # about 11 ft retained: sliding governs
+    lines = {}
+    for name, extra in (("seismic", "\n[seismic]\nkh = 0.2\n"), ("static", "")):
+        site = make_site(tmp_path / name, soil=soil, extra=extra, top=top)
+        res = runner.invoke(main, ["design", str(site), "--out", str(tmp_path / name / "o"),
+                                   "--no-drawings"])
+        assert res.exit_code == 0, res.output
+        sched = pd.read_csv(tmp_path / name / "o" / "schedule.csv")
+        assert (sched["key_depth_in"] > 0).any()  # the sizing chose a key in both
+        lines[name] = [ln for ln in res.stdout.splitlines() if "plain-concrete shear key" in ln]
+    assert len(lines["seismic"]) == 1 and "wall 'A'" in lines["seismic"][0]
+    assert "Seismic Design Categories D, E and F" in lines["seismic"][0]
+    assert lines["static"] == []

@@ -33,7 +33,7 @@ def design(ctx, site_file: Path, out_dir: Path, compare_dir: Path | None, replac
     """
     from .budget import check_budget
     from .design import design_site, previous_run
-    from .guardrails import site_warnings
+    from .guardrails import plain_key_warnings, site_warnings
     from .outdir import claim_output, staged_output
     from .pipeline import collect_warnings, site_stations, write_design
     from .site import load_site
@@ -58,6 +58,7 @@ def design(ctx, site_file: Path, out_dir: Path, compare_dir: Path | None, replac
         sd = design_site(site, walls, progress=tick, previous=previous)
     sd.warnings.extend(warns)
     sd.warnings.extend(site_warnings(site, walls))
+    sd.warnings.extend(plain_key_warnings(sd))
     with staged_output(out_dir, replace=replace, protect=site.input_files(),
                        warn=_warn(quiet)) as tmp:
         summary = write_design(site, sd, tmp, drawings=not no_drawings, compare_dir=compare_dir,

@@ -17,7 +17,10 @@ commands print with the other warnings. The limits are trade judgement, stated h
   may be swapped there);
 - a ``[soil] source`` that calls itself a placeholder (values not from a report);
 - a wall end still retaining more than ``end_height_warn_ft`` (``[criteria]``; a return wall
-  or a turn-down is needed where the alignment stops).
+  or a turn-down is needed where the alignment stops);
+- a plain-concrete shear key on a wall with a ``[seismic]`` case: ACI 318-19 14.1.4 restricts
+  plain concrete in Seismic Design Categories D, E and F (from memory), and the site file does
+  not say the category, so the engineer confirms it or reinforces the key.
 """
 
 from __future__ import annotations
@@ -176,3 +179,26 @@ def site_warnings(site, walls) -> list[str]:
         lines += short_wall_warning(ws.wall, ws.station_ft, ws.retained_height_ft,
                                     c["min_retained_height_ft"], c["segment_min_ft"])
     return lines
+
+
+def plain_key_warnings(sd) -> list[str]:
+    """One line per wall with a ``[seismic]`` case whose segments have a shear key, which the
+    engine checks as plain concrete (engine/key.py): ACI 318-19 14.1.4 restricts plain concrete
+    in Seismic Design Categories D, E and F (from memory)."""
+    lines = []
+    for w in sd.walls:
+        if sd.inputs[w.wall].loads.seismic is None:
+            continue
+        keyed = [s.segment for s in w.segments if s.section is not None and s.section.has_key]
+        if keyed:
+            lines.append(
+                f"wall {w.wall!r}: {len(keyed)} segment(s) ({_first(keyed)}) have a "
+                "plain-concrete shear key and the wall has a [seismic] case; ACI 318-19 14.1.4 "
+                "restricts plain concrete in Seismic Design Categories D, E and F: confirm the "
+                "category permits it, or reinforce the key")
+    return lines
+
+
+def _first(ids: Sequence[str], most: int = 4) -> str:
+    more = f" and {len(ids) - most} more" if len(ids) > most else ""
+    return ", ".join(ids[:most]) + more
