@@ -44,24 +44,6 @@ def natural_key(text: str) -> tuple:
 REBAR_COLUMNS = ["wall", "segment", "mark", "size", "spacing_in", "count", "length_ft", "shape",
                  "weight_lb"]
 
-# what each bar mark of the bar list is (engine/detailing.py makes the rows)
-BAR_MARK_DESCRIPTIONS = {
-    "S1": "stem vertical, earth face, hooked into footing",
-    "S2": "stem vertical, earth face, lapped on dowel D1",
-    "D1": "dowel, hooked in footing, Class B lap into stem",
-    "F1": "heel top bars, transverse",
-    "F2": "toe bottom bars, transverse",
-    "L1": "footing longitudinal, top mat",
-    "L2": "footing longitudinal, bottom mat",
-    "H1": "stem horizontal, earth face",
-    "H2": "stem horizontal, front face",
-}
-
-
-def describe(mark: str) -> str:
-    """What a bar mark is ("" for a mark the bar list does not use)."""
-    return BAR_MARK_DESCRIPTIONS.get(mark, "")
-
 
 class StationSeries(Protocol):
     """The sampled stations of one wall as the engine reads them (``profile.WallStations``)."""

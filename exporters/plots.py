@@ -175,6 +175,10 @@ def finish(fig) -> None:
     setattr(fig, _DRAWN, True)
 
 
+# zlib level 3: about half the encoding time of the default 6 for 3-7 % larger files
+PNG_OPTIONS = {"compress_level": 3}
+
+
 def save(fig, path) -> Path:
     """Save ``fig`` to ``path`` (PNG) and close it: the pixels :func:`finish` drew, or a
     fresh draw of a figure it did not finish."""
@@ -186,9 +190,9 @@ def save(fig, path) -> Path:
         if getattr(fig, _DRAWN, False) and not fig.stale:
             # what savefig writes, without drawing the figure again
             imsave(path, fig.canvas.buffer_rgba(), format="png", origin="upper", dpi=DPI,
-                   metadata={"Software": None})
+                   metadata={"Software": None}, pil_kwargs=PNG_OPTIONS)
         else:
-            fig.savefig(path, dpi=DPI, metadata={"Software": None})
+            fig.savefig(path, dpi=DPI, metadata={"Software": None}, pil_kwargs=PNG_OPTIONS)
     finally:
         plt.close(fig)
     return path

@@ -1,4 +1,5 @@
-"""``rebar.csv`` (and a bar-list sheet for ``schedule.xlsx``) from the engine's bar list.
+"""``rebar.csv`` from the engine's bar list (the workbook's "bar list" sheet is written by
+exporters/schedule.py from the same frame).
 
 Columns (DESIGN.md section 5): ``wall, segment, mark, size, spacing_in, count, length_ft, shape,
 weight_lb``. ``mark`` is the bar mark (S1, D1, S2, F1, F2, L1, L2, H1, H2; see
@@ -14,7 +15,7 @@ from pathlib import Path
 
 import pandas as pd
 
-from ..engine.model import REBAR_COLUMNS, describe
+from ..engine.model import REBAR_COLUMNS
 
 FILE_NAME = "rebar.csv"
 
@@ -44,18 +45,3 @@ def write_rebar_csv(bars_or_designs, path, *, float_format: str | None = None) -
         path = path / FILE_NAME
     bars.to_csv(path, index=False, lineterminator="\n", float_format=float_format)
     return bars
-
-
-def write_rebar_sheet(writer: pd.ExcelWriter, bars: pd.DataFrame,
-                      sheet_name: str = "bar list") -> None:
-    """Add the bar list (with a description column and totals per wall) to an open workbook."""
-    frame = bars[REBAR_COLUMNS].copy()
-    frame["description"] = [describe(m) for m in frame["mark"]]
-    rows = [frame]
-    for wall, g in bars.groupby("wall", sort=False):
-        rows.append(pd.DataFrame([{"wall": wall, "segment": "TOTAL", "count": int(g["count"].sum()),
-                                   "weight_lb": float(g["weight_lb"].sum())}]))
-    rows.append(pd.DataFrame([{"wall": "SITE", "segment": "TOTAL",
-                               "count": int(bars["count"].sum()),
-                               "weight_lb": float(bars["weight_lb"].sum())}]))
-    pd.concat(rows, ignore_index=True).to_excel(writer, sheet_name=sheet_name, index=False)

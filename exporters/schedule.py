@@ -133,40 +133,68 @@ def write_schedule(walls, out: Path, warnings=()) -> pd.DataFrame:
 def write_xlsx(schedule: pd.DataFrame, bars: pd.DataFrame, quantities: pd.DataFrame | None,
                path: Path, site_name: str, *, barlist: pd.DataFrame | None = None) -> None:
     """The schedule (and bar list, quantities) as a workbook formatted for printing: units in
-    the header row, the cautions in the page footer and below the table."""
-    from openpyxl.styles import Alignment, Font
-    from openpyxl.utils import get_column_letter
+    the header row, the cautions in the page footer and below the table.
+
+    Written row by row (openpyxl's write-only workbook: the rows are streamed, not kept as
+    cells): a sheet's title in row 1, the header with units in row 2, the rows from row 3,
+    one empty row, then the cautions; an empty value (NaN, None) is an empty cell."""
+    from openpyxl import Workbook
 
     sheets = [("schedule", schedule), ("bar list", bars)]
     if barlist is not None:
         sheets.append(("bending schedule", barlist))
     if quantities is not None:
         sheets.append(("quantities", quantities))
-    with pd.ExcelWriter(path, engine="openpyxl") as xw:
-        for name, frame in sheets:
-            frame.to_excel(xw, sheet_name=name, index=False, startrow=1)
-            ws = xw.sheets[name]
-            ws.cell(row=1, column=1, value=f"{site_name} - {name}").font = Font(bold=True)
-            for j, col in enumerate(frame.columns, 1):
-                unit = UNITS.get(col, "")
-                cell = ws.cell(row=2, column=j, value=f"{col} [{unit}]" if unit else col)
-                cell.font = Font(bold=True)
-                cell.alignment = Alignment(wrap_text=True, vertical="top")
-                ws.column_dimensions[get_column_letter(j)].width = max(9, min(24, len(col) + 2))
-            r = len(frame) + 4
-            for line in CAUTIONS:
-                ws.cell(row=r, column=1, value=line).font = Font(italic=True, size=8)
-                r += 1
-            ws.print_title_rows = "2:2"
-            ws.page_setup.orientation = "landscape"
-            ws.page_setup.fitToWidth = 1
-            ws.page_setup.fitToHeight = 0
-            ws.sheet_properties.pageSetUpPr.fitToPage = True
-            ws.oddFooter.left.text = CAUTIONS[0] + " " + CAUTIONS[2]
-            ws.oddFooter.left.size = 7
-            ws.oddFooter.right.text = "page &P of &N"
-            ws.freeze_panes = "C3"
+    wb = Workbook(write_only=True)
+    for name, frame in sheets:
+        _sheet(wb.create_sheet(name), frame, f"{site_name} - {name}")
+    wb.save(path)
     _fix_workbook_times(path)
+
+
+def _sheet(ws, frame: pd.DataFrame, title: str) -> None:
+    from openpyxl.cell import WriteOnlyCell
+    from openpyxl.styles import Alignment, Font
+    from openpyxl.utils import get_column_letter
+
+    def cell(value, **style):
+        c = WriteOnlyCell(ws, value=value)
+        for k, v in style.items():
+            setattr(c, k, v)
+        return c
+
+    for j, col in enumerate(frame.columns, 1):
+        ws.column_dimensions[get_column_letter(j)].width = max(9, min(24, len(col) + 2))
+    ws.print_title_rows = "2:2"
+    ws.page_setup.orientation = "landscape"
+    ws.page_setup.fitToWidth = 1
+    ws.page_setup.fitToHeight = 0
+    ws.sheet_properties.pageSetUpPr.fitToPage = True
+    ws.oddFooter.left.text = CAUTIONS[0] + " " + CAUTIONS[2]
+    ws.oddFooter.left.size = 7
+    ws.oddFooter.right.text = "page &P of &N"
+    ws.freeze_panes = "C3"
+    bold, head = Font(bold=True), Alignment(wrap_text=True, vertical="top")
+    ws.append([cell(title, font=bold)])
+    ws.append([cell(f"{col} [{UNITS[col]}]" if UNITS.get(col) else col, font=bold,
+                    alignment=head) for col in frame.columns])
+    for row in zip(*(_cell_values(frame[c]) for c in frame.columns), strict=True):
+        ws.append(row)
+    ws.append([])
+    small = Font(italic=True, size=8)
+    for line in CAUTIONS:
+        ws.append([cell(line, font=small)])
+
+
+def _cell_values(col: pd.Series) -> list:
+    """A column as plain Python values, None where it is empty (NaN, None, NA)."""
+    values = col.tolist()
+    if isinstance(col.dtype, np.dtype) and col.dtype.kind in "iub":  # never empty
+        return values
+    empty = col.isna().to_numpy()
+    if empty.any():
+        values = [None if e else v for v, e in zip(values, empty, strict=True)]
+    return values
 
 
 def _fix_workbook_times(path: Path) -> None:
