@@ -43,10 +43,16 @@ def _bar(spec):
     if spec is None:
         return None
     if isinstance(spec, str):
-        b = parse_bars(spec)
-        return b.size, b.spacing_in
+        return _parsed(spec)
     size, spacing = spec
     return int(size), float(spacing)
+
+
+@lru_cache(maxsize=256)
+def _parsed(text: str) -> tuple[int, float]:
+    """(size, spacing) of bar notation, read once per distinct text."""
+    b = parse_bars(text)
+    return b.size, b.spacing_in
 
 
 def _polygon(pts):

@@ -22,6 +22,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass
+from functools import cached_property
 
 import numpy as np
 
@@ -163,18 +164,24 @@ class SectionChecks:
         rows = [r for r in self.rows if not is_detailing(r.name)]
         return rows or list(self.rows)
 
+    # the three below are computed once per result (cached_property writes the instance's
+    # own dict, which the frozen dataclass allows; replace() makes a result without them)
+    @cached_property
+    def _governing(self) -> tuple[np.ndarray, np.ndarray]:
+        return self._largest(self._strength_rows())
+
     @property
     def governing(self) -> np.ndarray:
         """Name of the stability or strength row with the largest ratio (NaN rows win: they
         fail); detailing rows (:func:`is_detailing`) never govern."""
-        return self._largest(self._strength_rows())[0]
+        return self._governing[0]
 
     @property
     def governing_ratio(self) -> np.ndarray:
         """The ratio of the governing row (inf where it is NaN)."""
-        return self._largest(self._strength_rows())[1]
+        return self._governing[1]
 
-    @property
+    @cached_property
     def worst(self) -> np.ndarray:
         """Name of the row with the largest ratio of all, detailing rows included (the
         reason a failing section gives)."""

@@ -107,10 +107,11 @@ def audit_stations(inputs, sec: SectionDims, h, emb, fb, res: SectionChecks, wal
     bars = {"stem": str(sec.stem_bars), "heel": str(sec.heel_bars), "toe": str(sec.toe_bars),
             "horizontal": str(sec.horizontal_bars), "longitudinal": str(sec.footing_long_bars),
             "heel_hooked": sec.heel_hooked, "toe_hooked": sec.toe_hooked}
-    ratios = np.stack([np.broadcast_to(np.asarray(r.ratio, float), res.shape).reshape(-1)
-                       for r in res.rows])
-    row_passes = np.stack([np.broadcast_to(np.asarray(r.passes, bool), res.shape).reshape(-1)
-                           for r in res.rows])
+    ratios = np.empty((len(res.rows),) + tuple(res.shape))
+    row_passes = np.empty(ratios.shape, bool)
+    for c, r in enumerate(res.rows):  # a row of the section alone is one value: broadcast
+        ratios[c], row_passes[c] = r.ratio, r.passes
+    ratios, row_passes = ratios.reshape(len(res.rows), -1), row_passes.reshape(len(res.rows), -1)
     passes = np.broadcast_to(np.asarray(res.passes, bool), res.shape).reshape(-1)
     chosen = select_audit_stations(ratios, passes)
     names = res.names
@@ -255,28 +256,40 @@ def _segment_fields(res: SectionChecks, station_ft, design_height_ft) -> dict:
 
 
 def _record_stations(out: _StationResults, q, idx, own, over, res, status) -> None:
-    """The segment's own stations (its end station goes to the next) into ``out``."""
-    local = {int(j): jl for jl, j in enumerate(idx)}
+    """The segment's own stations into ``out``: the first ``len(own)`` of ``idx``, which are
+    consecutive (its end station goes to the next segment)."""
+    n_own = len(own)
+    if n_own == 0:
+        return
+    first = int(idx[0])
+    mine = slice(first, first + n_own)  # in the wall's arrays
+    head = slice(0, n_own)  # in the segment's
+    out.segment[mine] = q
+    ov = np.asarray(over, bool)[head]
     if res is not None:
-        ratio = np.asarray(res.utilization_max, float)
-        g_names = res.governing
-        w_names = res.worst
-        own_local = np.array([local[int(j)] for j in own])
+        def per_station(v, dtype=None):
+            v = np.asarray(v, dtype)
+            return v[head] if v.ndim else np.full(n_own, v)
+
         for row in res.rows:
-            arr = out.checks.setdefault(row.name, np.full(out.n, np.nan))
-            arr[own] = np.broadcast_to(row.ratio, res.shape)[own_local]
-    for j in own:
-        jl = local[int(j)]
-        out.segment[j] = q
-        if over[jl]:
+            arr = out.checks.get(row.name)
+            if arr is None:
+                arr = out.checks[row.name] = np.full(out.n, np.nan)
+            v = np.asarray(row.ratio, float)
+            arr[mine] = v[head] if v.ndim else v
+        util = per_station(res.utilization_max, float)
+        out.utilization[mine] = np.where(ov, out.utilization[mine], util)
+        gov, worst = per_station(res.governing).tolist(), per_station(res.worst).tolist()
+        ok = per_station(res.passes, bool).tolist()
+    for k in range(n_own):
+        j = first + k
+        if ov[k]:
             out.status[j] = OVER_LIMIT_STATUS
         elif res is None:
             out.status[j] = status
         else:
-            out.utilization[j] = float(ratio[jl])
-            out.governing[j] = str(g_names[jl])
-            out.status[j] = OK if bool(np.asarray(res.passes)[jl]) else Status(
-                StatusCode.FAILS, str(w_names[jl]))
+            out.governing[j] = str(gov[k])
+            out.status[j] = OK if ok[k] else Status(StatusCode.FAILS, str(worst[k]))
 
 
 BATCH_MIN_STATIONS = 64  # below this a wall's segments are checked one by one

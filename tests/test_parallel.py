@@ -120,3 +120,48 @@ def test_a_worker_that_dies_is_an_error_not_a_wait(monkeypatch):
     monkeypatch.setenv(WORKERS_ENV, "2")
     with pytest.raises(BrokenProcessPool):
         run_tasks([Task("x", _nap), Task("y", _die)])
+
+
+def _slow_write(path: Path) -> None:
+    import time
+
+    time.sleep(1.5)
+    path.write_text("late")
+
+
+@pytest.mark.parametrize("workers", ["1", "2"])
+def test_background_tasks_run_once_and_report_their_time(tmp_path: Path, monkeypatch, workers):
+    from wallsched.parallel import Background
+
+    monkeypatch.setenv(WORKERS_ENV, workers)
+    tasks = [Task("p", lambda k=k: _write(tmp_path / f"{k}.txt", str(k))) for k in range(3)]
+    pid = tmp_path / "pid"
+    tasks.append(Task("p", lambda: pid.write_text(str(os.getpid()))))
+    with Background(tasks) as bg:
+        spent = bg.finish()
+    assert sorted(p.read_text() for p in tmp_path.glob("*.txt")) == ["0", "1", "2"]
+    assert set(spent) == {"p"} and spent["p"] >= 0.0
+    # with two workers the tasks ran in another process, with one in this one
+    assert (pid.read_text() != str(os.getpid())) == (workers == "2")
+
+
+def test_a_failing_background_task_raises_its_error_here(monkeypatch):
+    from wallsched.parallel import Background
+
+    monkeypatch.setenv(WORKERS_ENV, "2")
+    with Background([Task("x", lambda: None), Task("y", _refuse)]) as bg, \
+            pytest.raises(InputError, match="no such layer"):  # run again here, as serially
+        bg.finish()
+
+
+def test_leaving_early_ends_the_background_process(tmp_path: Path, monkeypatch):
+    import time
+
+    from wallsched.parallel import Background
+
+    monkeypatch.setenv(WORKERS_ENV, "2")
+    late = tmp_path / "late.txt"
+    with pytest.raises(RuntimeError), Background([Task("s", lambda: _slow_write(late))]):
+        raise RuntimeError("the design failed")  # the block is left before finish()
+    time.sleep(2.0)  # longer than the task would take
+    assert not late.exists()

@@ -35,7 +35,8 @@ def design(ctx, site_file: Path, out_dir: Path, compare_dir: Path | None, replac
     from .design import design_site, previous_run
     from .guardrails import plain_key_warnings, site_warnings
     from .outdir import claim_output, staged_output
-    from .pipeline import collect_warnings, site_stations, write_design
+    from .parallel import Background
+    from .pipeline import collect_warnings, profile_tasks, site_stations, write_design
     from .site import load_site
     from .stages import Stages, progress_wanted
 
@@ -54,15 +55,18 @@ def design(ctx, site_file: Path, out_dir: Path, compare_dir: Path | None, replac
                              where="--compare")
     previous = None if compare_dir is None else previous_run(compare_dir)
     n = sum(len(w) for w in walls)
-    with stages.items("designing", len(walls), f"walls ({n} stations)") as tick:
-        sd = design_site(site, walls, progress=tick, previous=previous)
-    sd.warnings.extend(warns)
-    sd.warnings.extend(site_warnings(site, walls))
-    sd.warnings.extend(plain_key_warnings(sd))
+    # the output folder is staged before the design, so that the profile plots (they need
+    # only the stations) are drawn beside it; a failing design leaves nothing behind
     with staged_output(out_dir, replace=replace, protect=site.input_files(),
-                       warn=_warn(quiet)) as tmp:
+                       warn=_warn(quiet)) as tmp, \
+            Background([] if no_drawings else profile_tasks(walls, tmp)) as profiles:
+        with stages.items("designing", len(walls), f"walls ({n} stations)") as tick:
+            sd = design_site(site, walls, progress=tick, previous=previous)
+        sd.warnings.extend(warns)
+        sd.warnings.extend(site_warnings(site, walls))
+        sd.warnings.extend(plain_key_warnings(sd))
         summary = write_design(site, sd, tmp, drawings=not no_drawings, compare_dir=compare_dir,
-                               stages=stages)
+                               stages=stages, profiles=None if no_drawings else profiles)
     stages.write_times()
     if not quiet:
         for line in sd.warnings:

@@ -160,3 +160,76 @@ def run_tasks(tasks: Sequence[Task], *, progress: Callable[[int], None] | None =
     for k, dt in zip(order, took, strict=True):
         spent[tasks[k].stage] = spent.get(tasks[k].stage, 0.0) + dt
     return spent
+
+
+class Background:
+    """Tasks run in one forked process while this one goes on (the profile plots, which need
+    only the sampled stations, beside the design); a context manager.
+
+    :meth:`finish` waits for it and returns the seconds spent per stage name. Where the process
+    failed (or could not be forked), the tasks are run again here, so that their error is
+    raised as a serial run would raise it; with one worker (``WALLSCHED_WORKERS=1``), or no
+    ``fork``, they run here at :meth:`finish`. Leaving the block early (an error, a stop) ends
+    the process: nothing more is written by it."""
+
+    def __init__(self, tasks: Sequence[Task]):
+        self.tasks = list(tasks)
+        self.proc = None
+
+    def __enter__(self) -> Background:
+        global _PARENT
+        if not self.tasks or worker_count(2) <= 1 or "fork" not in mp.get_all_start_methods():
+            return self
+        ctx = mp.get_context("fork")
+        self._pipe_r, pipe_w = ctx.Pipe(duplex=False)
+        _PARENT = os.getpid()
+        old = signal.pthread_sigmask(signal.SIG_BLOCK, _STOPPING)
+        try:
+            self.proc = ctx.Process(target=_background_main, args=(self.tasks, pipe_w),
+                                    daemon=True)
+            self.proc.start()
+        except OSError:
+            self.proc = None
+        finally:
+            signal.pthread_sigmask(signal.SIG_SETMASK, old)
+        pipe_w.close()
+        return self
+
+    def finish(self) -> dict[str, float]:
+        """Wait for the tasks (running them here where the process did not finish them)."""
+        if self.proc is not None:
+            spent = None
+            try:
+                if self._pipe_r.poll(None):
+                    spent = self._pipe_r.recv()
+            except (EOFError, OSError):
+                spent = None
+            self.proc.join()
+            ok = self.proc.exitcode == 0 and isinstance(spent, dict)
+            self.proc = None
+            self._pipe_r.close()
+            if ok:
+                return spent
+        spent: dict[str, float] = {}
+        for task in self.tasks:
+            spent[task.stage] = spent.get(task.stage, 0.0) + _timed(task)
+        return spent
+
+    def __exit__(self, *exc) -> None:
+        if self.proc is not None:  # left before finish(): end it
+            self.proc.terminate()
+            self.proc.join()
+            self.proc = None
+            self._pipe_r.close()
+
+
+def _background_main(tasks: Sequence[Task], pipe) -> None:
+    _worker_start()
+    spent: dict[str, float] = {}
+    try:
+        for task in tasks:
+            spent[task.stage] = spent.get(task.stage, 0.0) + _timed(task)
+    except BaseException:
+        os._exit(1)  # the parent runs the tasks again and raises the error itself
+    pipe.send(spent)
+    pipe.close()

@@ -98,12 +98,63 @@ def wall_summary(w) -> str:
     return text
 
 
+def profile_tasks(walls: list[WallStations], out: Path) -> list:
+    """One task per wall writing its profile plot (``<stem>-profile.png``) into ``out``: they
+    need only the sampled stations, so ``wallsched design`` runs them beside the design."""
+    from .exporters.file_names import wall_file_stems
+    from .exporters.plots import plot_stations
+    from .parallel import Task
+
+    stems = wall_file_stems(w.wall for w in walls)
+    return [Task("profile plot", lambda w=w: plot_stations(w, out / f"{stems[w.wall]}-profile.png"))
+            for w in walls]
+
+
 def write_design(site, sd, out: Path, *, drawings: bool = True, compare_dir=None,
-                 stages=None) -> list[str]:
+                 stages=None, profiles=None) -> list[str]:
     """Every output of ``wallsched design`` into ``out``; returns the summary lines.
 
-    ``stages`` (a ``wallsched.stages.Stages``) times each output and shows the progress."""
+    ``stages`` (a ``wallsched.stages.Stages``) times each output and shows the progress;
+    ``profiles`` (a ``wallsched.parallel.Background`` running :func:`profile_tasks`), when
+    given, writes the profile plots instead of the drawing tasks, and is waited for here."""
     from .basis import run_info
+    from .parallel import Task, run_tasks
+    from .stages import QUIET
+
+    stages = stages or QUIET
+    run = run_info(site)
+    write_stations, write_tables, write_workbook = table_writers(run, sd, out)
+    lines = [wall_summary(w) for w in sd.walls]
+    d, tasks = None, []
+    book_weight = 1.0 + len(sd.bars) / 1e3
+    if compare_dir is not None:  # the comparison reads the tables back first
+        with stages.stage("writing tables"):
+            write_stations()
+            schedule = write_tables()
+        d = compare_runs(out, compare_dir, stages)
+        lines += d.summary_lines()
+        tasks.append(Task("workbook", lambda: write_workbook(schedule), weight=book_weight))
+    else:  # the tables (the workbook with them) and the long stations table beside the drawings
+        tasks.append(Task("writing tables", lambda: write_workbook(write_tables()),
+                          weight=book_weight + 0.5))
+        tasks.append(Task("stations table", write_stations,
+                          weight=1.0 + sum(len(w.stations) for w in sd.walls) / 2e3))
+    tasks += output_tasks(run, sd, out, diff=d, drawings=drawings,
+                          drawing=getattr(site, "drawing", None), profiles=profiles is None)
+    with stages.items("drawings and calc package", len(tasks), "outputs") as tick:
+        spent = run_tasks(tasks, progress=tick)
+    if profiles is not None:
+        spent.update(profiles.finish())
+    for name, dt in spent.items():  # the time each kind of output took, summed over workers
+        stages.times_s[name] = stages.times_s.get(name, 0.0) + dt
+    return lines
+
+
+def table_writers(run, sd, out: Path):
+    """(stations, tables, workbook): the writers of ``stations.csv``; of ``schedule.csv``,
+    ``rebar.csv``, ``barlist.csv`` and ``run.json`` (returning the schedule as written); and of
+    ``schedule.xlsx`` from that schedule."""
+    from .exporters.barlist import write_barlist_csv
     from .exporters.rebar import write_rebar_csv
     from .exporters.schedule import (
         run_record,
@@ -113,55 +164,45 @@ def write_design(site, sd, out: Path, *, drawings: bool = True, compare_dir=None
         write_xlsx,
     )
     from .exporters.tables import FLOAT_FORMAT, write_csv
-    from .parallel import Task, run_tasks
-    from .stages import QUIET
 
-    stages = stages or QUIET
-    run = run_info(site)
-    def write_stations():
+    def write_stations() -> None:
         write_csv(stations_frame(sd.walls), out / "stations.csv")
 
-    with stages.stage("writing tables"):
-        if compare_dir is not None:  # the comparison reads the stations back
-            write_stations()
+    def write_tables():
         schedule = write_schedule(sd.walls, out, sd.warnings)
         write_rebar_csv(sd.bars, out / "rebar.csv", float_format=FLOAT_FORMAT)
         if sd.barlist is not None:
-            from .exporters.barlist import write_barlist_csv
-
             write_barlist_csv(sd.barlist, out / "barlist.csv", float_format=FLOAT_FORMAT)
         write_run_json(run_record(run, sd, schedule), out / "run.json")
-    lines = [wall_summary(w) for w in sd.walls]
-    d = None
-    if compare_dir is not None:
-        from .exporters.diff import RunTables, diff_tables, read_run, write_diff
+        return schedule
 
-        with stages.stage("comparing"):
-            # the new run as written (the same rounding as the earlier run's files), so that
-            # an unchanged wall compares equal
-            written = read_run(out)
-            new = RunTables(written.schedule, written.stations, None)
-            d = diff_tables(read_run(compare_dir), new)
-            write_diff(d, out / "diff.csv")
-        lines += d.summary_lines()
-    tasks = output_tasks(run, sd, out, diff=d, drawings=drawings,
-                         drawing=getattr(site, "drawing", None))
-    if compare_dir is None:  # a long table: written beside the drawings
-        tasks.append(Task("stations table", write_stations,
-                          weight=1.0 + sum(len(w.stations) for w in sd.walls) / 2e3))
-    tasks.append(Task("workbook", lambda: write_xlsx(
-        schedule, sd.bars, sd.quantity_totals, out / "schedule.xlsx", run.site_name,
-        barlist=sd.barlist), weight=1.0 + len(sd.bars) / 1e3))
-    with stages.items("drawings and calc package", len(tasks), "outputs") as tick:
-        spent = run_tasks(tasks, progress=tick)
-    for name, dt in spent.items():  # the time each kind of output took, summed over workers
-        stages.times_s[name] = stages.times_s.get(name, 0.0) + dt
-    return lines
+    def write_workbook(schedule) -> None:
+        write_xlsx(schedule, sd.bars, sd.quantity_totals, out / "schedule.xlsx", run.site_name,
+                   barlist=sd.barlist)
+
+    return write_stations, write_tables, write_workbook
 
 
-def output_tasks(run, sd, out: Path, *, diff=None, drawings: bool = True, drawing=None):
+def compare_runs(out: Path, compare_dir: Path, stages):
+    """``diff.csv`` of the run written in ``out`` against the one in ``compare_dir``; returns
+    the comparison (``exporters.compare.RunDiff``)."""
+    from .exporters.diff import RunTables, diff_tables, read_run, write_diff
+
+    with stages.stage("comparing"):
+        # the new run as written (the same rounding as the earlier run's files), so that an
+        # unchanged wall compares equal
+        written = read_run(out)
+        d = diff_tables(read_run(compare_dir), RunTables(written.schedule, written.stations,
+                                                         None))
+        write_diff(d, out / "diff.csv")
+    return d
+
+
+def output_tasks(run, sd, out: Path, *, diff=None, drawings: bool = True, drawing=None,
+                 profiles: bool = True):
     """The outputs that do not depend on one another: the calc package and, with
-    ``drawings``, each wall's drawings and plots (``wallsched.parallel`` runs them)."""
+    ``drawings``, each wall's drawings and plots (``wallsched.parallel`` runs them; the
+    profile plots only with ``profiles``)."""
     from .exporters.report import write_report
     from .parallel import Task
 
@@ -173,14 +214,15 @@ def output_tasks(run, sd, out: Path, *, diff=None, drawings: bool = True, drawin
         stems = wall_file_stems(w.wall for w in sd.walls)
         for w in sd.walls:
             tasks.append(Task("drawing", lambda w=w: write_wall_drawings(
-                run, w, out, stems[w.wall], diff=diff, drawing=drawing),
+                run, w, out, stems[w.wall], diff=diff, drawing=drawing, profile=profiles),
                 weight=1.0 + len(w.stations) / 1e3))
     return tasks
 
 
-def write_wall_drawings(run, w, out: Path, stem: str, *, diff=None, drawing=None) -> None:
-    """One wall's profile plot, DXF elevation and design plots, into files named by ``stem``
-    (the wall's safe, unique file stem); with ``diff`` (a RunDiff
+def write_wall_drawings(run, w, out: Path, stem: str, *, diff=None, drawing=None,
+                        profile: bool = True) -> None:
+    """One wall's profile plot (with ``profile``), DXF elevation and design plots, into files
+    named by ``stem`` (the wall's safe, unique file stem); with ``diff`` (a RunDiff
     against an earlier run) a changed wall's DXF gets a revision cloud around every changed
     range."""
     from .exporters.design_plots import write_design_plots
@@ -188,7 +230,8 @@ def write_wall_drawings(run, w, out: Path, stem: str, *, diff=None, drawing=None
     from .exporters.plots import plot_stations
 
     name = stem
-    plot_stations(w.stations, out / f"{name}-profile.png")
+    if profile:
+        plot_stations(w.stations, out / f"{name}-profile.png")
     if not w.segments:
         return
     revisions = diff.changed_station_ranges(w.wall) if diff is not None else None
