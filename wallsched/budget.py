@@ -14,9 +14,11 @@
 
 Both are estimated from the sampled stations and the grid, before anything is allocated, and
 a run whose estimate exceeds ``[sizing] memory_budget_gb`` (default 2 GB) is refused with
-one line naming what is too large and how to change it. The lowerings are counted at their
-most (``LOWERINGS_STEEP``, offered where the ground is steep), so the estimate bounds the
-run whatever the ground.
+one line naming what is too large and how to change it. The recursion plans the walls of a
+batch together with their footings at the highest level (one lowering), and a wall whose
+ground is too steep for that alone again with ``LOWERINGS_STEEP`` lowerings
+(``engine.segments._plan_batch``); the estimate is the larger of the two passes, so it bounds
+the run whatever the ground.
 """
 
 from __future__ import annotations
@@ -28,8 +30,12 @@ from .errors import InputError
 
 BYTES_PER_GEOMETRY = 80  # measured (see above), rounded up
 BASE_BYTES = 0.3e9  # the interpreter, numpy/pandas/shapely, the stations and the results
-STATE_BYTES = 8 * (2 + 3 * LOWERINGS_STEEP) + 4 * 8 * LOWERINGS_STEEP + 9  # per [j, k]
 PAIR_BYTES = 34  # per pair of states in a block: the differences, masks, penalties, sums
+
+
+def state_bytes(lowerings: int) -> int:
+    """Bytes per state [j, k] of the recursion with ``lowerings`` footing levels."""
+    return 8 * (2 + 3 * lowerings) + 4 * 8 * lowerings + 9
 GB = 1e9
 
 
@@ -60,9 +66,14 @@ def segmenting_bytes(walls: list[tuple[int, int, int]]) -> float:
     k1 = max(k for _, k, _ in walls)
     block = min(b for _, _, b in walls)
     together = max(1, min(len(walls), BATCH_STATIONS // max(n_max, 1)))
-    states = together * n_max * k1
-    pairs = together * block * k1 * k1 * LOWERINGS_STEEP ** 2
-    return float(states) * STATE_BYTES + float(pairs) * PAIR_BYTES
+
+    def one_pass(runs: int, lowerings: int) -> float:
+        states = float(runs * n_max * k1)
+        pairs = float(runs * block * k1 * k1 * lowerings ** 2)
+        return states * state_bytes(lowerings) + pairs * PAIR_BYTES
+
+    # the batch at the highest footings; a wall on steep ground again, alone
+    return max(one_pass(together, 1), one_pass(1, LOWERINGS_STEEP))
 
 
 def parallel_segmenting_bytes(walls: list[tuple[int, int, int]]) -> float:
