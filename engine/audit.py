@@ -115,6 +115,12 @@ def _clip_x(pts, x0, right=True):
     return _clip(pts, (lambda p: p[0] >= x0) if right else (lambda p: p[0] <= x0), cut)
 
 
+# one Simpson panel per piece between the breaks: Simpson's rule is exact for polynomials of
+# degree three or less, and the pressures integrated with it are linear between their breaks
+# (times a lever arm: quadratic); the strip loads' stresses are not, and take 200 panels
+PANELS_EXACT = 1
+
+
 def _simpson(fn, a, b, breaks=(), n=64):
     """Composite Simpson integral of fn over [a, b], split at the break points inside it
     (exact for piecewise cubics between the breaks)."""
@@ -314,8 +320,8 @@ def _key_audit(efp_p, neglect, emb, kd, width_in, fc):
     y_a = max(neglect - emb, 0.0)  # the loaded part of the key, down from its root
     # ASCE 7-22 2.3.1: 1.6 on H (earth pressure), the factor the stem takes (engine/key.py)
     # the load is linear in y (its moment quadratic): Simpson on a few intervals is exact
-    vu = 1.6 * _simpson(lambda y: efp_p * (emb + y), y_a, kd, n=4)
-    mu = 1.6 * _simpson(lambda y: efp_p * (emb + y) * y, y_a, kd, n=4)  # the same factor
+    vu = 1.6 * _simpson(lambda y: efp_p * (emb + y), y_a, kd, n=PANELS_EXACT)
+    mu = 1.6 * _simpson(lambda y: efp_p * (emb + y) * y, y_a, kd, n=PANELS_EXACT)  # the same factor
     h = max(width_in - 2.0, 0.0)
     pmn = 0.60 * 5.0 * math.sqrt(fc) * (12.0 * h ** 2 / 6.0) / 12.0
     pvn = 0.60 * (4.0 / 3.0) * math.sqrt(fc) * 12.0 * h
@@ -457,10 +463,10 @@ def _lateral(ctx_: dict) -> dict:
 
         brk = [hw]  # integrate from the base (y = 0) to the top of the plane (y = Hp)
         # linear between the breaks (times y: quadratic), so a few Simpson intervals are exact
-        f = _simpson(p_soil, 0.0, Hp, brk, 4)
-        m = _simpson(lambda y: p_soil(y) * y, 0.0, Hp, brk, 4)
-        fw = _simpson(lambda y: WATER * max(hw - y, 0.0), 0.0, Hp, brk, 4)
-        mw = _simpson(lambda y: WATER * max(hw - y, 0.0) * y, 0.0, Hp, brk, 4)
+        f = _simpson(p_soil, 0.0, Hp, brk, PANELS_EXACT)
+        m = _simpson(lambda y: p_soil(y) * y, 0.0, Hp, brk, PANELS_EXACT)
+        fw = _simpson(lambda y: WATER * max(hw - y, 0.0), 0.0, Hp, brk, PANELS_EXACT)
+        mw = _simpson(lambda y: WATER * max(hw - y, 0.0) * y, 0.0, Hp, brk, PANELS_EXACT)
         fh, mh, fv = f * ci + fw, m * ci + mw, f * si_
         if live:
             fh += ka * q * Hp * ci
@@ -623,7 +629,7 @@ def _stem(ctx_: dict) -> dict:
         brk = [H - hw] + (_strip_breaks(strips, zc) if live else [])
         # without strips the pressure is piecewise linear between the breaks (the water
         # level), so Simpson's rule on a few intervals is exact; strip stresses are not
-        n = 200 if (live and strips) else 4
+        n = 200 if (live and strips) else PANELS_EXACT
         return (_simpson(lambda z: p(z) * (zc - z), 0.0, zc, brk, n),
                 _simpson(p, 0.0, zc, brk, n))
 
@@ -644,8 +650,8 @@ def _stem(ctx_: dict) -> dict:
             return tot / hs * (1.6 - 1.2 * z / hs)
 
         zc = min(max(zc, 0.0), hs)
-        m = _simpson(lambda z: p(z) * (zc - z), 0.0, zc, n=4)  # linear p: exact
-        v = _simpson(p, 0.0, zc, n=4)
+        m = _simpson(lambda z: p(z) * (zc - z), 0.0, zc, n=PANELS_EXACT)  # linear p: exact
+        v = _simpson(p, 0.0, zc, n=PANELS_EXACT)
         y_cut = H - zc
         a_c, _, y_c = _polygon_y(_clip_y(stem_poly_up, y_cut, below=False))
         return m + sz.kh * gc * a_c * (y_c - y_cut), v + sz.kh * gc * a_c
@@ -800,8 +806,8 @@ def _heel(ctx_: dict) -> dict:
         heel_combo = ""
         for name, fd, fh, fl, e in combos:
             pf, brk = combo_pressure(fd, fh, fl, e)
-            up_f = _simpson(pf, x_back, B, brk, 4)
-            up_m = _simpson(lambda x, pf=pf: pf(x) * (x - x_back), x_back, B, brk, 4)
+            up_f = _simpson(pf, x_back, B, brk, PANELS_EXACT)
+            up_m = _simpson(lambda x, pf=pf: pf(x) * (x - x_back), x_back, B, brk, PANELS_EXACT)
             pv = 0.0 if stem_plane else (fh * th_h[2] + fl * th_l[2]
                                          + (e[2] if e is not None else 0.0))
             v_c = fd * dead_f + fl * q * heel + pv - up_f
@@ -837,16 +843,17 @@ def _toe(ctx_: dict) -> dict:
 
             def u(x):
                 return WATER * hw * x / B
-            f_up += _simpson(u, 0.0, lv, n=4)
-            m_up += _simpson(lambda x: u(x) * (toe - x), 0.0, toe, n=4)
+            f_up += _simpson(u, 0.0, lv, n=PANELS_EXACT)
+            m_up += _simpson(lambda x: u(x) * (toe - x), 0.0, toe, n=PANELS_EXACT)
         mu_t = 1.6 * m_up - 0.9 * w_toe * toe ** 2 / 2
         vu_t = 1.6 * f_up - 0.9 * w_toe * lv
     else:
         mu_t = vu_t = math.nan
     if sz is not None:
         pf, brk = combo_pressure(1.2, 1.6, 0.0, combos[-1][4])
-        m_e = _simpson(lambda x: pf(x) * (toe - x), 0.0, toe, brk, 4) - 1.2 * w_toe * toe ** 2 / 2
-        v_e = _simpson(pf, 0.0, lv, brk, 4) - 1.2 * w_toe * lv
+        m_e = (_simpson(lambda x: pf(x) * (toe - x), 0.0, toe, brk, PANELS_EXACT)
+               - 1.2 * w_toe * toe ** 2 / 2)
+        v_e = _simpson(pf, 0.0, lv, brk, PANELS_EXACT) - 1.2 * w_toe * lv
         mu_t = max(mu_t, m_e) if not math.isnan(mu_t) else math.nan  # static case outside
         vu_t = max(vu_t, v_e) if not math.isnan(vu_t) else math.nan  # the base: no number
     d_t, pmn_t, pvn_t = _footing_audit(rows, "toe", mu_t, vu_t, t_size, t_sp, cov_t, T_in, fc,

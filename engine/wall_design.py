@@ -119,11 +119,10 @@ def audit_stations(inputs, sec: SectionDims, h, emb, fb, res: SectionChecks, wal
         g = dict(geo, retained_height_ft=max(float(h[k]), MIN_CHECK_HEIGHT_FT),
                  embedment_ft=float(emb[k]), freeboard_ft=float(fb[k]))
         rows = audit_section(inputs, g, bars)
-        for c, name in enumerate(names):
+        for c, (name, want) in enumerate(zip(names, row_passes[:, k].tolist(), strict=True)):
             a = rows.get(name)
-            if a is not None and a.passes != bool(row_passes[c, k]):
-                _disagree(a, name, float(ratios[c, k]), bool(row_passes[c, k]), wall,
-                          float(station_ft[k]))
+            if a is not None and a.passes != want:
+                _disagree(a, name, float(ratios[c, k]), want, wall, float(station_ft[k]))
     return tuple(float(station_ft[k]) for k in chosen)
 
 

@@ -24,6 +24,16 @@ def cost_table(h):
     return np.where(h <= 18.0, 40.0 + 6.0 * h + 0.9 * h**2, np.nan)
 
 
+def _floor(x: float, step: float) -> float:
+    out = round(math.floor(x / step + 1e-9) * step, 9)
+    return round(out - step, 9) if out > x else out
+
+
+def _ceil(x: float, step: float) -> float:
+    out = round(math.ceil(x / step - 1e-9) * step, 9)
+    return round(out + step, 9) if out < x else out
+
+
 def brute_force(s, rg, fg, rules, candidates=None):
     """Every way to cut the stations into segments (at the ``candidates`` station indices, by
     default every station), every lowering: the least total cost."""
@@ -41,14 +51,16 @@ def brute_force(s, rg, fg, rules, candidates=None):
         for ms in itertools.product(range(len(lowers)), repeat=len(segs)):
             total, prev_bf, prev_tw = 0.0, None, None
             for (i, j), m in zip(segs, ms, strict=True):
-                bf_top = math.floor((min(fg[i:j + 1]) - rules.embedment_ft)
-                                    / rules.bf_round_ft + 1e-9) * rules.bf_round_ft
+                # the grids' rounding as the planner's (engine/segments.py _floor_to and
+                # _ceil_to): the footing never above, the top never below the level asked
+                # for, however little (a grade 1e-14 ft over a multiple takes the next one)
+                bf_top = _floor(min(fg[i:j + 1]) - rules.embedment_ft, rules.bf_round_ft)
                 bf = bf_top - lowers[m]
                 h = max(rg[i:j + 1]) - min(fg[i:j + 1]) + lowers[m] + rules.bf_round_ft
                 c = float(cost_table(h))
                 c = INFEASIBLE_COST_PER_FT if math.isnan(c) else c  # flagged, never hidden
                 step = rules.top_step_in / 12
-                tw = math.ceil((max(rg[i:j + 1]) + rules.freeboard_ft) / step - 1e-9) * step
+                tw = _ceil(max(rg[i:j + 1]) + rules.freeboard_ft, step)
                 if prev_bf is not None:
                     if abs(bf - prev_bf) > rules.footing_step_max_ft + 1e-9:
                         total = math.inf

@@ -105,10 +105,13 @@ def main(argv=None) -> int:
                           footing_thickness_in=col("footing_thickness_in"),
                           stem_top_in=col("stem_top_in"), stem_base_in=col("stem_base_in"),
                           toe_ft=col("toe_ft"), heel_ft=col("heel_ft"),
+                          key_width_in=col("key_width_in"), key_depth_in=col("key_depth_in"),
+                          key_offset_ft=col("key_offset_ft"),
                           freeboard_ft=crit["freeboard_ft"])
     reinf = Reinforcement(stem=bars("stem_bars"), heel=bars("heel_bars"), toe=bars("toe_bars"),
                           horizontal=bars("horizontal_bars"),
-                          longitudinal=bars("footing_long_bars"))
+                          longitudinal=bars("footing_long_bars"),
+                          heel_hooked=col("heel_hooked"), toe_hooked=col("toe_hooked"))
     t0 = time.perf_counter()
     res = check_section(geo, inputs, reinf)
     single_pass_s = time.perf_counter() - t0
