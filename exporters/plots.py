@@ -26,7 +26,7 @@ FOOTER_PT = 5.5
 OPTIONAL = "wallsched-optional"
 GAP_PX = 1.0  # clear gap kept between two texts
 _DRAWN = "_wallsched_drawn"  # set by finish: the figure's pixels are final
-_ANCHOR = "_wallsched_anchor"  # an optional text's (transform, point, offset in points)
+_PENDING = "_wallsched_optional"  # a figure's optional texts to place: (ax, x, y, text, ...)
 
 
 def new_figure(*, nrows: int = 1, figsize=FIGSIZE_IN, sharex=True, **kw):
@@ -41,28 +41,30 @@ def new_figure(*, nrows: int = 1, figsize=FIGSIZE_IN, sharex=True, **kw):
     return fig, axes[:, 0]
 
 
-def optional_text(ax, x, y, text, *, priority: int = 0, **kw):
+def optional_text(ax, x, y, text, *, priority: int = 0, **kw) -> None:
     """A text that :func:`finish` keeps only where it overlaps nothing (``ax.annotate``
-    arguments: ``xytext`` and ``textcoords`` offset it from the point)."""
-    t = ax.annotate(text, (x, y), **kw)
-    t.set_gid(f"{OPTIONAL}:{priority}")
-    t.set_in_layout(False)  # placed inside the axes; the layout makes room for fixed texts only
+    arguments: ``xytext`` and ``textcoords`` offset it from the point). It is made there, and
+    only where the point it is aligned on is clear: most optional texts of a long wall never
+    become artists."""
+    fig = ax.figure
+    pending = getattr(fig, _PENDING, None)
+    if pending is None:
+        pending = []
+        setattr(fig, _PENDING, pending)
+    pending.append((ax, x, y, text, priority, kw))
+
+
+def _anchor_px(ax, x, y, kw: dict, dpi: float):
+    """The display point an optional text is aligned on (its box always holds it), from the
+    point and its offset in points; None when it is placed some other way."""
     xycoords = kw.get("xycoords", "data")
     offset = kw.get("xytext", (0.0, 0.0)) if kw.get("textcoords") == "offset points" else (
         None if "xytext" in kw else (0.0, 0.0))
-    if offset is not None and (xycoords == "data" or hasattr(xycoords, "transform")):
-        setattr(t, _ANCHOR, (ax.transData if xycoords == "data" else xycoords, (x, y), offset))
-    return t
-
-
-def _anchor_px(t, dpi: float):
-    """The display point the text is aligned on (its box always holds it), from the point and
-    offset it was made with; None when it was made some other way."""
-    got = getattr(t, _ANCHOR, None)
-    if got is None:
+    if offset is None or not (xycoords == "data" or hasattr(xycoords, "transform")):
         return None
-    trans, xy, (dx, dy) = got
-    px, py = trans.transform(xy)
+    trans = ax.transData if xycoords == "data" else xycoords
+    px, py = trans.transform((x, y))
+    dx, dy = offset
     return px + dx * dpi / 72.0, py + dy * dpi / 72.0
 
 
@@ -141,28 +143,27 @@ def finish(fig) -> None:
 
     foot = _footer(fig)
     fig.tight_layout(rect=(0, foot, 1, 1))
-    optional = [t for t in fig.findobj(lambda a: str(a.get_gid() or "").startswith(OPTIONAL))]
-    for t in optional:
-        t.set_visible(False)
+    pending = getattr(fig, _PENDING, None) or []
+    setattr(fig, _PENDING, [])
     boxes = _Boxes()
     for _, b in drawn_texts(fig, render=True):
         boxes.add(b)
     renderer = fig.canvas.get_renderer()
-    order = sorted(range(len(optional)),
-                   key=lambda i: (int(optional[i].get_gid().rsplit(":", 1)[1]), i))
+    order = sorted(range(len(pending)), key=lambda i: (pending[i][4], i))
     fig_box = fig.bbox
     for i in order:
-        t = optional[i]
-        anchor = _anchor_px(t, fig.dpi)
+        ax, x, y, text, priority, kw = pending[i]
+        anchor = _anchor_px(ax, x, y, kw, fig.dpi)
         if anchor is not None:
             # the text's box holds its anchor: where the anchor alone is outside the figure or
-            # not clear, so is the box (the same choice, without laying the text out)
+            # not clear, so is the box (the same choice, without making the text)
             a = Bbox.from_extents(anchor[0], anchor[1], anchor[0], anchor[1])
             if not (fig_box.x0 <= a.x0 <= fig_box.x1 and fig_box.y0 <= a.y0 <= fig_box.y1
                     and boxes.clear(a)):
-                t.remove()
                 continue
-        t.set_visible(True)
+        t = ax.annotate(text, (x, y), **kw)
+        t.set_gid(f"{OPTIONAL}:{priority}")
+        t.set_in_layout(False)
         b = t.get_window_extent(renderer)
         inside = (b.x0 >= fig_box.x0 and b.x1 <= fig_box.x1 and b.y0 >= fig_box.y0
                   and b.y1 <= fig_box.y1)
