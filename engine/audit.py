@@ -118,7 +118,7 @@ def _clip_x(pts, x0, right=True):
 # one Simpson panel per piece between the breaks: Simpson's rule is exact for polynomials of
 # degree three or less, and the pressures integrated with it are linear between their breaks
 # (times a lever arm: quadratic); the strip loads' stresses are not, and take 200 panels
-PANELS_EXACT = 1
+PANELS_EXACT = 1  # Simpson's rule exact for cubics: common practice (numerical analysis)
 
 
 def _simpson(fn, a, b, breaks=(), n=64):
@@ -319,9 +319,9 @@ def _key_audit(efp_p, neglect, emb, kd, width_in, fc):
     phi 0.60 (Table 21.2.1), h = width - 2 in against soil (14.5.1.7) (from memory)."""
     y_a = max(neglect - emb, 0.0)  # the loaded part of the key, down from its root
     # ASCE 7-22 2.3.1: 1.6 on H (earth pressure), the factor the stem takes (engine/key.py)
-    # the load is linear in y (its moment quadratic): Simpson on a few intervals is exact
-    vu = 1.6 * _simpson(lambda y: efp_p * (emb + y), y_a, kd, n=PANELS_EXACT)
-    mu = 1.6 * _simpson(lambda y: efp_p * (emb + y) * y, y_a, kd, n=PANELS_EXACT)  # the same factor
+    # the load is linear in y (its moment quadratic): one Simpson panel is exact
+    vu = 1.6 * _simpson(lambda y: efp_p * (emb + y), y_a, kd, n=PANELS_EXACT)  # 1.6: 2.3.1
+    mu = 1.6 * _simpson(lambda y: efp_p * (emb + y) * y, y_a, kd, n=PANELS_EXACT)  # 1.6: 2.3.1
     h = max(width_in - 2.0, 0.0)
     pmn = 0.60 * 5.0 * math.sqrt(fc) * (12.0 * h ** 2 / 6.0) / 12.0
     pvn = 0.60 * (4.0 / 3.0) * math.sqrt(fc) * 12.0 * h
@@ -462,7 +462,7 @@ def _lateral(ctx_: dict) -> dict:
             return ka * (gam * (Hp - y) + (g_sat - gam - WATER) * max(hw - y, 0.0))
 
         brk = [hw]  # integrate from the base (y = 0) to the top of the plane (y = Hp)
-        # linear between the breaks (times y: quadratic), so a few Simpson intervals are exact
+        # linear between the breaks (times y: quadratic), so one Simpson panel each is exact
         f = _simpson(p_soil, 0.0, Hp, brk, PANELS_EXACT)
         m = _simpson(lambda y: p_soil(y) * y, 0.0, Hp, brk, PANELS_EXACT)
         fw = _simpson(lambda y: WATER * max(hw - y, 0.0), 0.0, Hp, brk, PANELS_EXACT)
@@ -628,7 +628,7 @@ def _stem(ctx_: dict) -> dict:
 
         brk = [H - hw] + (_strip_breaks(strips, zc) if live else [])
         # without strips the pressure is piecewise linear between the breaks (the water
-        # level), so Simpson's rule on a few intervals is exact; strip stresses are not
+        # level), so one Simpson panel per piece is exact; strip stresses are not
         n = 200 if (live and strips) else PANELS_EXACT
         return (_simpson(lambda z: p(z) * (zc - z), 0.0, zc, brk, n),
                 _simpson(p, 0.0, zc, brk, n))

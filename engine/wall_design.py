@@ -274,8 +274,7 @@ def _record_stations(out: _StationResults, q, idx, own, over, res, status) -> No
             arr = out.checks.get(row.name)
             if arr is None:
                 arr = out.checks[row.name] = np.full(out.n, np.nan)
-            v = np.asarray(row.ratio, float)
-            arr[mine] = v[head] if v.ndim else v
+            arr[mine] = per_station(row.ratio, float)
         util = per_station(res.utilization_max, float)
         out.utilization[mine] = np.where(ov, out.utilization[mine], util)
         gov, worst = per_station(res.governing).tolist(), per_station(res.worst).tolist()

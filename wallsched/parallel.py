@@ -181,54 +181,56 @@ class Background:
         if not self.tasks or worker_count(2) <= 1 or "fork" not in mp.get_all_start_methods():
             return self
         ctx = mp.get_context("fork")
-        self._pipe_r, pipe_w = ctx.Pipe(duplex=False)
+        pipe_r, pipe_w = ctx.Pipe(duplex=False)
         _PARENT = os.getpid()
         old = signal.pthread_sigmask(signal.SIG_BLOCK, _STOPPING)
         try:
-            self.proc = ctx.Process(target=_background_main, args=(self.tasks, pipe_w),
-                                    daemon=True)
-            self.proc.start()
-        except OSError:
-            self.proc = None
+            proc = ctx.Process(target=_background_main, args=(self.tasks, pipe_w), daemon=True)
+            proc.start()
+            self.proc, self._pipe = proc, pipe_r
+        except OSError:  # no process: the tasks run here at finish()
+            pipe_r.close()
         finally:
             signal.pthread_sigmask(signal.SIG_SETMASK, old)
-        pipe_w.close()
+            pipe_w.close()
         return self
 
     def finish(self) -> dict[str, float]:
         """Wait for the tasks (running them here where the process did not finish them)."""
         if self.proc is not None:
-            spent = None
             try:
-                if self._pipe_r.poll(None):
-                    spent = self._pipe_r.recv()
+                spent = self._pipe.recv()  # the child's stage times; EOF when it failed
             except (EOFError, OSError):
                 spent = None
-            self.proc.join()
-            ok = self.proc.exitcode == 0 and isinstance(spent, dict)
-            self.proc = None
-            self._pipe_r.close()
-            if ok:
+            self._close(end=False)
+            if isinstance(spent, dict):
                 return spent
-        spent: dict[str, float] = {}
-        for task in self.tasks:
-            spent[task.stage] = spent.get(task.stage, 0.0) + _timed(task)
-        return spent
+        return _run_all(self.tasks)
+
+    def _close(self, *, end: bool) -> None:
+        if end:
+            self.proc.terminate()
+        self.proc.join()
+        self.proc = None
+        self._pipe.close()
 
     def __exit__(self, *exc) -> None:
         if self.proc is not None:  # left before finish(): end it
-            self.proc.terminate()
-            self.proc.join()
-            self.proc = None
-            self._pipe_r.close()
+            self._close(end=True)
+
+
+def _run_all(tasks: Sequence[Task]) -> dict[str, float]:
+    """Run the tasks here, one after the other; the seconds spent per stage name."""
+    spent: dict[str, float] = {}
+    for task in tasks:
+        spent[task.stage] = spent.get(task.stage, 0.0) + _timed(task)
+    return spent
 
 
 def _background_main(tasks: Sequence[Task], pipe) -> None:
     _worker_start()
-    spent: dict[str, float] = {}
     try:
-        for task in tasks:
-            spent[task.stage] = spent.get(task.stage, 0.0) + _timed(task)
+        spent = _run_all(tasks)
     except BaseException:
         os._exit(1)  # the parent runs the tasks again and raises the error itself
     pipe.send(spent)

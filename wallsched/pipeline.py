@@ -140,7 +140,8 @@ def write_design(site, sd, out: Path, *, drawings: bool = True, compare_dir=None
         tasks.append(Task("stations table", write_stations,
                           weight=1.0 + sum(len(w.stations) for w in sd.walls) / 2e3))
     tasks += output_tasks(run, sd, out, diff=d, drawings=drawings,
-                          drawing=getattr(site, "drawing", None), profiles=profiles is None)
+                          drawing=getattr(site, "drawing", None),
+                          profile_plots=profiles is None)
     with stages.items("drawings and calc package", len(tasks), "outputs") as tick:
         spent = run_tasks(tasks, progress=tick)
     if profiles is not None:
@@ -199,10 +200,10 @@ def compare_runs(out: Path, compare_dir: Path, stages):
 
 
 def output_tasks(run, sd, out: Path, *, diff=None, drawings: bool = True, drawing=None,
-                 profiles: bool = True):
+                 profile_plots: bool = True):
     """The outputs that do not depend on one another: the calc package and, with
     ``drawings``, each wall's drawings and plots (``wallsched.parallel`` runs them; the
-    profile plots only with ``profiles``)."""
+    profile plots only with ``profile_plots``)."""
     from .exporters.report import write_report
     from .parallel import Task
 
@@ -214,7 +215,7 @@ def output_tasks(run, sd, out: Path, *, diff=None, drawings: bool = True, drawin
         stems = wall_file_stems(w.wall for w in sd.walls)
         for w in sd.walls:
             tasks.append(Task("drawing", lambda w=w: write_wall_drawings(
-                run, w, out, stems[w.wall], diff=diff, drawing=drawing, profile=profiles),
+                run, w, out, stems[w.wall], diff=diff, drawing=drawing, profile=profile_plots),
                 weight=1.0 + len(w.stations) / 1e3))
     return tasks
 
