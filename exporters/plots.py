@@ -76,14 +76,112 @@ def _footer(fig) -> float:
     line_h = 1.4 * FOOTER_PT / 72.0 / fig.get_figheight()
     y = 0.005
     for line in reversed(lines):
-        fig.text(0.01, y, line, fontsize=FOOTER_PT, color="0.3", va="bottom")
+        text = _stamp_text_class()(0.01, y, line, fontsize=FOOTER_PT, color="0.3", va="bottom")
+        text.set_transform(fig.transSubfigure)  # as ``fig.text`` does
+        text.set_figure(fig)
+        fig.texts.append(text)
+        text._remove_method = fig.texts.remove
         y += line_h
     return y + 0.005
+
+
+_RECORDING: list | None = None  # drawn_texts' record while a figure draws
+_STAMPS: dict = {}  # a stamped text's key -> its pixels before and after it was drawn
+STAMP_PAD_PX = 4  # the pixels kept round a stamped text's box (glyphs may reach past it)
+STAMP_LIMIT = 200  # texts kept at most (a footer line of an 11 in plot: about 0.1 MB)
+_STAMP_CLASS = None
+STAMP_USES = [0]  # the times a kept text was copied in (read by the tests)
+
+
+def _stamp_text_class():
+    """The class of a text drawn from a copy of its pixels (made once, on first use, so that
+    matplotlib is imported only when a plot is drawn)."""
+    global _STAMP_CLASS
+    if _STAMP_CLASS is None:
+        from matplotlib.backends.backend_agg import RendererAgg
+        from matplotlib.text import Text
+        from matplotlib.transforms import Bbox
+
+        base_draw = Text.draw
+
+        class StampedText(Text):
+            """A fixed text repeated on many figures of one size (the caution footer): the
+            first time it is drawn, the pixels of its box (with a margin) are kept before and
+            after; where the same text is drawn again at the same place on a figure of the
+            same size over the same pixels, the kept result is copied in. The copy is the
+            draw's own result byte for byte: it is taken only where the drawing changed
+            nothing outside the kept pixels, and used only over identical pixels."""
+
+            def _key(self, renderer):
+                fig = self.figure
+                return (self.get_text(), self.get_fontproperties(), str(self.get_color()),
+                        self.get_alpha(), self.get_rotation(), self.get_ha(), self.get_va(),
+                        self.get_position(), tuple(fig.bbox.bounds), fig.dpi,
+                        renderer.width, renderer.height)
+
+            def get_window_extent(self, renderer=None, dpi=None):
+                if renderer is not None and dpi is None:
+                    kept = _STAMPS.get(self._key(renderer))
+                    if kept is not None:
+                        return Bbox(kept[0])
+                return super().get_window_extent(renderer, dpi)
+
+            def draw(self, renderer):
+                if not self.get_visible():
+                    return None
+                if not isinstance(renderer, RendererAgg) or "draw_text" in vars(renderer):
+                    # another renderer, or a draw without pixels (the layout alone)
+                    base_draw(self, renderer)
+                    _record(self, Text.get_window_extent(self, renderer))
+                    return None
+                key = self._key(renderer)
+                buf = np.asarray(renderer.buffer_rgba())
+                kept = _STAMPS.get(key)
+                if kept is not None:
+                    _, rows, cols, before, after = kept
+                    if np.array_equal(buf[rows, cols], before):
+                        buf[rows, cols] = after
+                        STAMP_USES[0] += 1
+                        self.stale = False
+                        _record(self, Bbox(kept[0]))
+                        return None
+                box = Text.get_window_extent(self, renderer)
+                h, w = buf.shape[:2]
+                pad = STAMP_PAD_PX
+                r0, r1 = max(int(h - box.y1) - pad, 0), min(int(h - box.y0) + pad + 1, h)
+                c0, c1 = max(int(box.x0) - pad, 0), min(int(box.x1) + pad + 1, w)
+                rows, cols = slice(r0, r1), slice(c0, c1)
+                ring = (slice(max(r0 - pad, 0), min(r1 + pad, h)),
+                        slice(max(c0 - pad, 0), min(c1 + pad, w)))
+                around, before = buf[ring].copy(), buf[rows, cols].copy()
+                base_draw(self, renderer)
+                after = buf[rows, cols].copy()
+                # the drawing stayed inside the kept pixels: the ring round them is unchanged
+                inner = (slice(r0 - ring[0].start, r1 - ring[0].start),
+                         slice(c0 - ring[1].start, c1 - ring[1].start))
+                changed = buf[ring].copy()
+                changed[inner], around[inner] = 0, 0
+                if (kept is None and np.array_equal(changed, around)
+                        and not np.array_equal(before, after)):
+                    if len(_STAMPS) >= STAMP_LIMIT:
+                        _STAMPS.clear()
+                    _STAMPS[key] = (box.get_points().copy(), rows, cols, before, after)
+                _record(self, box)
+                return None
+
+        _STAMP_CLASS = StampedText
+    return _STAMP_CLASS
+
+
+def _record(text, box) -> None:
+    if _RECORDING is not None and text.get_text().strip():
+        _RECORDING.append((text, box))
 
 
 def drawn_texts(fig, *, render: bool = False) -> list:
     """``(text, window extent)`` of every text ``fig`` draws (empty ones left out), read
     while the figure draws itself (with ``render``, into its pixels; else no pixels)."""
+    global _RECORDING
     from matplotlib.text import Text
 
     seen = []
@@ -95,6 +193,7 @@ def drawn_texts(fig, *, render: bool = False) -> list:
             seen.append((self, self.get_window_extent(renderer)))
 
     Text.draw = recording
+    _RECORDING = seen  # the stamped texts record themselves
     try:
         if render:
             fig.canvas.draw()
@@ -102,6 +201,7 @@ def drawn_texts(fig, *, render: bool = False) -> list:
             fig.draw_without_rendering()  # the layout and every text's extent, no pixels
     finally:
         Text.draw = draw
+        _RECORDING = None
     return seen
 
 

@@ -190,3 +190,41 @@ def test_plots_draw_the_envelope_of_many_stations():
                     assert len(line.get_xdata()) <= 4 * PLOT_COLUMNS + 4, name
     finally:
         _close(figs)
+
+
+def test_stamped_footer_is_the_drawn_footer_byte_for_byte(tmp_path):
+    """The caution footer copied from an earlier figure of the same size (the stamp cache of
+    ``plots``) gives the PNG a fresh draw gives, and the cautions are still the figure's
+    texts; a different figure under the footer is drawn, not copied."""
+    from wallsched.exporters import plots
+    from wallsched.exporters.design_plots import plot_design_elevation
+
+    from wallsched.cautions import CAUTIONS
+
+    design = make_design()
+    plots._STAMPS.clear()
+    fresh = plot_design_elevation(design, tmp_path / "fresh.png").read_bytes()
+    assert plots._STAMPS  # the first draw kept the footer's pixels
+    uses = plots.STAMP_USES[0]
+    again = plot_design_elevation(design, tmp_path / "again.png").read_bytes()
+    assert plots.STAMP_USES[0] - uses == len(plots._STAMPS)  # every footer line copied
+    assert again == fresh
+    # with nothing kept, the same bytes again
+    plots._STAMPS.clear()
+    assert plot_design_elevation(design, tmp_path / "third.png").read_bytes() == fresh
+    fig = plots.stations_figure(design.stations)
+    footer = " ".join(t.get_text() for t in fig.texts)
+    assert all(c.split()[0] in footer for c in CAUTIONS)
+    import matplotlib.pyplot as plt
+
+    plt.close(fig)
+    # other pixels under the footer (a grey figure): drawn, not copied
+    fig, _ = plots.new_figure()
+    fig.set_facecolor("0.8")
+    plots._footer(fig)
+    uses = plots.STAMP_USES[0]
+    fig.canvas.draw()
+    assert plots.STAMP_USES[0] == uses
+    foot = np.asarray(fig.canvas.buffer_rgba())[-20:, :400, :3]
+    assert (foot < 120).any()  # the footer's text is there
+    plt.close(fig)

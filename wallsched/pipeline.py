@@ -214,33 +214,43 @@ def output_tasks(run, sd, out: Path, *, diff=None, drawings: bool = True, drawin
 
         stems = wall_file_stems(w.wall for w in sd.walls)
         for w in sd.walls:
-            tasks.append(Task("drawing", lambda w=w: write_wall_drawings(
-                run, w, out, stems[w.wall], diff=diff, drawing=drawing, profile=profile_plots),
-                weight=1.0 + len(w.stations) / 1e3))
+            # a wall's DXF and its plots are two tasks: finer pieces leave less of a tail
+            # where one worker finishes alone
+            for part in WALL_DRAWING_PARTS:
+                tasks.append(Task("drawing", lambda w=w, part=part: write_wall_drawings(
+                    run, w, out, stems[w.wall], diff=diff, drawing=drawing,
+                    profile=profile_plots, parts=(part,)),
+                    weight=WALL_DRAWING_PARTS[part] * (1.0 + len(w.stations) / 1e3)))
     return tasks
 
 
+WALL_DRAWING_PARTS = {"dxf": 1.0, "plots": 2.0}  # a part's rough cost against the other
+
+
 def write_wall_drawings(run, w, out: Path, stem: str, *, diff=None, drawing=None,
-                        profile: bool = True) -> None:
-    """One wall's profile plot (with ``profile``), DXF elevation and design plots, into files
-    named by ``stem`` (the wall's safe, unique file stem); with ``diff`` (a RunDiff
-    against an earlier run) a changed wall's DXF gets a revision cloud around every changed
-    range."""
+                        profile: bool = True, parts=tuple(WALL_DRAWING_PARTS)) -> None:
+    """One wall's DXF elevation (part ``"dxf"``) and its plots (part ``"plots"``: the profile
+    plot with ``profile``, the design plots), into files named by ``stem`` (the wall's safe,
+    unique file stem); with ``diff`` (a RunDiff against an earlier run) a changed wall's DXF
+    gets a revision cloud around every changed range."""
     from .exporters.design_plots import write_design_plots
     from .exporters.dxf_elevation import write_elevation_dxf
     from .exporters.plots import plot_stations
 
     name = stem
-    if profile:
+    if profile and "plots" in parts:
         plot_stations(w.stations, out / f"{name}-profile.png")
     if not w.segments:
         return
-    revisions = diff.changed_station_ranges(w.wall) if diff is not None else None
     dr = dict(drawing or {})
-    write_elevation_dxf(w, out / f"{name}-elevation.dxf", input_hash=run.hash_text,
-                        site_name=run.site_name, revisions=revisions,
-                        vertical_exaggeration=dr.get("vertical_exaggeration") or 2.0,
-                        sheet_size=dr.get("sheet_size") or "ARCH D",
-                        label_interval_ft=dr.get("label_interval_ft") or 50.0,
-                        date=dr.get("date") or "", revision=dr.get("revision") or "")
-    write_design_plots(w, out, stem=name, label_interval_ft=dr.get("label_interval_ft") or 50.0)
+    if "dxf" in parts:
+        revisions = diff.changed_station_ranges(w.wall) if diff is not None else None
+        write_elevation_dxf(w, out / f"{name}-elevation.dxf", input_hash=run.hash_text,
+                            site_name=run.site_name, revisions=revisions,
+                            vertical_exaggeration=dr.get("vertical_exaggeration") or 2.0,
+                            sheet_size=dr.get("sheet_size") or "ARCH D",
+                            label_interval_ft=dr.get("label_interval_ft") or 50.0,
+                            date=dr.get("date") or "", revision=dr.get("revision") or "")
+    if "plots" in parts:
+        write_design_plots(w, out, stem=name,
+                           label_interval_ft=dr.get("label_interval_ft") or 50.0)
